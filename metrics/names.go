@@ -1,0 +1,43 @@
+// Package metrics computes weighted performance metrics of a binary
+// classifier's scores: threshold rates (FPR, TPR, ...), proper scoring rules
+// (Brier, log loss), calibration summaries and AUC. Every function takes
+// optional weights; nil means every record weighs 1.
+package metrics
+
+import "errors"
+
+// Metric names accepted in specs and printed in outputs.
+const (
+	FPR                   = "fpr"
+	TPR                   = "tpr"
+	FNR                   = "fnr"
+	PPV                   = "ppv"
+	NPV                   = "npv"
+	SelectionRate         = "selection_rate"
+	Accuracy              = "accuracy"
+	Brier                 = "brier"
+	LogLoss               = "log_loss"
+	CalibrationInTheLarge = "calibration_in_the_large"
+	ECE                   = "ece"
+	AUC                   = "auc"
+	DefaultECEBins        = 10
+)
+
+// Names lists every supported metric name in a fixed order.
+func Names() []string {
+	return []string{FPR, TPR, FNR, PPV, NPV, SelectionRate, Accuracy, Brier, LogLoss, CalibrationInTheLarge, ECE, AUC}
+}
+
+// Known reports whether name is a supported metric.
+func Known(name string) bool {
+	for _, n := range Names() {
+		if n == name {
+			return true
+		}
+	}
+	return false
+}
+
+// ErrUndefined is wrapped by errors for a metric that has no value on the
+// given sample, e.g. FPR when there are no negatives.
+var ErrUndefined = errors.New("metric undefined")
