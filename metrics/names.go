@@ -1,6 +1,7 @@
 // Package metrics computes weighted performance metrics of a binary
 // classifier's scores: threshold rates (FPR, TPR, ...), proper scoring rules
 // (Brier, log loss), calibration summaries and AUC. Every function takes
+
 // optional weights; nil means every record weighs 1.
 package metrics
 
@@ -8,24 +9,24 @@ import "errors"
 
 // Metric names accepted in specs and printed in outputs.
 const (
-	FPR                   = "fpr"
-	TPR                   = "tpr"
-	FNR                   = "fnr"
-	PPV                   = "ppv"
-	NPV                   = "npv"
-	SelectionRate         = "selection_rate"
-	Accuracy              = "accuracy"
-	Brier                 = "brier"
-	LogLoss               = "log_loss"
-	CalibrationInTheLarge = "calibration_in_the_large"
-	ECE                   = "ece"
-	AUC                   = "auc"
-	DefaultECEBins        = 10
+	NameFPR                   = "fpr"
+	NameTPR                   = "tpr"
+	NameFNR                   = "fnr"
+	NamePPV                   = "ppv"
+	NameNPV                   = "npv"
+	NameSelectionRate         = "selection_rate"
+	NameAccuracy              = "accuracy"
+	NameBrier                 = "brier"
+	NameLogLoss               = "log_loss"
+	NameCalibrationInTheLarge = "calibration_in_the_large"
+	NameECE                   = "ece"
+	NameAUC                   = "auc"
+	DefaultECEBins            = 10
 )
 
 // Names lists every supported metric name in a fixed order.
 func Names() []string {
-	return []string{FPR, TPR, FNR, PPV, NPV, SelectionRate, Accuracy, Brier, LogLoss, CalibrationInTheLarge, ECE, AUC}
+	return []string{NameFPR, NameTPR, NameFNR, NamePPV, NameNPV, NameSelectionRate, NameAccuracy, NameBrier, NameLogLoss, NameCalibrationInTheLarge, NameECE, NameAUC}
 }
 
 // Known reports whether name is a supported metric.

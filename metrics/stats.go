@@ -108,21 +108,21 @@ func (st *Stats) Value(name string) (float64, error) {
 	tp, fp, tn, fn := st.Confusion()
 	total := tp + fp + tn + fn
 	switch name {
-	case FPR:
+	case NameFPR:
 		return ratio(name, fp, fp+tn, "negatives")
-	case TPR:
+	case NameTPR:
 		return ratio(name, tp, tp+fn, "positives")
-	case FNR:
+	case NameFNR:
 		return ratio(name, fn, tp+fn, "positives")
-	case PPV:
+	case NamePPV:
 		return ratio(name, tp, tp+fp, "positive decisions")
-	case NPV:
+	case NameNPV:
 		return ratio(name, tn, tn+fn, "negative decisions")
-	case SelectionRate:
+	case NameSelectionRate:
 		return ratio(name, tp+fp, total, "records")
-	case Accuracy:
+	case NameAccuracy:
 		return ratio(name, tp+tn, total, "records")
-	case Brier:
+	case NameBrier:
 		// (s−y)² = s² − 2ys + y
 		var sum float64
 		for c := range st.W {
@@ -130,20 +130,20 @@ func (st *Stats) Value(name string) (float64, error) {
 			sum += st.WS2[c] - 2*y*st.WS[c] + y*st.W[c]
 		}
 		return ratio(name, sum, total, "records")
-	case LogLoss:
+	case NameLogLoss:
 		var sum float64
 		for _, v := range st.WL {
 			sum += v
 		}
 		return ratio(name, sum, total, "records")
-	case CalibrationInTheLarge:
+	case NameCalibrationInTheLarge:
 		var sum float64
 		for c := range st.W {
 			y := float64((c >> 1) & 1)
 			sum += st.WS[c] - y*st.W[c]
 		}
 		return ratio(name, sum, total, "records")
-	case ECE:
+	case NameECE:
 		var sum float64
 		for b := 0; b < st.Bins; b++ {
 			var d float64
@@ -155,7 +155,7 @@ func (st *Stats) Value(name string) (float64, error) {
 			sum += math.Abs(d)
 		}
 		return ratio(name, sum, total, "records")
-	case AUC:
+	case NameAUC:
 		return math.NaN(), fmt.Errorf("metrics: auc cannot be computed from Stats; use AUC on the records")
 	}
 	return math.NaN(), fmt.Errorf("metrics: unknown metric %q", name)
