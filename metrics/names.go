@@ -1,7 +1,6 @@
 // Package metrics computes weighted performance metrics of a binary
 // classifier's scores: threshold rates (FPR, TPR, ...), proper scoring rules
 // (Brier, log loss), calibration summaries and AUC. Every function takes
-
 // optional weights; nil means every record weighs 1.
 package metrics
 
