@@ -57,12 +57,16 @@ type GroupInfo struct {
 // MetricResult is one audited metric. Gap = Comparison − Reference and
 // Σ Contributions[i].Value + Residual = Gap.
 type MetricResult struct {
-	Metric        string         `json:"metric"`
-	Reference     float64        `json:"reference"`
-	Comparison    float64        `json:"comparison"`
-	Gap           float64        `json:"gap"`
-	Estimated     float64        `json:"estimated_gap"` // Σ contributions: the reweighted estimate of the gap
-	Residual      float64        `json:"residual"`
+	Metric     string  `json:"metric"`
+	Reference  float64 `json:"reference"`
+	Comparison float64 `json:"comparison"`
+	Gap        float64 `json:"gap"`
+	Estimated  float64 `json:"estimated_gap"` // Σ contributions: the reweighted estimate of the gap
+	Residual   float64 `json:"residual"`
+	// Intervals are present when the bootstrap ran.
+	ReferenceCI   *Interval      `json:"reference_ci,omitempty"`
+	ComparisonCI  *Interval      `json:"comparison_ci,omitempty"`
+	GapCI         *Interval      `json:"gap_ci,omitempty"`
 	Contributions []Contribution `json:"contributions"`
 }
 
@@ -71,6 +75,9 @@ type Contribution struct {
 	Node      string  `json:"node"`
 	Mechanism string  `json:"mechanism"`
 	Value     float64 `json:"value"`
+	// CILow and CIHigh bound Value when the bootstrap ran.
+	CILow  *float64 `json:"ci_low,omitempty"`
+	CIHigh *float64 `json:"ci_high,omitempty"`
 	// Alone is the change in the metric if only this mechanism took the
 	// comparison group's form: v({i}).
 	Alone float64 `json:"alone"`
@@ -99,4 +106,10 @@ type MechanismResult struct {
 type LearnerLoss struct {
 	Classifier string  `json:"classifier"`
 	LogLoss    float64 `json:"log_loss"`
+}
+
+// Interval is a percentile bootstrap interval.
+type Interval struct {
+	Low  float64 `json:"ci_low"`
+	High float64 `json:"ci_high"`
 }
