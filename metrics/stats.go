@@ -58,8 +58,11 @@ func Cell(label, score, threshold float64, bins int) int {
 	return (b*2+y)*2 + d
 }
 
-// LogLossEps bounds scores away from 0 and 1 in the log loss, as
-// scikit-learn's log_loss did by default before version 1.5 (common practice).
+// LogLossEps bounds scores away from 0 and 1 in the log loss. It is the
+// default clip of scikit-learn's log_loss before version 1.2, which changed
+// the default to the machine epsilon of the score type (per the log_loss
+// docstring of the installed scikit-learn 1.2.1); the fixture script passes
+// eps=1e-15 explicitly.
 const LogLossEps = 1e-15
 
 // LogLossTerm is −[y·log s + (1−y)·log(1−s)] with s clipped to
