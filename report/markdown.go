@@ -1,0 +1,103 @@
+package report
+
+import (
+	"bufio"
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// WriteMarkdown writes a compact Markdown report of res to w, for pasting
+// into a pull request or an issue: a title, the plain-language summary of
+// every metric, a table of the two groups' metric values and one table per
+// metric with its decomposition (contributions, intervals when the
+// bootstrap ran, the residual). Numbers are formatted exactly as in the
+// HTML report. It returns the first write error.
+func WriteMarkdown(w io.Writer, res *fairness.Result) error {
+	bw := bufio.NewWriter(w)
+	p := func(format string, args ...any) { fmt.Fprintf(bw, format, args...) }
+
+	p("## Gap audit: `%s` for %s vs %s\n\n", mdText(res.Score), mdText(res.Groups.Comparison), mdText(res.Groups.Reference))
+	if res.Synthetic {
+		p("> **Synthetic data.** These numbers come from an invented cohort and describe no real patients.\n\n")
+	}
+	p("Groups by `%s`: reference %s (%d records), comparison %s (%d records). Label `%s`, decision threshold %s.\n\n",
+		mdText(res.Groups.Column), mdText(res.Groups.Reference), res.Groups.NReference,
+		mdText(res.Groups.Comparison), res.Groups.NComparison, mdText(res.Label), formatThreshold(res.Threshold))
+	for _, m := range res.Metrics {
+		p("%s\n\n", Summary(res, m))
+	}
+
+	p("### Metrics by group\n\n")
+	p("| Metric | %s (reference) | %s (comparison) | Gap |\n", mdCell(res.Groups.Reference), mdCell(res.Groups.Comparison))
+	p("| --- | ---: | ---: | ---: |\n")
+	for _, m := range res.Metrics {
+		p("| %s | %s | %s | %s |\n", mdCell(MetricTitle(m.Metric)),
+			withInterval(formatValue(m.Metric, m.Reference), formatValueInterval(m.Metric, m.ReferenceCI)),
+			withInterval(formatValue(m.Metric, m.Comparison), formatValueInterval(m.Metric, m.ComparisonCI)),
+			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m)))
+	}
+	p("\n")
+
+	flags := unreliable(res)
+	for _, m := range res.Metrics {
+		p("### Decomposition of the %s gap\n\n", mdText(MetricTitle(m.Metric)))
+		p("| Mechanism | Contribution | 95%% interval | Alone | Gap if equalised |\n")
+		p("| --- | ---: | ---: | ---: | ---: |\n")
+		for _, c := range m.Contributions {
+			name := "`" + mdCell(c.Mechanism) + "`"
+			if _, ok := flags[c.Node]; ok {
+				name += " (unreliable)"
+			}
+			p("| %s | %s | %s | %s | %s |\n", name, formatDelta(m.Metric, c.Value),
+				orDash(formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)),
+				formatDelta(m.Metric, c.Alone), formatDelta(m.Metric, c.IfEqualised))
+		}
+		p("| Sum of contributions | %s | | | |\n", formatDelta(m.Metric, m.Estimated))
+		p("| Residual (not assigned) | %s | | | |\n", formatDelta(m.Metric, m.Residual))
+		p("| Observed gap | %s | %s | | |\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)))
+	}
+	if len(res.Warnings) > 0 {
+		p("### Warnings\n\n")
+		for _, w := range res.Warnings {
+			p("- %s\n", mdText(w))
+		}
+		p("\n")
+	}
+	p("_Statistical estimates under the stated causal assumptions, not clinical or legal findings. %s %s, seed %d._\n",
+		mdText(res.Tool.Name), mdText(res.Tool.Version), res.Seed)
+	return bw.Flush()
+}
+
+// formatThreshold prints the decision threshold with up to four decimals.
+func formatThreshold(t float64) string {
+	s := strings.TrimRight(strings.TrimRight(fmt.Sprintf("%.4f", t), "0"), ".")
+	return s
+}
+
+// withInterval appends a bracketed interval to a value when there is one.
+func withInterval(v, ci string) string {
+	if ci == "" {
+		return v
+	}
+	return v + " (" + ci + ")"
+}
+
+func orDash(s string) string {
+	if s == "" {
+		return "–"
+	}
+	return s
+}
+
+// mdCell escapes text for a Markdown table cell: pipes would end the cell
+// and newlines the row.
+func mdCell(s string) string {
+	s = strings.ReplaceAll(s, "|", `\|`)
+	return strings.Join(strings.Fields(s), " ")
+}
+
+// mdText flattens text onto one line for Markdown running text.
+func mdText(s string) string { return strings.Join(strings.Fields(s), " ") }

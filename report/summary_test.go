@@ -1,0 +1,83 @@
+package report
+
+import (
+	"math"
+	"strings"
+	"testing"
+)
+
+// The expected strings are the fixture's numbers rounded by hand (analytic
+// ground truth: 0.061 → 6.1 points, −0.012 → 1.2 points, ...).
+func TestFormat(t *testing.T) {
+	tests := []struct {
+		name, got, want string
+	}{
+		{"proportion", formatValue("fnr", 0.12), "12.0%"},
+		{"proportion rounds half-even-free", formatValue("fpr", 0.1234), "12.3%"},
+		{"score", formatValue("brier", 0.0812), "0.081"},
+		{"nan", formatValue("fnr", math.NaN()), "n/a"},
+		{"delta positive", formatDelta("fnr", 0.09), "+9.0 pts"},
+		{"delta negative", formatDelta("fnr", -0.012), "−1.2 pts"},
+		{"delta zero has no sign", formatDelta("fnr", -0.0002), "0.0 pts"},
+		{"delta score", formatDelta("brier", -0.0067), "−0.007"},
+		{"interval", formatDeltaInterval("fnr", ptr(-0.02), ptr(-0.004)), "−2.0 to −0.4 pts"},
+		{"interval absent", formatDeltaInterval("fnr", nil, ptr(1)), ""},
+		{"count", formatCount(12), "12"},
+		{"weighted count", formatCount(12.25), "12.2"},
+		{"threshold", formatThreshold(0.35), "0.35"},
+	}
+	for _, tt := range tests {
+		if tt.got != tt.want {
+			t.Errorf("%s: got %q, want %q", tt.name, tt.got, tt.want)
+		}
+	}
+}
+
+func TestSummary(t *testing.T) {
+	res := handResult()
+	got := Summary(res, res.Metrics[0])
+	// Each fragment is the fixture's numbers rounded by hand.
+	for _, want := range []string{
+		"The false-negative rate is 21.0% for women and 12.0% for men (reference group).",
+		"Of the 9.0-point gap (higher for women; 95% interval 6.1 to 11.8 pts), ",
+		"6.1 points (95% interval 4.8 to 7.3 pts) come from how `hb` presents given `anaemia`; ",
+		"3.0 points come from how often `anaemia` occurs given `age`",
+		"the mix of `age` narrows it by 1.2 points (95% interval −2.0 to −0.4 pts)",
+		"The other 1 mechanism together contribute 0.0 pts.",
+		"add up to +7.9 pts; the remaining +1.1 pts (residual)",
+	} {
+		if !strings.Contains(got, want) {
+			t.Errorf("summary lacks %q:\n%s", want, got)
+		}
+	}
+	// ferritin's contribution rounds to zero, so it is not named; its low
+	// ESS share (0.08 < LowESSShare) flags it in the Brier summary, where
+	// it is named.
+	if strings.Contains(got, "ferritin") {
+		t.Errorf("summary names a negligible contribution:\n%s", got)
+	}
+	brier := Summary(res, res.Metrics[1])
+	for _, want := range []string{
+		"Of the gap of 0.007 (lower for women)",
+		"0.004 comes from how often `anaemia` occurs given `age`",
+		"0.001 comes from how `ferritin` presents given `anaemia` and `hb` — unreliable: effective sample size 96 is 8% of the reference group",
+	} {
+		if !strings.Contains(brier, want) {
+			t.Errorf("brier summary lacks %q:\n%s", want, brier)
+		}
+	}
+}
+
+func TestUnreliable(t *testing.T) {
+	res := handResult()
+	got := unreliable(res)
+	if len(got) != 1 || !strings.Contains(got["ferritin"], "8%") {
+		t.Fatalf("unreliable = %v, want only ferritin with its 8%% ESS share", got)
+	}
+	res.Mechanisms[3].ESSShare = 0.5
+	res.Warnings = []string{"mechanism hb: mean ratio 1.2 is far from 1", "hbx is not a node"}
+	got = unreliable(res)
+	if _, ok := got["hb"]; !ok || len(got) != 1 {
+		t.Fatalf("unreliable = %v, want only hb (named as a word in a warning)", got)
+	}
+}
