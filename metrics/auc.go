@@ -44,20 +44,29 @@ func NewAUCSorter(labels, scores []float64) *AUCSorter {
 	if n > math.MaxInt32 {
 		panic("metrics: NewAUCSorter: too many records")
 	}
-	order := make([]int32, n)
-	for i := range order {
-		order[i] = int32(i)
+	// Sorting (score, index) pairs keeps the keys unique, so the order is
+	// fully determined without a stable sort, and compares stay in cache.
+	type keyed struct {
+		s float64
+		i int32
 	}
-	slices.SortStableFunc(order, func(a, b int32) int {
-		sa, sb := scores[a], scores[b]
+	recs := make([]keyed, n)
+	for i, sc := range scores {
+		recs[i] = keyed{sc, int32(i)}
+	}
+	slices.SortFunc(recs, func(a, b keyed) int {
 		switch {
-		case sa < sb:
+		case a.s < b.s:
 			return -1
-		case sa > sb:
+		case a.s > b.s:
 			return 1
 		}
-		return 0
+		return int(a.i - b.i)
 	})
+	order := make([]int32, n)
+	for k, r := range recs {
+		order[k] = r.i
+	}
 	s := &AUCSorter{order: order, y: make([]float64, n)}
 	for k, i := range order {
 		s.y[k] = event(labels[i])
