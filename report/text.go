@@ -1,0 +1,259 @@
+package report
+
+import (
+	"bufio"
+	"fmt"
+	"io"
+	"math"
+	"strings"
+	"unicode/utf8"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// WriteText renders res as a plain-text report for a terminal: the groups
+// and their sizes; per metric the reference and comparison values, the gap,
+// each mechanism's contribution (Shapley value), its effect alone v({i}) and
+// the gap if it alone were equalised v(N∖{i}), and the residual
+// gap − Σ contributions; then per-mechanism diagnostics, warnings and the
+// assumptions under which the numbers hold. Columns are aligned; metric
+// values print with four decimals, differences with a sign. NaN prints as
+// "n/a". It returns the first write error.
+func WriteText(w io.Writer, res *fairness.Result) error {
+	bw := bufio.NewWriter(w)
+	tw := &textWriter{w: bw}
+	tw.header(res)
+	tw.groups(res)
+	for _, m := range res.Metrics {
+		tw.metric(m)
+	}
+	tw.diagnostics(res)
+	tw.list("Warnings", res.Warnings, "none")
+	tw.list("Assumptions and cautions", res.Assumptions, "")
+	tw.inputs(res)
+	return bw.Flush()
+}
+
+// textWriter accumulates the report; bufio.Writer keeps the first error.
+type textWriter struct{ w *bufio.Writer }
+
+func (t *textWriter) line(format string, args ...any) {
+	fmt.Fprintf(t.w, format+"\n", args...)
+}
+
+func (t *textWriter) header(res *fairness.Result) {
+	t.line("%s %s: audit of %q against label %q, positive when score >= %s",
+		res.Tool.Name, res.Tool.Version, res.Score, res.Label, trimFloat(res.Threshold))
+	if res.Synthetic {
+		t.line("SYNTHETIC DATA: the records are invented and describe no real patients.")
+	}
+	t.line("")
+}
+
+func (t *textWriter) groups(res *fairness.Result) {
+	g := res.Groups
+	t.line("Groups (column %q)", g.Column)
+	tab := textTable{header: []string{"role", "value", "records", "dropped"}, right: []bool{false, false, true, true}}
+	tab.add("reference", g.Reference, fmt.Sprint(g.NReference), fmt.Sprint(g.DroppedReference))
+	tab.add("comparison", g.Comparison, fmt.Sprint(g.NComparison), fmt.Sprint(g.DroppedComparison))
+	tab.write(t.w, "  ")
+	t.line("")
+}
+
+func (t *textWriter) metric(m fairness.MetricResult) {
+	t.line("%s (%s)", m.Metric, MetricTitle(m.Metric))
+	vals := textTable{header: []string{"", "value", "95% interval"}, right: []bool{false, true, true}}
+	vals.add("reference", fixed(m.Reference), interval(m.ReferenceCI, fixed))
+	vals.add("comparison", fixed(m.Comparison), interval(m.ComparisonCI, fixed))
+	vals.add("gap (comparison - reference)", signed(m.Gap), interval(m.GapCI, signed))
+	vals.dropEmpty()
+	vals.write(t.w, "  ")
+	t.line("")
+
+	hasCI := false
+	for _, c := range m.Contributions {
+		hasCI = hasCI || (c.CILow != nil && c.CIHigh != nil)
+	}
+	head := []string{"mechanism", "contribution", "alone", "gap if equalised"}
+	right := []bool{false, true, true, true}
+	if hasCI {
+		head = append(head, "95% interval")
+		right = append(right, true)
+	}
+	tab := textTable{header: head, right: right}
+	for _, c := range m.Contributions {
+		row := []string{c.Mechanism, signed(c.Value), signed(c.Alone), signed(c.IfEqualised)}
+		if hasCI {
+			ci := ""
+			if c.CILow != nil && c.CIHigh != nil {
+				ci = signed(*c.CILow) + " to " + signed(*c.CIHigh)
+			}
+			row = append(row, ci)
+		}
+		tab.add(row...)
+	}
+	sum := make([]string, len(head))
+	sum[0], sum[1] = "sum of contributions", signed(m.Estimated)
+	res := make([]string, len(head))
+	res[0], res[1] = "residual (gap - sum)", signed(m.Residual)
+	tab.add(sum...)
+	tab.add(res...)
+	tab.write(t.w, "  ")
+	t.line("")
+}
+
+func (t *textWriter) diagnostics(res *fairness.Result) {
+	if len(res.Mechanisms) == 0 {
+		return
+	}
+	t.line("Mechanism diagnostics (reference records reweighted by one mechanism's ratio)")
+	tab := textTable{
+		header: []string{"mechanism", "classifier", "parents by", "oof AUC", "ESS", "ESS share", "max weight share", "mean ratio"},
+		right:  []bool{false, false, false, true, true, true, true, true},
+	}
+	for _, m := range res.Mechanisms {
+		tab.add(m.Mechanism, m.Classifier, m.ParentClassifier, fixed(m.AUC), fmt.Sprintf("%.1f", m.ESS), fixed(m.ESSShare), fixed(m.MaxShare), fixed(m.MeanRatio))
+	}
+	tab.write(t.w, "  ")
+	t.line("  oof AUC: out-of-fold AUC of the group classifier on (node, parents); mean ratio should be near 1.")
+	t.line("")
+}
+
+func (t *textWriter) list(title string, items []string, empty string) {
+	if len(items) == 0 && empty == "" {
+		return
+	}
+	t.line("%s", title)
+	if len(items) == 0 {
+		t.line("  %s", empty)
+	}
+	for _, it := range items {
+		t.line("  - %s", it)
+	}
+	t.line("")
+}
+
+func (t *textWriter) inputs(res *fairness.Result) {
+	in := res.Inputs
+	s := res.Settings
+	t.line("Inputs and settings")
+	tab := textTable{header: []string{"", ""}}
+	tab.add("spec", in.SpecFile+"  sha256 "+in.SpecSHA256)
+	tab.add("data", in.DataFile+"  sha256 "+in.DataSHA256)
+	tab.add("seed", fmt.Sprint(res.Seed))
+	tab.add("folds", fmt.Sprint(s.Folds))
+	tab.add("classifier", s.Classifier+" ("+strings.Join(s.Learners, ", ")+")")
+	tab.add("ece bins", fmt.Sprint(s.ECEBins))
+	tab.add("missing values", map[bool]string{true: "rows dropped", false: "an error"}[s.DropMissing])
+	tab.noHeader = true
+	tab.write(t.w, "  ")
+}
+
+// fixed prints a value with four decimals; NaN as "n/a".
+func fixed(v float64) string {
+	if math.IsNaN(v) {
+		return "n/a"
+	}
+	return zeroSign(fmt.Sprintf("%.4f", v))
+}
+
+// signed prints a difference with four decimals and a sign; a difference
+// that rounds to zero prints as "0.0000"; NaN as "n/a".
+func signed(v float64) string {
+	if math.IsNaN(v) {
+		return "n/a"
+	}
+	return zeroSign(fmt.Sprintf("%+.4f", v))
+}
+
+// zeroSign strips the sign from a number that prints as zero.
+func zeroSign(s string) string {
+	if strings.Trim(s, "+-0.") == "" {
+		return strings.TrimLeft(s, "+-")
+	}
+	return s
+}
+
+// interval prints "low to high" with f, or "" for a nil interval.
+func interval(ci *fairness.Interval, f func(float64) string) string {
+	if ci == nil {
+		return ""
+	}
+	return f(ci.Low) + " to " + f(ci.High)
+}
+
+// trimFloat prints v in the shortest form that reads back exactly.
+func trimFloat(v float64) string {
+	return fmt.Sprint(v)
+}
+
+// textTable is a block of aligned columns. right[i] right-aligns column i.
+type textTable struct {
+	header   []string
+	right    []bool
+	rows     [][]string
+	noHeader bool
+}
+
+func (t *textTable) add(cells ...string) {
+	t.rows = append(t.rows, cells)
+}
+
+// dropEmpty removes columns that are empty in every row.
+func (t *textTable) dropEmpty() {
+	for c := len(t.header) - 1; c >= 0; c-- {
+		empty := true
+		for _, r := range t.rows {
+			empty = empty && (c >= len(r) || r[c] == "")
+		}
+		if !empty {
+			continue
+		}
+		t.header = append(t.header[:c:c], t.header[c+1:]...)
+		if c < len(t.right) {
+			t.right = append(t.right[:c:c], t.right[c+1:]...)
+		}
+		for i, r := range t.rows {
+			if c < len(r) {
+				t.rows[i] = append(r[:c:c], r[c+1:]...)
+			}
+		}
+	}
+}
+
+// write prints the table with each line prefixed by indent, columns
+// separated by two spaces and trailing blanks trimmed.
+func (t *textTable) write(w io.Writer, indent string) {
+	all := t.rows
+	if !t.noHeader {
+		all = append([][]string{t.header}, t.rows...)
+	}
+	width := make([]int, len(t.header))
+	for _, r := range all {
+		for i, c := range r {
+			if i < len(width) {
+				width[i] = max(width[i], utf8.RuneCountInString(c))
+			}
+		}
+	}
+	for _, r := range all {
+		var b strings.Builder
+		b.WriteString(indent)
+		for i := range width {
+			c := ""
+			if i < len(r) {
+				c = r[i]
+			}
+			pad := strings.Repeat(" ", width[i]-utf8.RuneCountInString(c))
+			if i > 0 {
+				b.WriteString("  ")
+			}
+			if i < len(t.right) && t.right[i] {
+				b.WriteString(pad + c)
+			} else {
+				b.WriteString(c + pad)
+			}
+		}
+		fmt.Fprintln(w, strings.TrimRight(b.String(), " "))
+	}
+}

@@ -1,0 +1,139 @@
+package report
+
+import (
+	"bytes"
+	"errors"
+	"math"
+	"strings"
+	"testing"
+)
+
+// The expected strings below are handResult's numbers rounded by hand to
+// four decimals.
+func TestWriteTextContent(t *testing.T) {
+	var b bytes.Buffer
+	if err := WriteText(&b, handResult()); err != nil {
+		t.Fatal(err)
+	}
+	out := b.String()
+	for _, want := range []string{
+		"gapwise 0.1.0-test: audit of \"risk\" against label \"anaemia\", positive when score >= 0.35",
+		"SYNTHETIC DATA",
+		"Groups (column \"sex\")",
+		"fnr (false-negative rate)",
+		"0.1200",                      // reference FNR
+		"0.2100",                      // comparison FNR
+		"+0.0900  +0.0610 to +0.1180", // gap and its interval
+		"0.1010 to 0.1390",            // reference interval
+		"residual (gap - sum)",        // residual row
+		"+0.0110",                     // FNR residual
+		"+0.0790",                     // Σ contributions
+		"-0.0120  -0.0100",            // age: contribution, alone
+		"-0.0200 to -0.0040",          // age interval
+		"-0.0007",                     // Brier residual
+		"ferritin | anaemia, hb",      // mechanism label
+		"mechanism ferritin: largest weight carries 11% of the total",
+		"There is no hidden confounding.",
+		"cohort.csv  sha256 cd34",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("missing %q in\n%s", want, out)
+		}
+	}
+}
+
+// TestWriteTextAligned checks that every number of the FNR contribution
+// table ends in the same column as its header.
+func TestWriteTextAligned(t *testing.T) {
+	var b bytes.Buffer
+	_ = WriteText(&b, handResult())
+	lines := strings.Split(b.String(), "\n")
+	start := -1
+	for i, l := range lines {
+		if strings.HasPrefix(strings.TrimSpace(l), "mechanism ") && strings.Contains(l, "contribution") {
+			start = i
+			break
+		}
+	}
+	if start < 0 {
+		t.Fatal("no contribution table")
+	}
+	head := lines[start]
+	end := strings.Index(head, "contribution") + len("contribution")
+	for _, want := range []string{"-0.0120", "+0.0300", "+0.0610", "+0.0002", "+0.0790", "+0.0110"} {
+		found := false
+		for _, l := range lines[start+1 : start+7] {
+			if i := strings.Index(l, want); i >= 0 && i+len(want) == end {
+				found = true
+			}
+		}
+		if !found {
+			t.Errorf("%s does not end at column %d:\n%s", want, end, strings.Join(lines[start:start+7], "\n"))
+		}
+	}
+}
+
+func TestWriteTextNumberFormats(t *testing.T) {
+	cases := []struct {
+		v             float64
+		fixed, signed string
+	}{
+		{0.12345, "0.1235", "+0.1235"}, // round half away at 4 decimals: fmt's %.4f
+		{-0.00004, "0.0000", "0.0000"}, // rounds to zero: no sign
+		{math.NaN(), "n/a", "n/a"},
+		{-1.5, "-1.5000", "-1.5000"},
+	}
+	for _, c := range cases {
+		if got := fixed(c.v); got != c.fixed {
+			t.Errorf("fixed(%g) = %q, want %q", c.v, got, c.fixed)
+		}
+		if got := signed(c.v); got != c.signed {
+			t.Errorf("signed(%g) = %q, want %q", c.v, got, c.signed)
+		}
+	}
+}
+
+func TestWriteTextNoIntervalsNoWarnings(t *testing.T) {
+	res := handResult()
+	res.Synthetic = false
+	res.Warnings = nil
+	for i := range res.Metrics {
+		res.Metrics[i].ReferenceCI, res.Metrics[i].GapCI = nil, nil
+		for j := range res.Metrics[i].Contributions {
+			res.Metrics[i].Contributions[j].CILow = nil
+			res.Metrics[i].Contributions[j].CIHigh = nil
+		}
+	}
+	var b bytes.Buffer
+	_ = WriteText(&b, res)
+	out := b.String()
+	for _, bad := range []string{"SYNTHETIC", "interval", " to "} {
+		if strings.Contains(out, bad) {
+			t.Errorf("unexpected %q in\n%s", bad, out)
+		}
+	}
+	if !strings.Contains(out, "Warnings\n  none") {
+		t.Errorf("no 'none' under Warnings:\n%s", out)
+	}
+}
+
+// textFailWriter fails every write.
+type textFailWriter struct{}
+
+func (textFailWriter) Write([]byte) (int, error) { return 0, errors.New("disk full") }
+
+func TestWriteTextReportsWriteError(t *testing.T) {
+	if err := WriteText(textFailWriter{}, handResult()); err == nil || !strings.Contains(err.Error(), "disk full") {
+		t.Errorf("got %v, want the writer's error", err)
+	}
+}
+
+func BenchmarkWriteText(b *testing.B) {
+	res := handResult()
+	for b.Loop() {
+		var buf bytes.Buffer
+		if err := WriteText(&buf, res); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
