@@ -1,0 +1,133 @@
+package attribution
+
+import (
+	"fmt"
+
+	"github.com/gapwise/gapwise/metrics"
+)
+
+// Features accumulated per cell; they mirror the fields of metrics.Stats.
+const (
+	featW   = iota // Σ w
+	featWS         // Σ w·s
+	featWS2        // Σ w·s²
+	featWL         // Σ w·ℓ(y, s)
+	numFeatures
+)
+
+// metricPlan records which cells and features the requested metrics read,
+// so that the engine accumulates nothing else.
+type metricPlan struct {
+	names  []string
+	bins   int   // score bins of the cells: ECE's bins if requested, else 1
+	combos uint8 // bit j set: cells with (y, d) = (j>>1, j&1) are needed
+	feats  []int // needed features, ascending
+	stat   []int // indices into names of metrics computed from Stats
+	auc    int   // index into names of AUC, or −1
+	cells  []int // needed cells, ascending
+	slot   []int // slot[cell] = position in cells, or −1
+}
+
+// Cell classes by (y, d), as bit masks over j = 2y + d.
+const (
+	comboNeg    = 1<<0 | 1<<1 // y = 0
+	comboPos    = 1<<2 | 1<<3 // y = 1
+	comboDecNeg = 1<<0 | 1<<2 // d = 0
+	comboDecPos = 1<<1 | 1<<3 // d = 1
+	comboAll    = 0xf
+)
+
+func newMetricPlan(names []string, eceBins int) (metricPlan, error) {
+	p := metricPlan{names: names, bins: 1, auc: -1}
+	var feats [numFeatures]bool
+	for m, name := range names {
+		combos, fs := uint8(comboAll), []int{featW}
+		switch name {
+		case metrics.NameFPR:
+			combos = comboNeg
+		case metrics.NameTPR, metrics.NameFNR:
+			combos = comboPos
+		case metrics.NamePPV:
+			combos = comboDecPos
+		case metrics.NameNPV:
+			combos = comboDecNeg
+		case metrics.NameSelectionRate, metrics.NameAccuracy:
+		case metrics.NameBrier:
+			fs = []int{featW, featWS, featWS2}
+		case metrics.NameLogLoss:
+			fs = []int{featW, featWL}
+		case metrics.NameCalibrationInTheLarge:
+			fs = []int{featW, featWS}
+		case metrics.NameECE:
+			fs = []int{featW, featWS}
+			p.bins = eceBins
+		case metrics.NameAUC:
+			if p.auc >= 0 {
+				return p, fmt.Errorf("attribution: metric %q requested twice", name)
+			}
+			p.auc = m
+			continue
+		default:
+			return p, fmt.Errorf("attribution: metric %q: %w", name, ErrUnsupportedMetric)
+		}
+		p.combos |= combos
+		for _, f := range fs {
+			feats[f] = true
+		}
+		p.stat = append(p.stat, m)
+	}
+	for f, ok := range feats {
+		if ok {
+			p.feats = append(p.feats, f)
+		}
+	}
+	p.slot = make([]int, metrics.CellCount(p.bins))
+	for c := range p.slot {
+		p.slot[c] = -1
+		if p.combos&(1<<(c&3)) != 0 {
+			p.slot[c] = len(p.cells)
+			p.cells = append(p.cells, c)
+		}
+	}
+	return p, nil
+}
+
+// statMetrics is the number of metrics computed from Stats.
+func (p *metricPlan) statMetrics() int { return len(p.stat) }
+
+// featureValue is the per-record factor of feature f.
+func featureValue(f int, label, score float64) float64 {
+	switch f {
+	case featWS:
+		return score
+	case featWS2:
+		return score * score
+	case featWL:
+		return metrics.LogLossTerm(label, score)
+	}
+	return 1
+}
+
+// fill writes per-cell sums into st: sums[slot][fi] is feature p.feats[fi]
+// of cell p.cells[slot]. Cells and features not in the plan are zero.
+func (p *metricPlan) fill(st *metrics.Stats, sums func(slot, fi int) float64) {
+	clear(st.W)
+	clear(st.WS)
+	clear(st.WS2)
+	clear(st.WL)
+	for s, c := range p.cells {
+		for fi, f := range p.feats {
+			x := sums(s, fi)
+			switch f {
+			case featW:
+				st.W[c] = x
+			case featWS:
+				st.WS[c] = x
+			case featWS2:
+				st.WS2[c] = x
+			case featWL:
+				st.WL[c] = x
+			}
+		}
+	}
+}
