@@ -98,14 +98,48 @@ func (s *AUCSorter) Value(w []float64) (float64, error) {
 	if w != nil && len(w) != len(s.order) {
 		panic("metrics: AUCSorter.Value: weights and records differ in length")
 	}
+	if w == nil {
+		return s.sweep(nil, nil)
+	}
+	return s.sweep(w, s.order)
+}
+
+// ValueSorted is Value with the weights already in sorted order:
+// ws[k] is the weight of record Order()[k]. It gives exactly the same result
+// as Value with w[Order()[k]] = ws[k], without the scattered reads; callers
+// that evaluate many weight vectors can permute their inputs once. It panics
+// if len(ws) differs from Len.
+func (s *AUCSorter) ValueSorted(ws []float64) (float64, error) {
+	if len(ws) != len(s.order) {
+		panic("metrics: AUCSorter.ValueSorted: weights and records differ in length")
+	}
+	return s.sweep(ws, nil)
+}
+
+// Order returns a copy of the record indices in ascending score order (ties
+// in input order).
+func (s *AUCSorter) Order() []int {
+	out := make([]int, len(s.order))
+	for k, i := range s.order {
+		out[k] = int(i)
+	}
+	return out
+}
+
+// sweep computes the AUC with the weight of sorted position k being
+// w[perm[k]], w[k] when perm is nil, or 1 when w is nil.
+func (s *AUCSorter) sweep(w []float64, perm []int32) (float64, error) {
 	var num, negBelow, pos float64
 	start := int32(0)
 	for _, end := range s.ends {
 		var gp, gn float64
 		for k := start; k < end; k++ {
 			wi := 1.0
-			if w != nil {
-				wi = w[s.order[k]]
+			switch {
+			case perm != nil:
+				wi = w[perm[k]]
+			case w != nil:
+				wi = w[k]
 			}
 			yk := s.y[k]
 			gp += yk * wi

@@ -185,3 +185,63 @@ func BenchmarkAUCSorterValue(b *testing.B) {
 		s.Value(w)
 	}
 }
+
+func TestAUCSorterConcurrentUse(t *testing.T) {
+	// A built sorter is read-only: goroutines evaluating different weight
+	// vectors get the same values as a sequential loop.
+	labels, scores, _ := randomRecords(31, 2000)
+	s := NewAUCSorter(labels, scores)
+	ws := make([][]float64, 8)
+	want := make([]float64, len(ws))
+	for k := range ws {
+		_, _, ws[k] = randomRecords(uint64(100+k), 2000)
+		want[k], _ = s.Value(ws[k])
+	}
+	got := make([]float64, len(ws))
+	done := make(chan struct{})
+	for k := range ws {
+		go func() {
+			got[k], _ = s.Value(ws[k])
+			done <- struct{}{}
+		}()
+	}
+	for range ws {
+		<-done
+	}
+	for k := range ws {
+		if got[k] != want[k] {
+			t.Errorf("vector %d: concurrent %v, sequential %v", k, got[k], want[k])
+		}
+	}
+}
+
+func TestAUCSorterValueSorted(t *testing.T) {
+	labels, scores, w := randomRecords(41, 3000)
+	s := NewAUCSorter(labels, scores)
+	order := s.Order()
+	ws := make([]float64, len(w))
+	for k, i := range order {
+		ws[k] = w[i]
+		if k > 0 && scores[order[k-1]] > scores[i] {
+			t.Fatalf("Order not ascending at %d", k)
+		}
+	}
+	a, err1 := s.Value(w)
+	b, err2 := s.ValueSorted(ws)
+	if err1 != nil || err2 != nil || a != b {
+		t.Errorf("Value %v (%v), ValueSorted %v (%v): want identical", a, err1, b, err2)
+	}
+}
+
+func BenchmarkAUCSorterValueSorted(b *testing.B) {
+	labels, scores, w := randomRecords(1, 100_000)
+	s := NewAUCSorter(labels, scores)
+	ws := make([]float64, len(w))
+	for k, i := range s.Order() {
+		ws[k] = w[i]
+	}
+	b.ResetTimer()
+	for b.Loop() {
+		s.ValueSorted(ws)
+	}
+}
