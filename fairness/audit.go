@@ -1,0 +1,179 @@
+package fairness
+
+import (
+	"errors"
+
+	"github.com/gapwise/gapwise/attribution"
+	"github.com/gapwise/gapwise/attribution/classify"
+)
+
+// ToolName is the name recorded in every Result.
+const ToolName = "gapwise"
+
+// RunOptions controls an audit run.
+type RunOptions struct {
+	Workers int    // goroutines for estimation; 0 means GOMAXPROCS
+	Version string // recorded in Result.Tool
+}
+
+// Run performs the audit described by spec: it loads the data, checks that
+// every metric has a value in both groups, encodes the graph columns,
+// estimates the mechanisms' density ratios and the Shapley split of every
+// metric's gap (attribution.Decompose), and maps the outcome into a Result
+// with warnings and the assumptions the numbers rest on. For each metric,
+//
+//	Gap = Comparison − Reference = Σ_i Contributions[i].Value + Residual.
+//
+// The result depends only on spec and the data, not on opt.Workers.
+// Input problems are reported as errors for which IsInputError is true.
+func Run(spec *Spec, opt RunOptions) (*Result, error) {
+	d, err := LoadData(spec)
+	if err != nil {
+		return nil, err
+	}
+	if err := checkMetricsDefined(spec, d); err != nil {
+		return nil, err
+	}
+	sample, mechs := encode(spec, d)
+	learners, ok := candidateLearners(spec.Classifier)
+	if !ok {
+		return nil, specErr(spec.File, spec.KeyLine("classifier"), "classifier", ErrClassifierUnavailable, "classifier %s is not available", spec.Classifier)
+	}
+	dec, err := attribution.Decompose(sample, mechs, spec.Metrics, attribution.Options{
+		Threshold: spec.Threshold,
+		Folds:     spec.Folds,
+		Seed:      spec.Seed,
+		Learners:  learners,
+		ECEBins:   spec.ECEBins,
+		Workers:   opt.Workers,
+	})
+	if err != nil {
+		var me *attribution.MetricError
+		if errors.As(err, &me) {
+			return nil, undefinedMetric(spec, me.Metric, me.Group == attribution.GroupComparison)
+		}
+		return nil, err
+	}
+	r := buildResult(spec, d, dec, learners, opt)
+	r.Warnings = Warnings(r)
+	r.Assumptions = Assumptions(spec.ScoreIsNode(), spec.Synthetic)
+	return r, nil
+}
+
+// candidateLearners returns the learners a classifier setting stands for;
+// ok is false when the setting is unknown or its learner is not built in.
+// "auto" lets attribution choose among all of them per mechanism by
+// out-of-fold log loss.
+func candidateLearners(name string) (learners []classify.Learner, ok bool) {
+	switch name {
+	case ClassifierAuto:
+		return []classify.Learner{classify.NewLinear(), classify.NewExpanded()}, true
+	case ClassifierLinear:
+		return []classify.Learner{classify.NewLinear()}, true
+	case ClassifierExpanded:
+		return []classify.Learner{classify.NewExpanded()}, true
+	}
+	return nil, false
+}
+
+func learnerNames(ls []classify.Learner) []string {
+	names := make([]string, len(ls))
+	for i, l := range ls {
+		names[i] = l.Name()
+	}
+	return names
+}
+
+// buildResult maps a decomposition into the Result contract.
+func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learners []classify.Learner, opt RunOptions) *Result {
+	groups := groupInfo(spec, d)
+	r := &Result{
+		Tool:      ToolInfo{Name: ToolName, Version: opt.Version},
+		Groups:    groups,
+		Label:     spec.Label,
+		Score:     spec.Score,
+		Threshold: spec.Threshold,
+		Seed:      spec.Seed,
+		Settings: Settings{
+			Folds:       spec.Folds,
+			Classifier:  spec.Classifier,
+			ECEBins:     spec.ECEBins,
+			DropMissing: spec.DropMissing(),
+			Learners:    learnerNames(learners),
+		},
+		Synthetic: spec.Synthetic,
+		Inputs: InputInfo{
+			SpecFile:   spec.File,
+			SpecSHA256: spec.SHA256,
+			DataFile:   d.Path,
+			DataSHA256: d.SHA256,
+		},
+		Metrics:     []MetricResult{},
+		Mechanisms:  []MechanismResult{},
+		Warnings:    []string{},
+		Assumptions: []string{},
+	}
+	columns := map[string][]string{}
+	for _, n := range spec.Graph {
+		columns[n.Node] = n.Columns
+	}
+	for _, m := range dec.Mechanisms {
+		mr := MechanismResult{
+			Node:             m.Mechanism.Node,
+			Mechanism:        m.Mechanism.Label(),
+			Parents:          append([]string{}, m.Mechanism.Parents...),
+			Columns:          append([]string{}, columns[m.Mechanism.Node]...),
+			Classifier:       m.Learner,
+			ParentClassifier: m.ParentLearner,
+			Losses:           []LearnerLoss{},
+			AUC:              m.AUC,
+			ESS:              m.ESS,
+			MaxShare:         m.MaxShare,
+			MeanRatio:        m.MeanRatio,
+		}
+		if groups.NReference > 0 {
+			mr.ESSShare = m.ESS / float64(groups.NReference)
+		}
+		for _, l := range m.Losses {
+			mr.Losses = append(mr.Losses, LearnerLoss{Classifier: l.Learner, LogLoss: l.LogLoss})
+		}
+		r.Mechanisms = append(r.Mechanisms, mr)
+	}
+	for _, md := range dec.Metrics {
+		res := MetricResult{
+			Metric:        md.Metric,
+			Reference:     md.Reference,
+			Comparison:    md.Comparison,
+			Gap:           md.Gap,
+			Estimated:     md.Estimated,
+			Residual:      md.Residual,
+			ReferenceCI:   interval(md.ReferenceCI),
+			ComparisonCI:  interval(md.ComparisonCI),
+			GapCI:         interval(md.GapCI),
+			Contributions: []Contribution{},
+		}
+		for i, m := range dec.Mechanisms {
+			c := Contribution{
+				Node:        m.Mechanism.Node,
+				Mechanism:   m.Mechanism.Label(),
+				Value:       md.Contributions[i],
+				Alone:       md.Alone[i],
+				IfEqualised: md.IfEqualised[i],
+			}
+			if i < len(md.ContributionCIs) {
+				lo, hi := md.ContributionCIs[i].Low, md.ContributionCIs[i].High
+				c.CILow, c.CIHigh = &lo, &hi
+			}
+			res.Contributions = append(res.Contributions, c)
+		}
+		r.Metrics = append(r.Metrics, res)
+	}
+	return r
+}
+
+func interval(iv *attribution.Interval) *Interval {
+	if iv == nil {
+		return nil
+	}
+	return &Interval{Low: iv.Low, High: iv.High}
+}

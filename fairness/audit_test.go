@@ -1,0 +1,277 @@
+package fairness
+
+import (
+	"bufio"
+	"errors"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/gapwise/gapwise/metrics"
+)
+
+// badSentinels gives the sentinel each fixture under testdata/bad must wrap.
+var badSentinels = map[string]error{
+	"classifier_unknown":   ErrUnknownClassifier,
+	"column_in_two_nodes":  ErrColumnReuse,
+	"cycle":                ErrCycle,
+	"data_not_found":       ErrFileNotFound,
+	"duplicate_header":     ErrDuplicateHeader,
+	"duplicate_key":        ErrDuplicateKey,
+	"duplicate_node":       ErrDuplicateNode,
+	"empty_file":           ErrEmptyFile,
+	"folds_too_small":      ErrBadValue,
+	"group_absent":         ErrGroupAbsent,
+	"group_in_graph":       ErrGroupInGraph,
+	"label_not_binary":     ErrNotBinary,
+	"label_not_node":       ErrLabelNotNode,
+	"metric_undefined":     metrics.ErrUndefined,
+	"missing_column":       ErrMissingColumn,
+	"missing_key":          ErrMissingKey,
+	"missing_value":        ErrMissingValue,
+	"not_numeric":          ErrNotNumeric,
+	"ragged_row":           ErrRaggedRow,
+	"score_in_vector_node": ErrScoreInGraph,
+	"score_nan":            ErrMissingValue,
+	"score_out_of_range":   ErrScoreRange,
+	"threshold_range":      ErrThresholdRange,
+	"threshold_zero":       ErrThresholdRange,
+	"too_few_records":      ErrTooFewRecords,
+	"unknown_key":          ErrUnknownKey,
+	"unknown_metric":       ErrUnknownMetric,
+	"unknown_parent":       ErrUnknownNode,
+	"yaml_mapping":         ErrSyntax,
+	"yaml_syntax":          ErrSyntax,
+}
+
+// readCases parses testdata/bad/cases.tsv (hand-made fixtures, see its
+// README) into case → expected message substring.
+func readCases(t *testing.T) map[string]string {
+	t.Helper()
+	f, err := os.Open("../testdata/bad/cases.tsv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	cases := map[string]string{}
+	sc := bufio.NewScanner(f)
+	for first := true; sc.Scan(); first = false {
+		if first || sc.Text() == "" {
+			continue
+		}
+		name, want, ok := strings.Cut(sc.Text(), "\t")
+		if !ok {
+			t.Fatalf("cases.tsv: line %q has no tab", sc.Text())
+		}
+		cases[name] = want
+	}
+	return cases
+}
+
+// TestBadInputs runs every fixture under testdata/bad through LoadSpec and
+// Run and checks that the error is an input error wrapping the expected
+// sentinel whose message names the culprit (file:line plus key or column,
+// as listed in cases.tsv).
+func TestBadInputs(t *testing.T) {
+	cases := readCases(t)
+	dirs, err := os.ReadDir("../testdata/bad")
+	if err != nil {
+		t.Fatal(err)
+	}
+	nDirs := 0
+	for _, d := range dirs {
+		if !d.IsDir() {
+			continue
+		}
+		nDirs++
+		name := d.Name()
+		t.Run(name, func(t *testing.T) {
+			want, ok := cases[name]
+			if !ok {
+				t.Fatalf("no line for %s in cases.tsv", name)
+			}
+			sentinel, ok := badSentinels[name]
+			if !ok {
+				t.Fatalf("no sentinel for %s in badSentinels", name)
+			}
+			spec, err := LoadSpec(filepath.Join("../testdata/bad", name, "spec.yaml"))
+			if err == nil {
+				_, err = Run(spec, RunOptions{Workers: 1})
+			}
+			if err == nil {
+				t.Fatal("no error")
+			}
+			if !errors.Is(err, sentinel) {
+				t.Errorf("error %q does not wrap %q", err, sentinel)
+			}
+			if !IsInputError(err) {
+				t.Errorf("IsInputError(%q) = false", err)
+			}
+			if !strings.Contains(err.Error(), want) {
+				t.Errorf("error\n  %s\ndoes not contain\n  %s", err, want)
+			}
+		})
+	}
+	if nDirs != len(cases) {
+		t.Errorf("%d fixture folders but %d lines in cases.tsv", nDirs, len(cases))
+	}
+}
+
+// writeAudit writes spec and data files into a temporary folder and
+// parses the spec.
+func writeAudit(t testing.TB, spec, data string) *Spec {
+	t.Helper()
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "cohort.csv"), []byte(data), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join(dir, "spec.yaml")
+	if err := os.WriteFile(path, []byte(spec), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	s, err := LoadSpec(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+const smallSpec = `data: cohort.csv
+label: dx
+score: score
+threshold: 0.5
+groups: {column: site, reference: a, comparison: b}
+metrics: [fpr, fnr, brier]
+graph:
+  - node: x
+  - node: dx
+    parents: [x]
+  - node: z
+    parents: [dx]
+folds: 2
+seed: 7
+classifier: linear
+`
+
+// smallData builds a deterministic two-group table: x and z are numeric,
+// dx depends on x, z on dx, and group b has a shifted x.
+func smallData(n int) string {
+	var b strings.Builder
+	b.WriteString("site,x,dx,z,score\n")
+	for i := range n {
+		site := "a"
+		shift := 0.0
+		if i%2 == 1 {
+			site, shift = "b", 0.5
+		}
+		x := math.Sin(float64(i)*1.7) + shift
+		dx := 0
+		if math.Cos(float64(i)*2.3)+x > 0.6 {
+			dx = 1
+		}
+		z := float64(dx) + 0.8*math.Sin(float64(i)*0.9)
+		score := 1 / (1 + math.Exp(-(x + z - 1)))
+		fmt.Fprintf(&b, "%s,%.4f,%d,%.4f,%.4f\n", site, x, dx, z, score)
+	}
+	return b.String()
+}
+
+// TestRunSumsAndObserved checks the mapping of a decomposition into the
+// Result on a small table: the observed per-group metrics equal direct
+// counts on the file's rows (analytic ground truth: FPR = FP/(FP+TN) and
+// FNR = FN/(FN+TP), common practice), and Σ contributions + residual = gap
+// up to rounding.
+func TestRunSumsAndObserved(t *testing.T) {
+	spec := writeAudit(t, smallSpec, smallData(200))
+	r, err := Run(spec, RunOptions{Workers: 2, Version: "test"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := LoadData(spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Direct counts per group.
+	var fp, neg, fn, pos [2]float64
+	for i, c := range d.Comparison {
+		g := 0
+		if c {
+			g = 1
+		}
+		dec := d.Scores[i] >= spec.Threshold
+		if d.Labels[i] == 1 {
+			pos[g]++
+			if !dec {
+				fn[g]++
+			}
+		} else {
+			neg[g]++
+			if dec {
+				fp[g]++
+			}
+		}
+	}
+	want := map[string][2]float64{
+		"fpr": {fp[0] / neg[0], fp[1] / neg[1]},
+		"fnr": {fn[0] / pos[0], fn[1] / pos[1]},
+	}
+	if len(r.Metrics) != 3 || len(r.Mechanisms) != 3 {
+		t.Fatalf("got %d metrics and %d mechanisms, want 3 and 3", len(r.Metrics), len(r.Mechanisms))
+	}
+	for _, m := range r.Metrics {
+		if w, ok := want[m.Metric]; ok && (m.Reference != w[0] || m.Comparison != w[1]) {
+			t.Errorf("%s: reference %v comparison %v, want %v %v", m.Metric, m.Reference, m.Comparison, w[0], w[1])
+		}
+		if m.Gap != m.Comparison-m.Reference {
+			t.Errorf("%s: gap %v != comparison − reference %v", m.Metric, m.Gap, m.Comparison-m.Reference)
+		}
+		sum := m.Residual
+		for _, c := range m.Contributions {
+			sum += c.Value
+		}
+		if math.Abs(sum-m.Gap) > 1e-12 {
+			t.Errorf("%s: Σ contributions + residual = %v, gap %v", m.Metric, sum, m.Gap)
+		}
+		if got := []string{m.Contributions[0].Mechanism, m.Contributions[1].Mechanism, m.Contributions[2].Mechanism}; strings.Join(got, ";") != "x;dx | x;z | dx" {
+			t.Errorf("%s: mechanisms %v", m.Metric, got)
+		}
+	}
+	if r.Groups.NReference != 100 || r.Groups.NComparison != 100 {
+		t.Errorf("groups %+v", r.Groups)
+	}
+	if r.Inputs.SpecSHA256 != spec.SHA256 || len(r.Inputs.DataSHA256) != 64 {
+		t.Errorf("inputs %+v", r.Inputs)
+	}
+	if r.Tool.Name != ToolName || r.Tool.Version != "test" || r.Settings.Folds != 2 || r.Seed != 7 {
+		t.Errorf("tool %+v settings %+v seed %d", r.Tool, r.Settings, r.Seed)
+	}
+	for _, m := range r.Mechanisms {
+		if m.Classifier != "linear" || math.Abs(m.ESSShare-m.ESS/100) > 1e-12 {
+			t.Errorf("mechanism %+v", m)
+		}
+	}
+}
+
+// TestRunDeterministic checks that the result does not depend on the
+// number of workers.
+func TestRunDeterministic(t *testing.T) {
+	spec := writeAudit(t, smallSpec, smallData(120))
+	r1, err := Run(spec, RunOptions{Workers: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r4, err := Run(spec, RunOptions{Workers: 4})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range r1.Metrics {
+		for j := range r1.Metrics[i].Contributions {
+			if a, b := r1.Metrics[i].Contributions[j], r4.Metrics[i].Contributions[j]; a != b {
+				t.Errorf("metric %s mechanism %d: %+v with 1 worker, %+v with 4", r1.Metrics[i].Metric, j, a, b)
+			}
+		}
+	}
+}

@@ -1,0 +1,480 @@
+package fairness
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+
+	"gopkg.in/yaml.v3"
+
+	"github.com/gapwise/gapwise/metrics"
+)
+
+// Spec is a parsed and validated audit specification. Build it with
+// LoadSpec or ParseSpec; both check every key, the graph and the settings,
+// and fill in defaults.
+//
+// Keys (YAML):
+//
+//	data: cohort.csv     # CSV with a header row; relative to the spec's folder
+//	label: dx            # 0/1 outcome column; must be a column of a graph node
+//	score: score         # the model's probability in [0, 1]
+//	threshold: 0.4       # positive decision when score >= threshold, in (0, 1)
+//	groups: {column: clinic, reference: north, comparison: south}
+//	metrics: [fpr, fnr]  # names from metrics.Names()
+//	graph:               # every node once; columns default to [node]
+//	  - node: labs
+//	    columns: [m1, m2]
+//	    parents: [dx]
+//	seed: 1              # default 1
+//	missing: error       # or drop: drop rows with a missing value
+//	categorical: [sex]   # columns one-hot encoded, levels sorted
+//	folds: 5             # cross-fitting folds, >= 2
+//	classifier: auto     # auto, linear, expanded or boosted
+//	ece_bins: 10         # >= 1
+//	synthetic: false     # the data is invented
+//	title: free text
+type Spec struct {
+	File     string // spec path as given ("" when parsed from bytes without a name)
+	SHA256   string // hex SHA-256 of the spec file's bytes
+	Data     string // data path as written in the spec
+	DataPath string // data path resolved against the spec's folder
+
+	Label     string
+	Score     string
+	Threshold float64
+	Groups    GroupSpec
+	Metrics   []string
+	Graph     []NodeSpec
+
+	Seed        uint64
+	Missing     string // MissingError or MissingDrop
+	Categorical []string
+	Folds       int
+	Classifier  string
+	ECEBins     int
+	Synthetic   bool
+	Title       string
+
+	lines    map[string]int // line of each top-level key
+	catLines []int          // line of each categorical entry
+}
+
+// GroupSpec names the group column and the two values compared.
+type GroupSpec struct {
+	Column     string
+	Reference  string
+	Comparison string
+}
+
+// NodeSpec is one node of the causal graph.
+type NodeSpec struct {
+	Node    string
+	Columns []string // data columns of the node; [Node] by default
+	Parents []string // names of parent nodes
+	Line    int      // line of the entry in the spec
+
+	columnLines, parentLines []int // line of each column and parent
+}
+
+// Values of Spec.Missing.
+const (
+	MissingError = "error"
+	MissingDrop  = "drop"
+)
+
+// Values of Spec.Classifier.
+const (
+	ClassifierAuto     = "auto"
+	ClassifierLinear   = "linear"
+	ClassifierExpanded = "expanded"
+	ClassifierBoosted  = "boosted"
+)
+
+// Defaults for optional keys.
+const (
+	DefaultSeed  = 1
+	DefaultFolds = 5
+)
+
+// LoadSpec reads and parses the spec file at path. A missing file gives a
+// *SpecError wrapping ErrSpecNotFound.
+func LoadSpec(path string) (*Spec, error) {
+	src, err := os.ReadFile(path)
+	if err != nil {
+		if errors.Is(err, fs.ErrNotExist) {
+			return nil, &SpecError{File: path, Err: wrapf(ErrSpecNotFound, "spec file not found")}
+		}
+		return nil, &SpecError{File: path, Err: wrapf(ErrSpecNotFound, "cannot read spec file: %v", err)}
+	}
+	return ParseSpec(path, src)
+}
+
+// ParseSpec parses the spec src; file names it in errors and anchors the
+// relative data path. Every problem is a *SpecError carrying the line and
+// key involved.
+func ParseSpec(file string, src []byte) (*Spec, error) {
+	sum := sha256.Sum256(src)
+	s := &Spec{File: file, SHA256: hex.EncodeToString(sum[:]), lines: map[string]int{}}
+	p := &specParser{file: file}
+
+	var doc yaml.Node
+	if err := yaml.Unmarshal(src, &doc); err != nil {
+		return nil, p.syntax(err)
+	}
+	if len(doc.Content) == 0 {
+		return nil, specErr(file, 0, "data", ErrMissingKey, "the spec is empty")
+	}
+	root := resolve(doc.Content[0])
+	if root.Kind != yaml.MappingNode {
+		return nil, specErr(file, root.Line, "", ErrBadValue, "the spec must be a mapping of keys to values")
+	}
+	for i := 0; i+1 < len(root.Content); i += 2 {
+		k, v := resolve(root.Content[i]), resolve(root.Content[i+1])
+		if _, dup := s.lines[k.Value]; dup {
+			return nil, specErr(file, k.Line, k.Value, ErrDuplicateKey, "key given twice (first on line %d)", s.lines[k.Value])
+		}
+		s.lines[k.Value] = k.Line
+		if err := p.key(s, k, v); err != nil {
+			return nil, err
+		}
+	}
+	if err := s.finish(p); err != nil {
+		return nil, err
+	}
+	if err := validateGraph(s); err != nil {
+		return nil, err
+	}
+	return s, nil
+}
+
+// KeyLine returns the line of a top-level key, or 0 if it was not given.
+func (s *Spec) KeyLine(key string) int { return s.lines[key] }
+
+// DropMissing reports whether rows with missing values are dropped.
+func (s *Spec) DropMissing() bool { return s.Missing == MissingDrop }
+
+// Columns lists every graph column in order of first appearance.
+func (s *Spec) Columns() []string {
+	var cols []string
+	for _, n := range s.Graph {
+		cols = append(cols, n.Columns...)
+	}
+	return cols
+}
+
+// ScoreIsNode reports whether the score column is a node of the graph.
+func (s *Spec) ScoreIsNode() bool {
+	for _, c := range s.Columns() {
+		if c == s.Score {
+			return true
+		}
+	}
+	return false
+}
+
+var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
+
+// specParser decodes values of the YAML tree into a Spec.
+type specParser struct{ file string }
+
+// yamlParserProblems are the problems yaml.v3's parser (as opposed to its
+// scanner) reports. For these it prints a 0-based line number, the line
+// where the enclosing block starts, and omits the line when it is 0
+// (gopkg.in/yaml.v3 v3.0.1, decode.go, parser.fail); syntax corrects that.
+var yamlParserProblems = map[string]bool{
+	"did not find expected ',' or ']'":       true,
+	"did not find expected ',' or '}'":       true,
+	"did not find expected '-' indicator":    true,
+	"did not find expected <document start>": true,
+	"did not find expected key":              true,
+	"did not find expected node content":     true,
+	"found duplicate %TAG directive":         true,
+	"found duplicate %YAML directive":        true,
+	"found incompatible YAML document":       true,
+	"found undefined tag handle":             true,
+}
+
+// syntax turns a yaml.v3 parse error into a *SpecError with a 1-based line.
+func (p *specParser) syntax(err error) error {
+	msg := strings.TrimPrefix(err.Error(), "yaml: ")
+	line := 0
+	if m := yamlLine.FindStringSubmatch(err.Error()); m != nil {
+		line, _ = strconv.Atoi(m[1])
+		msg = m[2]
+	}
+	if yamlParserProblems[msg] {
+		line++
+		return specErr(p.file, line, "", ErrSyntax, "invalid YAML: %s (in the block that starts on this line)", msg)
+	}
+	return specErr(p.file, line, "", ErrSyntax, "invalid YAML: %s", msg)
+}
+
+func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
+	var err error
+	switch k.Value {
+	case "data":
+		s.Data, err = p.str(k.Value, v)
+	case "label":
+		s.Label, err = p.str(k.Value, v)
+	case "score":
+		s.Score, err = p.str(k.Value, v)
+	case "threshold":
+		s.Threshold, err = p.float(k.Value, v)
+		if err == nil && !(s.Threshold > 0 && s.Threshold < 1) {
+			err = specErr(p.file, v.Line, k.Value, ErrThresholdRange, "threshold %s is not strictly between 0 and 1", v.Value)
+		}
+	case "groups":
+		err = p.groups(s, v)
+	case "metrics":
+		err = p.metrics(s, v)
+	case "graph":
+		err = p.graph(s, v)
+	case "seed":
+		err = p.decode(k.Value, v, &s.Seed, "a non-negative integer")
+	case "missing":
+		s.Missing, err = p.oneOf(k.Value, v, MissingError, MissingDrop)
+	case "categorical":
+		s.Categorical, s.catLines, err = p.strs(k.Value, v)
+	case "folds":
+		err = p.decode(k.Value, v, &s.Folds, "an integer")
+		if err == nil && s.Folds < 2 {
+			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "folds must be at least 2, got %d", s.Folds)
+		}
+	case "classifier":
+		s.Classifier, err = p.oneOf(k.Value, v, ClassifierAuto, ClassifierLinear, ClassifierExpanded, ClassifierBoosted)
+		if err == nil {
+			if _, ok := candidateLearners(s.Classifier); !ok {
+				err = specErr(p.file, v.Line, k.Value, ErrClassifierUnavailable, "classifier %s is not available", s.Classifier)
+			}
+		}
+	case "ece_bins":
+		err = p.decode(k.Value, v, &s.ECEBins, "an integer")
+		if err == nil && s.ECEBins < 1 {
+			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "ece_bins must be at least 1, got %d", s.ECEBins)
+		}
+	case "synthetic":
+		err = p.decode(k.Value, v, &s.Synthetic, "true or false")
+	case "title":
+		if v.Kind != yaml.ScalarNode {
+			return specErr(p.file, v.Line, k.Value, ErrBadValue, "title must be text")
+		}
+		s.Title = v.Value
+	default:
+		return specErr(p.file, k.Line, k.Value, ErrUnknownKey, "unknown key %q", k.Value)
+	}
+	return err
+}
+
+// finish checks required keys and fills defaults.
+func (s *Spec) finish(p *specParser) error {
+	for _, key := range []string{"data", "label", "score", "threshold", "groups", "metrics", "graph"} {
+		if _, ok := s.lines[key]; !ok {
+			return specErr(p.file, 0, key, ErrMissingKey, "missing required key %q", key)
+		}
+	}
+	if _, ok := s.lines["seed"]; !ok {
+		s.Seed = DefaultSeed
+	}
+	if s.Missing == "" {
+		s.Missing = MissingError
+	}
+	if s.Folds == 0 {
+		s.Folds = DefaultFolds
+	}
+	if s.Classifier == "" {
+		s.Classifier = ClassifierAuto
+	}
+	if s.ECEBins == 0 {
+		s.ECEBins = metrics.DefaultECEBins
+	}
+	s.DataPath = s.Data
+	if !filepath.IsAbs(s.Data) {
+		s.DataPath = filepath.Join(filepath.Dir(s.File), s.Data)
+	}
+	return nil
+}
+
+func (p *specParser) str(key string, v *yaml.Node) (string, error) {
+	if v.Kind != yaml.ScalarNode || v.Tag == "!!null" || strings.TrimSpace(v.Value) == "" {
+		return "", specErr(p.file, v.Line, key, ErrBadValue, "%s needs a single non-empty value", key)
+	}
+	return v.Value, nil
+}
+
+// strs decodes a list of strings and the line of each.
+func (p *specParser) strs(key string, v *yaml.Node) ([]string, []int, error) {
+	if v.Kind != yaml.SequenceNode {
+		return nil, nil, specErr(p.file, v.Line, key, ErrBadValue, "%s must be a list such as [a, b]", key)
+	}
+	out := make([]string, 0, len(v.Content))
+	lines := make([]int, 0, len(v.Content))
+	for _, item := range v.Content {
+		item = resolve(item)
+		sv, err := p.str(key, item)
+		if err != nil {
+			return nil, nil, err
+		}
+		out = append(out, sv)
+		lines = append(lines, item.Line)
+	}
+	return out, lines, nil
+}
+
+func (p *specParser) float(key string, v *yaml.Node) (float64, error) {
+	var f float64
+	err := p.decode(key, v, &f, "a number")
+	return f, err
+}
+
+func (p *specParser) decode(key string, v *yaml.Node, dst any, want string) error {
+	if v.Kind != yaml.ScalarNode || v.Tag == "!!null" || v.Decode(dst) != nil {
+		return specErr(p.file, v.Line, key, ErrBadValue, "%s must be %s, got %q", key, want, v.Value)
+	}
+	return nil
+}
+
+func (p *specParser) oneOf(key string, v *yaml.Node, allowed ...string) (string, error) {
+	sv, err := p.str(key, v)
+	if err != nil {
+		return "", err
+	}
+	for _, a := range allowed {
+		if sv == a {
+			return sv, nil
+		}
+	}
+	sentinel := ErrBadValue
+	if key == "classifier" {
+		sentinel = ErrUnknownClassifier
+	}
+	return "", specErr(p.file, v.Line, key, sentinel, "%s must be one of %s, got %q", key, strings.Join(allowed, ", "), sv)
+}
+
+func (p *specParser) groups(s *Spec, v *yaml.Node) error {
+	if v.Kind != yaml.MappingNode {
+		return specErr(p.file, v.Line, "groups", ErrBadValue, "groups must be a mapping with column, reference and comparison")
+	}
+	seen := map[string]bool{}
+	for i := 0; i+1 < len(v.Content); i += 2 {
+		k, val := resolve(v.Content[i]), resolve(v.Content[i+1])
+		key := "groups." + k.Value
+		if seen[k.Value] {
+			return specErr(p.file, k.Line, key, ErrDuplicateKey, "key given twice")
+		}
+		seen[k.Value] = true
+		var dst *string
+		switch k.Value {
+		case "column":
+			dst = &s.Groups.Column
+		case "reference":
+			dst = &s.Groups.Reference
+		case "comparison":
+			dst = &s.Groups.Comparison
+		default:
+			return specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
+		}
+		sv, err := p.str(key, val)
+		if err != nil {
+			return err
+		}
+		*dst = sv
+	}
+	for _, k := range []string{"column", "reference", "comparison"} {
+		if !seen[k] {
+			return specErr(p.file, v.Line, "groups."+k, ErrMissingKey, "missing required key %q", "groups."+k)
+		}
+	}
+	if s.Groups.Reference == s.Groups.Comparison {
+		return specErr(p.file, v.Line, "groups", ErrBadValue, "reference and comparison are both %q", s.Groups.Reference)
+	}
+	return nil
+}
+
+func (p *specParser) metrics(s *Spec, v *yaml.Node) error {
+	names, lines, err := p.strs("metrics", v)
+	if err != nil {
+		return err
+	}
+	if len(names) == 0 {
+		return specErr(p.file, v.Line, "metrics", ErrBadValue, "metrics must list at least one of %s", strings.Join(metrics.Names(), ", "))
+	}
+	seen := map[string]bool{}
+	for i, n := range names {
+		line := lines[i]
+		key := fmt.Sprintf("metrics[%d]", i)
+		if !metrics.Known(n) {
+			return specErr(p.file, line, key, ErrUnknownMetric, "unknown metric %q (known: %s)", n, strings.Join(metrics.Names(), ", "))
+		}
+		if seen[n] {
+			return specErr(p.file, line, key, ErrBadValue, "metric %q is listed twice", n)
+		}
+		seen[n] = true
+	}
+	s.Metrics = names
+	return nil
+}
+
+func (p *specParser) graph(s *Spec, v *yaml.Node) error {
+	if v.Kind != yaml.SequenceNode || len(v.Content) == 0 {
+		return specErr(p.file, v.Line, "graph", ErrBadValue, "graph must be a non-empty list of nodes")
+	}
+	for i, item := range v.Content {
+		item = resolve(item)
+		prefix := fmt.Sprintf("graph[%d]", i)
+		if item.Kind != yaml.MappingNode {
+			return specErr(p.file, item.Line, prefix, ErrBadValue, "each graph entry must be a mapping with node, columns and parents")
+		}
+		n := NodeSpec{Line: item.Line}
+		seen := map[string]bool{}
+		for j := 0; j+1 < len(item.Content); j += 2 {
+			k, val := resolve(item.Content[j]), resolve(item.Content[j+1])
+			key := prefix + "." + k.Value
+			if seen[k.Value] {
+				return specErr(p.file, k.Line, key, ErrDuplicateKey, "key given twice")
+			}
+			seen[k.Value] = true
+			var err error
+			switch k.Value {
+			case "node":
+				n.Node, err = p.str(key, val)
+			case "columns":
+				n.Columns, n.columnLines, err = p.strs(key, val)
+				if err == nil && len(n.Columns) == 0 {
+					err = specErr(p.file, val.Line, key, ErrBadValue, "columns must not be empty (omit it to use the node's name)")
+				}
+			case "parents":
+				n.Parents, n.parentLines, err = p.strs(key, val)
+			default:
+				err = specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
+			}
+			if err != nil {
+				return err
+			}
+		}
+		if !seen["node"] {
+			return specErr(p.file, item.Line, prefix+".node", ErrMissingKey, "missing required key %q", prefix+".node")
+		}
+		if n.Columns == nil {
+			n.Columns = []string{n.Node}
+			n.columnLines = []int{item.Line}
+		}
+		s.Graph = append(s.Graph, n)
+	}
+	return nil
+}
+
+// resolve follows YAML aliases to the node they stand for.
+func resolve(n *yaml.Node) *yaml.Node {
+	for i := 0; n.Kind == yaml.AliasNode && n.Alias != nil && i < 16; i++ {
+		n = n.Alias
+	}
+	return n
+}
