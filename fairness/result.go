@@ -18,6 +18,7 @@ type Result struct {
 	Assumptions []string          `json:"assumptions"`
 	Synthetic   bool              `json:"synthetic,omitempty"` // data is invented (the demo)
 	Inputs      InputInfo         `json:"inputs"`
+	Details     *Details          `json:"details,omitempty"` // per-group descriptions for the report
 }
 
 // ToolInfo names the program that produced the result.
