@@ -30,7 +30,16 @@ type MetricDecomposition struct {
 	Contributions []float64 // Shapley values φ_i
 	Alone         []float64 // v({i})
 	IfEqualised   []float64 // v(N∖{i})
+
+	// Percentile bootstrap intervals, set by Bootstrap; nil otherwise.
+	ReferenceCI     *Interval
+	ComparisonCI    *Interval
+	GapCI           *Interval
+	ContributionCIs []Interval
 }
+
+// Interval is a two-sided percentile interval.
+type Interval struct{ Low, High float64 }
 
 // MechanismReport holds per-mechanism estimation diagnostics.
 type MechanismReport struct {

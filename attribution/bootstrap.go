@@ -1,0 +1,238 @@
+package attribution
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"runtime"
+	"sort"
+	"sync"
+	"sync/atomic"
+)
+
+// BootstrapOptions controls percentile bootstrap intervals.
+type BootstrapOptions struct {
+	Replicates int     // number of resamples; 0 means 200
+	Level      float64 // interval level; 0 means 0.95
+	// KeepRatios resamples records together with their already-fitted
+	// log-ratios instead of refitting the classifiers (fast mode). It
+	// ignores the classifiers' own estimation error, so intervals are
+	// narrower than the full bootstrap's.
+	KeepRatios bool
+	// Progress, if non-nil, is called after each finished replicate with
+	// the number done and the total; calls may come from several goroutines
+	// but never concurrently.
+	Progress func(done, total int)
+}
+
+// BootstrapSummary reports how the intervals were made.
+type BootstrapSummary struct {
+	Replicates int     // requested
+	Failed     int     // replicates that could not be computed (e.g. a metric undefined in a resample)
+	Level      float64 // interval level
+	KeepRatios bool
+}
+
+// DecomposeWithIntervals runs Decompose and then a percentile bootstrap
+// (Efron & Tibshirani 1993, "An Introduction to the Bootstrap", ch. 13):
+// each replicate resamples the records of each group with replacement
+// (group sizes fixed), refits the classifiers (with the learner chosen on
+// the full data for each column set, or keeps the fitted ratios in fast
+// mode), and recomputes each group's metric, the gap and every
+// contribution. The interval for a quantity is the ((1−L)/2, (1+L)/2)
+// quantiles of its replicates (linear interpolation between order
+// statistics). Replicate b uses a PCG stream seeded by (Seed, b), and
+// replicates run in parallel with one result slot each, so the intervals do
+// not depend on the number of goroutines.
+func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, opt Options, bopt BootstrapOptions) (*Decomposition, *BootstrapSummary, error) {
+	if bopt.Replicates == 0 {
+		bopt.Replicates = 200
+	}
+	if bopt.Level == 0 {
+		bopt.Level = 0.95
+	}
+	if !(bopt.Level > 0 && bopt.Level < 1) {
+		return nil, nil, fmt.Errorf("attribution: bootstrap level %v is not in (0, 1)", bopt.Level)
+	}
+	if bopt.Replicates < 2 {
+		return nil, nil, fmt.Errorf("attribution: bootstrap needs at least 2 replicates, got %d", bopt.Replicates)
+	}
+	opt = withDefaults(opt)
+	d, ratios, err := decompose(s, mechs, metricNames, opt, nil)
+	if err != nil {
+		return nil, nil, err
+	}
+	chosen := map[string]string{}
+	for _, mr := range ratios {
+		chosen[mr.jointKey] = mr.Learner
+		if mr.parentKey != "" {
+			chosen[mr.parentKey] = mr.ParentLearner
+		}
+	}
+	g := splitGroups(s)
+	var logrRef [][]float64
+	if bopt.KeepRatios {
+		logrRef = make([][]float64, len(ratios))
+		for i, mr := range ratios {
+			logrRef[i] = pick(mr.LogRatio, g.refIdx)
+		}
+	}
+
+	B := bopt.Replicates
+	reps := make([][]MetricDecomposition, B)
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	inner := opt
+	inner.Workers = 1
+	var done atomic.Int64
+	var progressMu sync.Mutex
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for b := range next {
+				rng := rand.New(rand.NewPCG(opt.Seed, 0xb0075742^uint64(b)))
+				ri := resample(g.refIdx, rng)
+				ci := resample(g.cmpIdx, rng)
+				var md []MetricDecomposition
+				var err error
+				if bopt.KeepRatios {
+					md, err = replicateKeep(s, ri, ci, logrRef, g.refIdx, metricNames, inner)
+				} else {
+					md, err = replicateRefit(s, mechs, ri, ci, metricNames, inner, chosen, uint64(b))
+				}
+				if err == nil {
+					reps[b] = md
+				}
+				if bopt.Progress != nil {
+					progressMu.Lock()
+					bopt.Progress(int(done.Add(1)), B)
+					progressMu.Unlock()
+				}
+			}
+		}()
+	}
+	for b := 0; b < B; b++ {
+		next <- b
+	}
+	close(next)
+	wg.Wait()
+
+	sum := &BootstrapSummary{Replicates: B, Level: bopt.Level, KeepRatios: bopt.KeepRatios}
+	var ok [][]MetricDecomposition
+	for _, r := range reps {
+		if r == nil {
+			sum.Failed++
+			continue
+		}
+		ok = append(ok, r)
+	}
+	if len(ok) < 2 {
+		return nil, nil, fmt.Errorf("attribution: only %d of %d bootstrap replicates could be computed", len(ok), B)
+	}
+	lo, hi := (1-bopt.Level)/2, (1+bopt.Level)/2
+	interval := func(get func(md []MetricDecomposition) float64) Interval {
+		x := make([]float64, len(ok))
+		for b, r := range ok {
+			x[b] = get(r)
+		}
+		sort.Float64s(x)
+		return Interval{Low: quantile(x, lo), High: quantile(x, hi)}
+	}
+	for m := range d.Metrics {
+		md := &d.Metrics[m]
+		ref := interval(func(r []MetricDecomposition) float64 { return r[m].Reference })
+		cmp := interval(func(r []MetricDecomposition) float64 { return r[m].Comparison })
+		gap := interval(func(r []MetricDecomposition) float64 { return r[m].Gap })
+		md.ReferenceCI, md.ComparisonCI, md.GapCI = &ref, &cmp, &gap
+		md.ContributionCIs = make([]Interval, len(md.Contributions))
+		for i := range md.Contributions {
+			md.ContributionCIs[i] = interval(func(r []MetricDecomposition) float64 { return r[m].Contributions[i] })
+		}
+	}
+	return d, sum, nil
+}
+
+// resample draws len(idx) elements of idx with replacement.
+func resample(idx []int, rng *rand.Rand) []int {
+	out := make([]int, len(idx))
+	for a := range out {
+		out[a] = idx[rng.IntN(len(idx))]
+	}
+	return out
+}
+
+// replicateKeep recomputes a replicate from resampled records and their
+// fitted log-ratios. refPos maps Sample indices of reference records to
+// their position in logrRef.
+func replicateKeep(s *Sample, ri, ci []int, logrRef [][]float64, refIdx []int, metricNames []string, opt Options) ([]MetricDecomposition, error) {
+	pos := make(map[int]int, len(refIdx))
+	for p, i := range refIdx {
+		pos[i] = p
+	}
+	g := groupSplit{refIdx: ri, cmpIdx: ci}
+	g.refY, g.refS = pick(s.Labels, ri), pick(s.Scores, ri)
+	g.cmpY, g.cmpS = pick(s.Labels, ci), pick(s.Scores, ci)
+	md, err := observe(metricNames, g, opt)
+	if err != nil {
+		return nil, err
+	}
+	logr := make([][]float64, len(logrRef))
+	for i := range logr {
+		logr[i] = make([]float64, len(ri))
+		for a, r := range ri {
+			logr[i][a] = logrRef[i][pos[r]]
+		}
+	}
+	if err := splitGaps(md, g.refY, g.refS, logr, opt); err != nil {
+		return nil, err
+	}
+	return md, nil
+}
+
+// replicateRefit builds the resampled Sample and reruns the decomposition.
+func replicateRefit(s *Sample, mechs []Mechanism, ri, ci []int, metricNames []string, opt Options, chosen map[string]string, b uint64) ([]MetricDecomposition, error) {
+	rows := append(append([]int{}, ri...), ci...)
+	rs := &Sample{
+		X:          subMatrix(s.X, rows, allCols(s.X.RawMatrix().Cols)),
+		Comparison: make([]bool, len(rows)),
+		Labels:     pick(s.Labels, rows),
+		Scores:     pick(s.Scores, rows),
+	}
+	for a := len(ri); a < len(rows); a++ {
+		rs.Comparison[a] = true
+	}
+	opt.Seed = opt.Seed ^ (b+1)*0x9e3779b97f4a7c15
+	d, _, err := decompose(rs, mechs, metricNames, opt, chosen)
+	if err != nil {
+		return nil, err
+	}
+	return d.Metrics, nil
+}
+
+func allCols(p int) []int {
+	c := make([]int, p)
+	for i := range c {
+		c[i] = i
+	}
+	return c
+}
+
+// quantile returns the q-quantile of sorted x by linear interpolation
+// between order statistics (Hyndman & Fan 1996, definition 7).
+func quantile(x []float64, q float64) float64 {
+	if len(x) == 1 {
+		return x[0]
+	}
+	h := q * float64(len(x)-1)
+	lo := math.Floor(h)
+	i := int(lo)
+	if i >= len(x)-1 {
+		return x[len(x)-1]
+	}
+	return x[i] + (h-lo)*(x[i+1]-x[i])
+}

@@ -1,0 +1,320 @@
+package attribution
+
+import (
+	"fmt"
+	"math"
+	"runtime"
+	"sort"
+	"strconv"
+	"strings"
+	"sync"
+
+	"github.com/gapwise/gapwise/attribution/classify"
+	"gonum.org/v1/gonum/mat"
+)
+
+// RatioOptions controls density-ratio estimation.
+type RatioOptions struct {
+	Folds    int                // cross-fitting folds; 0 means 5
+	Seed     uint64             // drives fold assignment and learners
+	Learners []classify.Learner // candidates, chosen per column set by out-of-fold log loss
+	Workers  int                // goroutines; 0 means GOMAXPROCS
+}
+
+// MechanismRatio is the estimated density ratio of one mechanism.
+type MechanismRatio struct {
+	Mechanism Mechanism
+	// LogRatio[r] = log r_i at record r of the Sample (both groups), from
+	// classifiers that did not see record r.
+	LogRatio      []float64
+	Learner       string        // chosen for (node, parents)
+	ParentLearner string        // chosen for parents; "prior" for a root
+	Losses        []LearnerLoss // out-of-fold log loss of each candidate on (node, parents)
+	JointLogOdds  []float64     // out-of-fold logit P(cmp | node, parents) of the chosen learner
+
+	jointKey, parentKey string // column-set keys, for reusing the learner choice
+}
+
+// PriorLearner names the constant classifier used for a root node's parents.
+const PriorLearner = "prior"
+
+// groupFit is the cross-fitted classifier of group membership on one set of
+// feature columns.
+type groupFit struct {
+	cols    []int
+	logOdds [][]float64 // per candidate learner, out-of-fold log-odds per record
+	losses  []float64   // per candidate learner, out-of-fold mean log loss
+	best    int
+	only    int // if ≥ 0, the only learner fitted
+}
+
+// EstimateRatios estimates, for every mechanism i, the log density ratio
+//
+//	log r_i(x) = logit P(cmp | x_i, pa_i) − logit P(cmp | pa_i)
+//
+// at every record with K-fold cross-fitting: records are split into K folds
+// stratified by group and each record's log-odds come from classifiers
+// trained on the other K−1 folds. For a root node the second term is the
+// log prior odds log(n_cmp/n_ref). Both classifiers are trained on the
+// pooled records, so the class prior cancels in the difference. Per column
+// set, the candidate learner with the lowest out-of-fold log loss is kept.
+// Identical column sets (a node's parents are often another node's
+// (node, parents)) are fitted once.
+func EstimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions) ([]MechanismRatio, error) {
+	return estimateRatios(s, mechs, opt, nil)
+}
+
+// estimateRatios is EstimateRatios where chosen, if non-nil, fixes the learner
+// per column set (colKey → learner name) so that only that learner is fitted;
+// bootstrap replicates reuse the full-data choice this way.
+func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen map[string]string) ([]MechanismRatio, error) {
+	n := len(s.Comparison)
+	if s.X == nil || s.X.RawMatrix().Rows != n {
+		panic("attribution: Sample.X rows do not match Sample.Comparison")
+	}
+	if len(opt.Learners) == 0 {
+		return nil, fmt.Errorf("attribution: no candidate learners")
+	}
+	k := opt.Folds
+	if k == 0 {
+		k = 5
+	}
+	nRef, nCmp := s.Counts()
+	if nRef < k || nCmp < k {
+		return nil, fmt.Errorf("attribution: each group needs at least %d records for %d-fold cross-fitting (reference %d, comparison %d)", k, k, nRef, nCmp)
+	}
+	folds := assignFolds(s.Comparison, k, opt.Seed)
+	y := make([]float64, n)
+	for i, c := range s.Comparison {
+		if c {
+			y[i] = 1
+		}
+	}
+
+	// Distinct column sets to fit, in order of first use.
+	var sets []*groupFit
+	index := map[string]*groupFit{}
+	need := func(cols []int) *groupFit {
+		if len(cols) == 0 {
+			return nil
+		}
+		key := colKey(cols)
+		if f, ok := index[key]; ok {
+			return f
+		}
+		f := &groupFit{cols: cols, only: -1}
+		if name, ok := chosen[key]; ok {
+			for l, learner := range opt.Learners {
+				if learner.Name() == name {
+					f.only = l
+				}
+			}
+		}
+		index[key] = f
+		sets = append(sets, f)
+		return f
+	}
+	joints := make([]*groupFit, len(mechs))
+	parents := make([]*groupFit, len(mechs))
+	for i, m := range mechs {
+		joints[i] = need(unionCols(m.NodeCols, m.ParentCols))
+		parents[i] = need(m.ParentCols)
+	}
+	if err := fitAll(s.X, y, folds, k, sets, opt); err != nil {
+		return nil, err
+	}
+
+	prior := math.Log(float64(nCmp) / float64(nRef))
+	out := make([]MechanismRatio, len(mechs))
+	for i, m := range mechs {
+		j := joints[i]
+		mr := MechanismRatio{
+			Mechanism:     m,
+			LogRatio:      make([]float64, n),
+			Learner:       opt.Learners[j.best].Name(),
+			ParentLearner: PriorLearner,
+			JointLogOdds:  j.logOdds[j.best],
+			jointKey:      colKey(j.cols),
+		}
+		for l, learner := range opt.Learners {
+			mr.Losses = append(mr.Losses, LearnerLoss{Learner: learner.Name(), LogLoss: j.losses[l]})
+		}
+		if p := parents[i]; p != nil {
+			mr.ParentLearner = opt.Learners[p.best].Name()
+			mr.parentKey = colKey(p.cols)
+			po := p.logOdds[p.best]
+			for r := range mr.LogRatio {
+				mr.LogRatio[r] = j.logOdds[j.best][r] - po[r]
+			}
+		} else {
+			for r := range mr.LogRatio {
+				mr.LogRatio[r] = j.logOdds[j.best][r] - prior
+			}
+		}
+		out[i] = mr
+	}
+	return out, nil
+}
+
+// fitAll fits every (column set, learner, fold) in parallel and fills the
+// out-of-fold log-odds and losses. Each job writes only its own fold's rows,
+// so the result does not depend on scheduling.
+func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt RatioOptions) error {
+	nl := len(opt.Learners)
+	n := len(y)
+	for _, f := range sets {
+		f.logOdds = make([][]float64, nl)
+		for l := range f.logOdds {
+			f.logOdds[l] = make([]float64, n)
+		}
+		f.losses = make([]float64, nl)
+	}
+	// Row lists per fold.
+	test := make([][]int, k)
+	train := make([][]int, k)
+	for r, fo := range folds {
+		for j := 0; j < k; j++ {
+			if j == fo {
+				test[j] = append(test[j], r)
+			} else {
+				train[j] = append(train[j], r)
+			}
+		}
+	}
+	type job struct{ set, learner, fold int }
+	var jobs []job
+	for si := range sets {
+		for l := 0; l < nl; l++ {
+			if sets[si].only >= 0 && sets[si].only != l {
+				continue
+			}
+			for fo := 0; fo < k; fo++ {
+				jobs = append(jobs, job{si, l, fo})
+			}
+		}
+	}
+	errs := make([]error, len(jobs))
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for ji := range next {
+				jb := jobs[ji]
+				f := sets[jb.set]
+				xtr := subMatrix(x, train[jb.fold], f.cols)
+				ytr := make([]float64, len(train[jb.fold]))
+				for a, r := range train[jb.fold] {
+					ytr[a] = y[r]
+				}
+				seed := opt.Seed*1000003 + uint64(ji)
+				model, err := opt.Learners[jb.learner].Fit(xtr, ytr, nil, seed)
+				if err != nil {
+					errs[ji] = fmt.Errorf("attribution: fitting %s on columns %v, fold %d: %w", opt.Learners[jb.learner].Name(), f.cols, jb.fold, err)
+					continue
+				}
+				xte := subMatrix(x, test[jb.fold], f.cols)
+				dst := make([]float64, len(test[jb.fold]))
+				model.LogOdds(xte, dst)
+				for a, r := range test[jb.fold] {
+					f.logOdds[jb.learner][r] = dst[a]
+				}
+			}
+		}()
+	}
+	for ji := range jobs {
+		next <- ji
+	}
+	close(next)
+	wg.Wait()
+	for _, err := range errs {
+		if err != nil {
+			return err
+		}
+	}
+	for _, f := range sets {
+		for l := range f.losses {
+			if f.only >= 0 && f.only != l {
+				f.losses[l] = math.NaN()
+				continue
+			}
+			f.losses[l] = meanLogLoss(y, f.logOdds[l])
+		}
+		best := f.only
+		if best < 0 {
+			best = 0
+			for l := range f.losses {
+				if f.losses[l] < f.losses[best] {
+					best = l
+				}
+			}
+		}
+		f.best = best
+	}
+	return nil
+}
+
+// meanLogLoss is the mean of log(1+exp(−z)) for y=1 and log(1+exp(z)) for
+// y=0, computed stably.
+func meanLogLoss(y, z []float64) float64 {
+	var s float64
+	for i, zi := range z {
+		if y[i] == 0 {
+			zi = -zi
+		}
+		// −log σ(zi) = log(1+exp(−zi))
+		if zi > 0 {
+			s += math.Log1p(math.Exp(-zi))
+		} else {
+			s += -zi + math.Log1p(math.Exp(zi))
+		}
+	}
+	return s / float64(len(z))
+}
+
+// subMatrix copies the given rows and columns of x.
+func subMatrix(x *mat.Dense, rows, cols []int) *mat.Dense {
+	raw := x.RawMatrix()
+	out := make([]float64, len(rows)*len(cols))
+	p := len(cols)
+	for a, r := range rows {
+		src := raw.Data[r*raw.Stride:]
+		dst := out[a*p : (a+1)*p]
+		for b, c := range cols {
+			dst[b] = src[c]
+		}
+	}
+	if len(rows) == 0 {
+		return &mat.Dense{}
+	}
+	return mat.NewDense(len(rows), p, out)
+}
+
+// unionCols returns the sorted union of two column lists.
+func unionCols(a, b []int) []int {
+	seen := map[int]bool{}
+	var out []int
+	for _, c := range append(append([]int{}, a...), b...) {
+		if !seen[c] {
+			seen[c] = true
+			out = append(out, c)
+		}
+	}
+	sort.Ints(out)
+	return out
+}
+
+func colKey(cols []int) string {
+	c := append([]int(nil), cols...)
+	sort.Ints(c)
+	parts := make([]string, len(c))
+	for i, v := range c {
+		parts[i] = strconv.Itoa(v)
+	}
+	return strings.Join(parts, ",")
+}
