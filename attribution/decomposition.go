@@ -57,4 +57,7 @@ type MechanismReport struct {
 type LearnerLoss struct {
 	Learner string
 	LogLoss float64
+	// OddsCheck is (n_ref/n_cmp) times the mean out-of-fold odds of the
+	// comparison group over the reference records; ≈ 1 when calibrated.
+	OddsCheck float64
 }

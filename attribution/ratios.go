@@ -46,6 +46,10 @@ type groupFit struct {
 	losses  []float64   // per candidate learner, out-of-fold mean log loss
 	best    int
 	only    int // if ≥ 0, the only learner fitted
+	// oddsMean per learner: mean over reference records of the
+	// out-of-fold odds P(cmp|x)/P(ref|x), times n_ref/n_cmp (≈ 1 when
+	// calibrated; see oddsCalibration).
+	oddsMean []float64
 }
 
 // EstimateRatios estimates, for every mechanism i, the log density ratio
@@ -137,7 +141,7 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen map[s
 			jointKey:      colKey(j.cols),
 		}
 		for l, learner := range opt.Learners {
-			mr.Losses = append(mr.Losses, LearnerLoss{Learner: learner.Name(), LogLoss: j.losses[l]})
+			mr.Losses = append(mr.Losses, LearnerLoss{Learner: learner.Name(), LogLoss: j.losses[l], OddsCheck: j.oddsMean[l]})
 		}
 		if p := parents[i]; p != nil {
 			mr.ParentLearner = opt.Learners[p.best].Name()
@@ -238,21 +242,19 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 		}
 	}
 	for _, f := range sets {
+		f.oddsMean = make([]float64, nl)
 		for l := range f.losses {
 			if f.only >= 0 && f.only != l {
 				f.losses[l] = math.NaN()
+				f.oddsMean[l] = math.NaN()
 				continue
 			}
 			f.losses[l] = meanLogLoss(y, f.logOdds[l])
+			f.oddsMean[l] = oddsCalibration(y, f.logOdds[l])
 		}
 		best := f.only
 		if best < 0 {
-			best = 0
-			for l := range f.losses {
-				if f.losses[l] < f.losses[best] {
-					best = l
-				}
-			}
+			best = selectLearner(f.losses, f.oddsMean)
 		}
 		f.best = best
 	}
@@ -317,4 +319,53 @@ func colKey(cols []int) string {
 		parts[i] = strconv.Itoa(v)
 	}
 	return strings.Join(parts, ",")
+}
+
+// OddsTolerance bounds the odds self-check a learner must pass to be chosen:
+// |log m| ≤ log OddsTolerance, where m is oddsCalibration.
+const OddsTolerance = 1.25
+
+// oddsCalibration returns m = (n_ref/n_cmp) · mean over reference records
+// (y = 0) of exp(z). For a calibrated classifier P(cmp|x)/P(ref|x) =
+// (n_cmp/n_ref) · p_cmp(x)/p_ref(x), and E_ref[p_cmp/p_ref] = 1, so m ≈ 1.
+// A few records with extrapolated, extreme log-odds drive m far from 1 long
+// before they move the log loss.
+func oddsCalibration(y, z []float64) float64 {
+	var s float64
+	var nRef, nCmp int
+	for i, zi := range z {
+		if y[i] == 0 {
+			s += math.Exp(math.Min(zi, 700))
+			nRef++
+		} else {
+			nCmp++
+		}
+	}
+	if nRef == 0 || nCmp == 0 {
+		return math.NaN()
+	}
+	return s / float64(nCmp)
+}
+
+// selectLearner picks, among the learners whose odds self-check passes
+// (|log m| ≤ log OddsTolerance), the one with the lowest out-of-fold log
+// loss; if none passes, the one whose m is closest to 1. Ties go to the
+// earlier learner.
+func selectLearner(losses, oddsMean []float64) int {
+	best := -1
+	for l := range losses {
+		if math.Abs(math.Log(oddsMean[l])) <= math.Log(OddsTolerance) && (best < 0 || losses[l] < losses[best]) {
+			best = l
+		}
+	}
+	if best >= 0 {
+		return best
+	}
+	best = 0
+	for l := range losses {
+		if math.Abs(math.Log(oddsMean[l])) < math.Abs(math.Log(oddsMean[best])) {
+			best = l
+		}
+	}
+	return best
 }
