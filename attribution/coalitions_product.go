@@ -5,14 +5,12 @@ import (
 	"math/bits"
 
 	"github.com/gapwise/gapwise/metrics"
-	"gonum.org/v1/gonum/blas"
-	"gonum.org/v1/gonum/blas/blas64"
 )
 
-// Tuning of the product engine. Tiles of the output are at most
-// tileRows × tileCols so that gonum's Dgemm runs each one serially (it
-// splits work in 64 × 64 blocks and goes parallel from 4 blocks); the
-// engine parallelises over tiles itself.
+// Tuning of the product engine: records are processed in chunks of
+// chunkRecords; the output is cut into tiles of tileRows × tileCols, each
+// updated by one worker panel by panel (a B panel of 8 × chunkRecords
+// float64 stays in L1 while the tile's A panels stream past it).
 const (
 	chunkRecords = 256
 	tileRows     = 64
@@ -148,7 +146,7 @@ func fillHalf(dst, rtRow, g []float64, off int) {
 func (e *productEngine) run(values [][]float64) error {
 	p := &e.in.plan
 	nf := len(p.feats)
-	perRow := len(p.cells) * nf * e.nB * 8
+	perRow := len(p.cells) * nf * e.nBPad() * 8
 	rowsPerPass := e.nA
 	if perRow*rowsPerPass > passByteLimit {
 		rowsPerPass = max(tileRows, passByteLimit/perRow/tileRows*tileRows)
@@ -163,43 +161,56 @@ func (e *productEngine) run(values [][]float64) error {
 	return nil
 }
 
-// accumulate returns acc[slot][fi] = T_{cell, feature}[a0:a1, :] row-major.
+// accumulate returns acc[slot][fi] = T_{cell, feature}[a0:a1, :], row-major
+// with row stride e.nBPad (rows and columns padded to whole kernel panels
+// with zero entries). Per chunk of records of one cell, the tables are built
+// directly in packed panel layout: A panel q holds rows 4q..4q+3 as
+// pa[q·4·mc + p·4 + i], B panel q holds columns 8q..8q+7 as
+// pb[q·8·mc + p·8 + j]. Then every output tile is updated by one worker with
+// productKernel, adding the chunk's records in ascending order, so each sum
+// has a fixed evaluation order whatever the number of workers.
 func (e *productEngine) accumulate(a0, a1 int) [][][]float64 {
 	p := &e.in.plan
 	nf := len(p.feats)
 	rows := a1 - a0
+	rowsPad := roundUp(rows, kernelRows)
+	nBPad := e.nBPad()
 	acc := make([][][]float64, len(p.cells))
 	for s := range acc {
 		acc[s] = make([][]float64, nf)
 		for fi := range acc[s] {
-			acc[s][fi] = make([]float64, rows*e.nB)
+			acc[s][fi] = make([]float64, rowsPad*nBPad)
 		}
 	}
 	w := e.in.workers
-	pb := make([]float64, chunkRecords*e.nB)
+	pb := make([]float64, chunkRecords*nBPad)
 	pa := make([][]float64, nf)
 	for fi := range pa {
-		pa[fi] = make([]float64, rows*chunkRecords)
+		pa[fi] = make([]float64, rowsPad*chunkRecords)
 	}
-	scratch := make([][]float64, w)
-	for i := range scratch {
-		scratch[i] = make([]float64, e.nA)
+	scratchA := make([][]float64, w)
+	scratchB := make([][]float64, w)
+	for i := range scratchA {
+		scratchA[i] = make([]float64, e.nA)
+		scratchB[i] = make([]float64, e.nB)
 	}
-	rowTiles := (rows + tileRows - 1) / tileRows
-	colTiles := (e.nB + tileCols - 1) / tileCols
-	impl := blas64.Implementation()
+	rowTiles := (rowsPad + tileRows - 1) / tileRows
+	colTiles := (nBPad + tileCols - 1) / tileCols
 	for slot, recs := range e.groups {
 		for c0 := 0; c0 < len(recs); c0 += chunkRecords {
 			chunk := recs[c0:min(len(recs), c0+chunkRecords)]
 			mc := len(chunk)
 			parallelFor(w, w, func(worker, part int) {
 				lo, hi := splitRange(mc, w, part)
-				tmp := scratch[worker]
+				ta, tb := scratchA[worker], scratchB[worker]
 				for j := lo; j < hi; j++ {
 					r := int(chunk[j])
 					row := e.rt[r*e.k : (r+1)*e.k]
-					fillHalf(pb[j*e.nB:(j+1)*e.nB], row, e.gB, 0)
-					fillHalf(tmp, row, e.gA, e.kB)
+					fillHalf(tb, row, e.gB, 0)
+					for s, x := range tb {
+						pb[(s/kernelCols)*kernelCols*mc+j*kernelCols+s%kernelCols] = x
+					}
+					fillHalf(ta, row, e.gA, e.kB)
 					for fi := range pa {
 						f := 1.0
 						if e.fval[fi] != nil {
@@ -207,7 +218,8 @@ func (e *productEngine) accumulate(a0, a1 int) [][][]float64 {
 						}
 						dst := pa[fi]
 						for a := a0; a < a1; a++ {
-							dst[(a-a0)*mc+j] = tmp[a] * f
+							ra := a - a0
+							dst[(ra/kernelRows)*kernelRows*mc+j*kernelRows+ra%kernelRows] = ta[a] * f
 						}
 					}
 				}
@@ -215,18 +227,27 @@ func (e *productEngine) accumulate(a0, a1 int) [][][]float64 {
 			parallelFor(w, rowTiles*colTiles, func(_, t int) {
 				r0 := (t / colTiles) * tileRows
 				b0 := (t % colTiles) * tileCols
-				tr := min(tileRows, rows-r0)
-				tc := min(tileCols, e.nB-b0)
+				r1 := min(rowsPad, r0+tileRows)
+				b1 := min(nBPad, b0+tileCols)
 				for fi := range pa {
-					impl.Dgemm(blas.NoTrans, blas.NoTrans, tr, tc, mc, 1,
-						pa[fi][r0*mc:], mc, pb[b0:], e.nB,
-						1, acc[slot][fi][r0*e.nB+b0:], e.nB)
+					out := acc[slot][fi]
+					for b := b0; b < b1; b += kernelCols {
+						bp := pb[b*mc : (b+kernelCols)*mc]
+						for r := r0; r < r1; r += kernelRows {
+							productKernel(mc, pa[fi][r*mc:(r+kernelRows)*mc], bp, out[r*nBPad+b:], nBPad)
+						}
+					}
 				}
 			})
 		}
 	}
 	return acc
 }
+
+// nBPad is the number of half-B coalitions rounded up to whole panels.
+func (e *productEngine) nBPad() int { return roundUp(e.nB, kernelCols) }
+
+func roundUp(x, m int) int { return (x + m - 1) / m * m }
 
 // evaluate turns the sums of rows a0..a1−1 into metric values.
 func (e *productEngine) evaluate(acc [][][]float64, a0, a1 int, values [][]float64) error {
@@ -237,10 +258,11 @@ func (e *productEngine) evaluate(acc [][][]float64, a0, a1 int, values [][]float
 		stats[i] = metrics.NewStats(p.bins)
 	}
 	errs := make([]error, a1-a0)
+	nBPad := e.nBPad()
 	parallelFor(w, a1-a0, func(worker, ra int) {
 		st := stats[worker]
 		for sb := 0; sb < e.nB; sb++ {
-			idx := ra*e.nB + sb
+			idx := ra*nBPad + sb
 			p.fill(st, func(slot, fi int) float64 { return acc[slot][fi][idx] })
 			S := (a0+ra)*e.nB + sb
 			for _, m := range p.stat {
