@@ -205,6 +205,13 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 		}
 		for j, c := range names {
 			i := colIdx[j]
+			if i == labelIdx || i == scoreIdx {
+				rowVals[j] = label
+				if i == scoreIdx {
+					rowVals[j] = score
+				}
+				continue
+			}
 			m, err := missing(i, c)
 			if err != nil {
 				return nil, err

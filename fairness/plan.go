@@ -68,7 +68,7 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 		info.Nodes = append(info.Nodes, PlanNode{
 			Node:      n.Node,
 			Mechanism: mechs[i].Label(),
-			Parents:   append([]string(nil), n.Parents...),
+			Parents:   append([]string{}, n.Parents...),
 			Columns:   append([]string(nil), n.Columns...),
 			Features:  len(mechs[i].NodeCols),
 		})

@@ -1,0 +1,71 @@
+package fairness
+
+import (
+	"reflect"
+	"strings"
+	"testing"
+)
+
+func TestThousands(t *testing.T) {
+	for n, want := range map[int]string{0: "0", 7: "7", 999: "999", 1000: "1,000", 12000: "12,000", 1234567: "1,234,567", -4500: "-4,500"} {
+		if got := thousands(n); got != want {
+			t.Errorf("thousands(%d) = %q, want %q", n, got, want)
+		}
+	}
+}
+
+// healthy is a mechanism that triggers no warning with 12,000 reference records.
+var healthy = MechanismResult{Node: "age", Mechanism: "age", AUC: 0.6, ESS: 9000, MaxShare: 0.001, MeanRatio: 1.01}
+
+func TestWarnings(t *testing.T) {
+	base := func() *Result {
+		return &Result{
+			Groups:     GroupInfo{Reference: "north", Comparison: "south", NReference: 12000, NComparison: 9000},
+			Mechanisms: []MechanismResult{healthy},
+			Metrics:    []MetricResult{{Metric: "fnr", Gap: 0.09, Estimated: 0.08, Residual: 0.01}},
+		}
+	}
+	tests := []struct {
+		name   string
+		change func(r *Result)
+		want   []string // substrings, one per expected warning, in order
+	}{
+		{"none", func(r *Result) {}, nil},
+		{"dropped", func(r *Result) { r.Groups.DroppedReference, r.Groups.DroppedComparison = 1200, 3 }, []string{`1,200 rows of group "north" and 3 rows of group "south" were dropped`}},
+		{"ess share", func(r *Result) { r.Mechanisms[0].ESS = 1199 }, []string{"the contribution of `age` rests on 1,199 effective records out of 12,000; treat it as unreliable"}},
+		{"ess floor", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 99.6 }, []string{"rests on 100 effective records out of 500"}},
+		{"ess fine", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 100 }, nil},
+		{"max share", func(r *Result) { r.Mechanisms[0].MaxShare = 0.073 }, []string{"a single record carries 7.3% of the weight for `age`"}},
+		{"mean low", func(r *Result) { r.Mechanisms[0].MeanRatio = 0.85 }, []string{"average 0.850 over the reference records instead of 1"}},
+		{"mean high", func(r *Result) { r.Mechanisms[0].MeanRatio = 1.2 }, []string{"average 1.200"}},
+		{"mean edge", func(r *Result) { r.Mechanisms[0].MeanRatio = 1.1 }, nil},
+		{"auc", func(r *Result) { r.Mechanisms[0].AUC = 0.95 }, []string{"nearly separable on `age` (out-of-fold AUC 0.950)"}},
+		{"residual", func(r *Result) { r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.06, 0.03 }, []string{"for fnr the contributions add up to 0.0600 but the observed gap is 0.0900"}},
+		{"residual tiny", func(r *Result) { r.Metrics[0].Gap, r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.004, 0, 0.004 }, nil},
+		{"order", func(r *Result) {
+			r.Groups.DroppedReference = 1
+			bad := healthy
+			bad.Node, bad.Mechanism, bad.AUC, bad.ESS = "hb", "hb | dx", 0.99, 37
+			r.Mechanisms = append(r.Mechanisms, bad)
+			r.Metrics[0].Residual = 0.05
+		}, []string{"dropped", "separable on `hb | dx`", "`hb` rests on 37 effective records", "for fnr"}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			r := base()
+			tc.change(r)
+			got := Warnings(r)
+			if len(got) != len(tc.want) {
+				t.Fatalf("got %d warnings %q, want %d", len(got), got, len(tc.want))
+			}
+			for i, w := range tc.want {
+				if !strings.Contains(got[i], w) {
+					t.Errorf("warning %d %q lacks %q", i, got[i], w)
+				}
+			}
+			if again := Warnings(r); !reflect.DeepEqual(got, again) {
+				t.Error("not deterministic")
+			}
+		})
+	}
+}
