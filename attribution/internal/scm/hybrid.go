@@ -21,7 +21,7 @@ const maxChunks = 32
 // are exactly those of Simulate(m, s, n, seed). Deterministic for a given
 // seed whatever GOMAXPROCS.
 func HybridStats(m *Model, n int, seed uint64, threshold float64, bins int) ([]*metrics.Stats, error) {
-	chunks, err := hybridChunks(m, n, seed, threshold, bins)
+	chunks, err := hybridChunks(m, n, seed, threshold, bins, true)
 	if err != nil {
 		return nil, err
 	}
@@ -45,8 +45,9 @@ func Hybrid(m *Model, s Coalition, n int, seed uint64, threshold float64, bins i
 	return st, nil
 }
 
-// hybridChunks returns per chunk, per coalition statistics.
-func hybridChunks(m *Model, n int, seed uint64, threshold float64, bins int) ([][]*metrics.Stats, error) {
+// hybridChunks returns per chunk, per coalition statistics. Without logLoss
+// the log-loss sums (Stats.WL) stay 0.
+func hybridChunks(m *Model, n int, seed uint64, threshold float64, bins int, logLoss bool) ([][]*metrics.Stats, error) {
 	if err := m.Validate(); err != nil {
 		return nil, err
 	}
@@ -72,9 +73,8 @@ func hybridChunks(m *Model, n int, seed uint64, threshold float64, bins int) ([]
 			}
 		}
 		e := newEvaluator(m)
-		visit := func(s Coalition, v []float64) {
-			stats[s].Add(v[m.Label], m.Score(v), threshold, 1)
-		}
+		leaf := newLeafScorer(m, threshold, logLoss)
+		visit := func(s Coalition, v []float64) { leaf.add(stats[s], v) }
 		for b := c * blocks / nChunks; b < (c+1)*blocks/nChunks; b++ {
 			r := blockRand(seed, streamHybrid, b)
 			for j := b * BlockSize; j < min(n, (b+1)*BlockSize); j++ {

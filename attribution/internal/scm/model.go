@@ -65,6 +65,11 @@ type Model struct {
 	// Score is the audited model's probability for a record whose node
 	// values are v (indexed like Nodes). It must be a fixed function of v.
 	Score func(v []float64) float64
+	// ScoreInputs optionally lists the nodes Score reads; nil means any.
+	// The hybrid simulation reuses the previous score when the label and
+	// these nodes are unchanged, which saves the score's cost on branches of
+	// nodes the model does not read. A wrong list gives wrong scores.
+	ScoreInputs []int
 }
 
 // MaxNodes bounds the number of nodes, so that every coalition fits in a
@@ -93,6 +98,11 @@ func (m *Model) Validate() error {
 	}
 	if m.Label < 0 || m.Label >= k || m.Nodes[m.Label].Kind != Binary {
 		return fmt.Errorf("scm: model %q: label index %d is not a binary node", m.Name, m.Label)
+	}
+	for _, i := range m.ScoreInputs {
+		if i < 0 || i >= k {
+			return fmt.Errorf("scm: model %q: score input index %d out of range", m.Name, i)
+		}
 	}
 	seen := map[string]bool{}
 	for i, n := range m.Nodes {

@@ -106,7 +106,8 @@ func Screening(name string, sh Shift) *Model {
 			{Name: "marker_b", Kind: Continuous, Parents: []int{NodeDisease}, Reference: markerB(1), Comparison: when(spread != 1, markerB(spread))},
 			{Name: "unread", Kind: Continuous, Parents: []int{NodeAge, NodeDisease}, Reference: unread(0), Comparison: when(sh.Unread != 0, unread(sh.Unread))},
 		},
-		Label: NodeDisease,
+		Label:       NodeDisease,
+		ScoreInputs: []int{NodeAge, NodeMarkerA, NodeMarkerB},
 		Score: func(v []float64) float64 {
 			return logistic(-2 + 1.2*v[NodeMarkerA] + 0.9*v[NodeMarkerB] + 0.3*v[NodeAge])
 		},

@@ -28,7 +28,11 @@ type Truth struct {
 // Shapley decomposition of the simulated game with its Monte Carlo error.
 // Metrics are those of metrics.Stats.Value (every metric except AUC).
 func GroundTruth(m *Model, metricNames []string, n int, seed uint64, threshold float64, bins int) ([]Truth, error) {
-	chunks, err := hybridChunks(m, n, seed, threshold, bins)
+	logLoss := false
+	for _, name := range metricNames {
+		logLoss = logLoss || name == metrics.NameLogLoss
+	}
+	chunks, err := hybridChunks(m, n, seed, threshold, bins, logLoss)
 	if err != nil {
 		return nil, err
 	}
