@@ -53,3 +53,37 @@ func handResult() *fairness.Result {
 		Inputs:      fairness.InputInfo{SpecFile: "audit.yaml", SpecSHA256: "ab12", DataFile: "cohort.csv", DataSHA256: "cd34"},
 	}
 }
+
+// handDetails describes a small invented dataset with fairness.Describe so
+// that the report tests exercise the Details sections; the data come from
+// a fixed linear congruential sequence.
+func handDetails() *fairness.Details {
+	state := uint64(12345)
+	next := func() float64 { // Knuth's MMIX LCG constants (from memory)
+		state = state*6364136223846793005 + 1442695040888963407
+		return float64(state>>11) / float64(1<<53)
+	}
+	ds := &fairness.Dataset{Columns: []fairness.Column{
+		{Name: "age"}, {Name: "anaemia", Categorical: true, Levels: []string{"0", "1"}},
+		{Name: "hb"}, {Name: "ferritin"},
+	}}
+	for i := 0; i < 400; i++ {
+		cmp := i%2 == 1
+		y := 0.0
+		if next() < 0.2 {
+			y = 1
+		}
+		hb := 14 - 2.5*y + next()*2
+		if cmp {
+			hb -= 1.2
+		}
+		ds.Labels = append(ds.Labels, y)
+		ds.Scores = append(ds.Scores, min(0.99, max(0.01, 0.5*y+0.5*next())))
+		ds.Comparison = append(ds.Comparison, cmp)
+		ds.Columns[0].Values = append(ds.Columns[0].Values, 20+60*next())
+		ds.Columns[1].Values = append(ds.Columns[1].Values, y)
+		ds.Columns[2].Values = append(ds.Columns[2].Values, hb)
+		ds.Columns[3].Values = append(ds.Columns[3].Values, 20+200*next()*next())
+	}
+	return fairness.Describe(ds, 0.35, 10)
+}

@@ -1,9 +1,15 @@
 package report
 
 import (
+	"bytes"
 	"embed"
+	"fmt"
+	"html"
 	"html/template"
 	"io"
+	"math"
+	"sort"
+	"strings"
 
 	"github.com/gapwise/gapwise/fairness"
 )
@@ -11,37 +17,375 @@ import (
 //go:embed templates/report.html.tmpl
 var templateFS embed.FS
 
+//go:embed assets/echarts.min.js
+var echartsJS string
+
+//go:embed assets/report.js
+var reportJS string
+
+//go:embed assets/report.css
+var reportCSS string
+
 var pageTemplate = template.Must(template.ParseFS(templateFS, "templates/report.html.tmpl"))
 
-// WriteHTML writes res to w as one standalone HTML page.
+// drillNodes is how many of a metric's largest contributions the
+// drill-down marks as the ones to look at first.
+const drillNodes = 3
+
+// WriteHTML writes res to w as one standalone HTML page: the audit's
+// question and plain-language summary, the groups' metrics, confusion
+// counts and reliability curves, the decomposition of every metric as a
+// walk from the reference value to the comparison value with a table, the
+// causal graph shaded by contribution, per-column distributions for the
+// largest contributions, estimation diagnostics and warnings, assumptions
+// and cautions, and a reproducibility footer. All scripts (ECharts 6.1.0,
+// vendored under assets/ with its licence), styles and data are inline: the
+// page makes no network request. Sections that need res.Details say so
+// when it is nil; intervals appear only where the Result has them. It
+// returns an error if the data cannot be encoded or w fails.
 func WriteHTML(w io.Writer, res *fairness.Result) error {
-	return pageTemplate.Execute(w, newPage(res))
+	p, err := newPage(res)
+	if err != nil {
+		return err
+	}
+	var buf bytes.Buffer
+	if err := pageTemplate.Execute(&buf, p); err != nil {
+		return fmt.Errorf("report: rendering HTML: %w", err)
+	}
+	_, err = w.Write(buf.Bytes())
+	return err
 }
 
+// page is the view of a Result the template renders: every string is
+// already formatted.
 type page struct {
-	Score, Reference, Comparison string
-	Synthetic                    bool
-	Summaries                    []string
-	Metrics                      []metricView
+	Res          *fairness.Result
+	Title        string
+	Cohort       string
+	Threshold    string
+	Metrics      []metricView
+	Mechanisms   []mechanismView
+	Confusion    []confusionView
+	Reliability  []reliabilityRow
+	HasDetails   bool
+	Columns      []columnView
+	Warnings     []template.HTML
+	Assumptions  []string
+	Settings     []keyValue
+	DataJSON     template.JS
+	EChartsJS    template.JS
+	ReportJS     template.JS
+	CSS          template.CSS
+	LowESSShare  string
+	HasIntervals bool
+	DrillNodes   int
 }
 
+type keyValue struct{ Key, Value string }
+
+// metricView is one metric's summary, group values and decomposition.
 type metricView struct {
-	Title, Reference, Comparison, Gap, Residual string
-	Rows                                        []rowView
+	Name, Title                                     string
+	Summary                                         template.HTML
+	Reference, Comparison, Gap                      string
+	ReferenceCI, ComparisonCI, GapCI                string
+	Estimated, Residual                             string
+	Rows                                            []contributionRow
+	Selected                                        bool
+	TopNodes                                        []string
 }
 
-type rowView struct{ Mechanism, Value, CI string }
+type contributionRow struct {
+	Node, Mechanism, Value, CI, Alone, IfEqualised string
+	Direction                                      string // "up", "down" or "zero"
+	Unreliable                                     string // reason, or ""
+}
 
-func newPage(res *fairness.Result) page {
-	p := page{Score: res.Score, Reference: res.Groups.Reference, Comparison: res.Groups.Comparison, Synthetic: res.Synthetic}
-	for _, m := range res.Metrics {
-		p.Summaries = append(p.Summaries, Summary(res, m))
-		mv := metricView{Title: MetricTitle(m.Metric), Reference: formatValue(m.Metric, m.Reference),
-			Comparison: formatValue(m.Metric, m.Comparison), Gap: formatDelta(m.Metric, m.Gap), Residual: formatDelta(m.Metric, m.Residual)}
-		for _, c := range m.Contributions {
-			mv.Rows = append(mv.Rows, rowView{c.Mechanism, formatDelta(m.Metric, c.Value), formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)})
+type mechanismView struct {
+	Node, Mechanism, Parents, Columns string
+	Classifier, ParentClassifier      string
+	Losses                            string
+	AUC, ESS, ESSShare, MaxShare      string
+	MeanRatio                         string
+	Unreliable                        string
+}
+
+type confusionView struct {
+	Group, Role            string
+	N, Events, Prevalence  string
+	TP, FP, TN, FN         string
+	TPShade, FPShade       string // CSS opacity of the cell's tint
+	TNShade, FNShade       string
+}
+
+type reliabilityRow struct {
+	Group, Bin, Count, MeanScore, EventRate string
+}
+
+type columnView struct {
+	Name, Node, Mechanism string
+	Kind                  string // "numeric" or "categorical"
+	StdDiff               string
+	Imbalanced            bool
+	Bins                  []binRow
+	Summary               string
+}
+
+type binRow struct{ Bin, Reference, Comparison string }
+
+// chartData is everything the page script draws, keyed for lookup.
+type chartData struct {
+	Metric      string                 `json:"metric"` // initially selected
+	Walk        map[string]chartOption `json:"walk"`
+	Graph       map[string]chartOption `json:"graph"`
+	Reliability chartOption            `json:"reliability,omitempty"`
+	Columns     map[string]chartOption `json:"columns"`
+	Order       map[string][]string    `json:"order"` // per metric: column names, largest contributions first
+	Top         map[string][]string    `json:"top"`   // per metric: the drillNodes largest contributions' columns
+}
+
+// newPage formats res for the template and builds the chart options.
+func newPage(res *fairness.Result) (*page, error) {
+	p := &page{
+		Res:         res,
+		Title:       fmt.Sprintf("Gap audit: %s for %s vs %s", res.Score, res.Groups.Comparison, res.Groups.Reference),
+		Cohort:      res.Inputs.DataFile,
+		Threshold:   formatThreshold(res.Threshold),
+		Assumptions: res.Assumptions,
+		EChartsJS:   template.JS(echartsJS),
+		ReportJS:    template.JS(reportJS),
+		CSS:         template.CSS(reportCSS),
+		LowESSShare: fmt.Sprintf("%.0f%%", 100*LowESSShare),
+		DrillNodes:  drillNodes,
+	}
+	if p.Cohort == "" {
+		p.Cohort = "the audited records"
+	}
+	for _, s := range []string{echartsJS, reportJS} {
+		if strings.Contains(strings.ToLower(s), "</script") {
+			panic("report: an embedded script contains </script and cannot be inlined")
 		}
+	}
+	data := chartData{Walk: map[string]chartOption{}, Graph: map[string]chartOption{}, Columns: map[string]chartOption{},
+		Order: map[string][]string{}, Top: map[string][]string{}}
+	flags := unreliable(res)
+	nodeOfColumn := map[string]string{}
+	for _, m := range res.Mechanisms {
+		for _, c := range m.Columns {
+			nodeOfColumn[c] = m.Node
+		}
+	}
+	for i, m := range res.Metrics {
+		mv := metricView{Name: m.Metric, Title: MetricTitle(m.Metric), Selected: i == 0,
+			Summary:   codeSpans(Summary(res, m)),
+			Reference: formatValue(m.Metric, m.Reference), Comparison: formatValue(m.Metric, m.Comparison),
+			Gap: formatDelta(m.Metric, m.Gap), ReferenceCI: formatValueInterval(m.Metric, m.ReferenceCI),
+			ComparisonCI: formatValueInterval(m.Metric, m.ComparisonCI), GapCI: formatGapInterval(m),
+			Estimated: formatDelta(m.Metric, m.Estimated), Residual: formatDelta(m.Metric, m.Residual)}
+		for _, c := range m.Contributions {
+			dir := "zero"
+			switch {
+			case isZeroText(formatMagnitude(m.Metric, c.Value)):
+			case c.Value > 0:
+				dir = "up"
+			default:
+				dir = "down"
+			}
+			ci := formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)
+			if ci != "" {
+				p.HasIntervals = true
+			}
+			mv.Rows = append(mv.Rows, contributionRow{Node: c.Node, Mechanism: c.Mechanism, Value: formatDelta(m.Metric, c.Value),
+				CI: ci, Alone: formatDelta(m.Metric, c.Alone), IfEqualised: formatDelta(m.Metric, c.IfEqualised),
+				Direction: dir, Unreliable: flags[c.Node]})
+		}
+		if m.ReferenceCI != nil || m.ComparisonCI != nil || m.GapCI != nil {
+			p.HasIntervals = true
+		}
+		data.Walk[m.Metric] = walkChart(res, m)
+		data.Graph[m.Metric] = graphChart(res, m)
+		order, top := columnOrder(res, m, nodeOfColumn)
+		data.Order[m.Metric], data.Top[m.Metric] = order, top
+		mv.TopNodes = topNodes(m)
 		p.Metrics = append(p.Metrics, mv)
 	}
-	return p
+	if len(res.Metrics) > 0 {
+		data.Metric = res.Metrics[0].Metric
+	}
+	for _, m := range res.Mechanisms {
+		var losses []string
+		for _, l := range m.Losses {
+			losses = append(losses, fmt.Sprintf("%s %.4f", l.Classifier, l.LogLoss))
+		}
+		p.Mechanisms = append(p.Mechanisms, mechanismView{Node: m.Node, Mechanism: m.Mechanism,
+			Parents: strings.Join(m.Parents, ", "), Columns: strings.Join(m.Columns, ", "),
+			Classifier: m.Classifier, ParentClassifier: m.ParentClassifier, Losses: strings.Join(losses, "; "),
+			AUC: formatDiag(m.AUC), ESS: formatCount(math.Round(m.ESS)), ESSShare: fmt.Sprintf("%.1f%%", 100*m.ESSShare),
+			MaxShare: fmt.Sprintf("%.2f%%", 100*m.MaxShare), MeanRatio: formatDiag(m.MeanRatio), Unreliable: flags[m.Node]})
+	}
+	for _, w := range res.Warnings {
+		p.Warnings = append(p.Warnings, codeSpans(w))
+	}
+	if d := res.Details; d != nil {
+		p.HasDetails = true
+		p.Confusion = []confusionView{
+			confusion(res.Groups.Reference, "reference", d.Reference),
+			confusion(res.Groups.Comparison, "comparison", d.Comparison),
+		}
+		for _, g := range []struct {
+			name string
+			d    fairness.GroupDetails
+		}{{res.Groups.Reference, d.Reference}, {res.Groups.Comparison, d.Comparison}} {
+			for _, b := range g.d.Curve {
+				p.Reliability = append(p.Reliability, reliabilityRow{Group: g.name,
+					Bin: fmt.Sprintf("%.0f–%.0f%%", 100*b.Lower, 100*b.Upper), Count: fmt.Sprint(b.Count),
+					MeanScore: fmt.Sprintf("%.1f%%", 100*b.MeanScore), EventRate: fmt.Sprintf("%.1f%%", 100*b.EventRate)})
+			}
+		}
+		data.Reliability = reliabilityChart(res, d)
+		for _, c := range d.Columns {
+			p.Columns = append(p.Columns, column(res, c, nodeOfColumn[c.Name]))
+			data.Columns[c.Name] = columnChart(res, c)
+		}
+	}
+	p.Settings = []keyValue{
+		{"Tool", strings.TrimSpace(res.Tool.Name + " " + res.Tool.Version)},
+		{"Spec file", res.Inputs.SpecFile}, {"Spec SHA-256", res.Inputs.SpecSHA256},
+		{"Data file", res.Inputs.DataFile}, {"Data SHA-256", res.Inputs.DataSHA256},
+		{"Seed", fmt.Sprint(res.Seed)}, {"Decision threshold", p.Threshold},
+		{"Cross-fitting folds", fmt.Sprint(res.Settings.Folds)}, {"Classifier setting", res.Settings.Classifier},
+		{"Candidate learners", strings.Join(res.Settings.Learners, ", ")},
+		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Rows with missing values dropped", fmt.Sprint(res.Settings.DropMissing)},
+	}
+	js, err := encodeOptions(data)
+	if err != nil {
+		return nil, err
+	}
+	p.DataJSON = template.JS(js)
+	return p, nil
+}
+
+// topNodes returns the nodes of a metric's drillNodes largest |φ|.
+func topNodes(m fairness.MetricResult) []string {
+	idx := make([]int, len(m.Contributions))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(a, b int) bool {
+		return math.Abs(m.Contributions[idx[a]].Value) > math.Abs(m.Contributions[idx[b]].Value)
+	})
+	var out []string
+	for _, i := range idx {
+		if len(out) == drillNodes {
+			break
+		}
+		out = append(out, m.Contributions[i].Node)
+	}
+	return out
+}
+
+// columnOrder lists the Details columns for a metric's drill-down: columns
+// of nodes with larger |φ| first, then the rest in their own order; top
+// holds the columns of the topNodes.
+func columnOrder(res *fairness.Result, m fairness.MetricResult, nodeOfColumn map[string]string) (order, top []string) {
+	if res.Details == nil {
+		return []string{}, []string{}
+	}
+	rank := map[string]int{}
+	for i, n := range topNodes(fairness.MetricResult{Contributions: m.Contributions}) {
+		rank[n] = i
+	}
+	all := append([]fairness.Contribution{}, m.Contributions...)
+	sort.SliceStable(all, func(a, b int) bool { return math.Abs(all[a].Value) > math.Abs(all[b].Value) })
+	pos := map[string]int{}
+	for i, c := range all {
+		pos[c.Node] = i
+	}
+	var cols []string
+	for _, c := range res.Details.Columns {
+		cols = append(cols, c.Name)
+	}
+	key := func(col string) int {
+		if i, ok := pos[nodeOfColumn[col]]; ok {
+			return i
+		}
+		return len(all)
+	}
+	sort.SliceStable(cols, func(a, b int) bool { return key(cols[a]) < key(cols[b]) })
+	top = []string{}
+	for _, c := range cols {
+		if _, ok := rank[nodeOfColumn[c]]; ok && key(c) < len(all) {
+			top = append(top, c)
+		}
+	}
+	return cols, top
+}
+
+// confusion formats one group's confusion counts; each cell's tint is its
+// share of the group's records.
+func confusion(name, role string, g fairness.GroupDetails) confusionView {
+	total := g.Confusion.TP + g.Confusion.FP + g.Confusion.TN + g.Confusion.FN
+	shade := func(v float64) string {
+		if total <= 0 {
+			return "0"
+		}
+		return fmt.Sprintf("%.2f", 0.08+0.6*v/total)
+	}
+	prev := "n/a"
+	if g.N > 0 {
+		prev = fmt.Sprintf("%.1f%%", 100*float64(g.Events)/float64(g.N))
+	}
+	return confusionView{Group: name, Role: role, N: fmt.Sprint(g.N), Events: fmt.Sprint(g.Events), Prevalence: prev,
+		TP: formatCount(g.Confusion.TP), FP: formatCount(g.Confusion.FP), TN: formatCount(g.Confusion.TN), FN: formatCount(g.Confusion.FN),
+		TPShade: shade(g.Confusion.TP), FPShade: shade(g.Confusion.FP), TNShade: shade(g.Confusion.TN), FNShade: shade(g.Confusion.FN)}
+}
+
+// stdDiffFlag is the |standardised difference| above which a column is
+// marked as imbalanced: 0.1, common practice in balance diagnostics
+// (Austin 2009, from memory).
+const stdDiffFlag = 0.1
+
+// column formats one column's distributions for its drill-down card.
+func column(res *fairness.Result, c fairness.ColumnDetails, node string) columnView {
+	v := columnView{Name: c.Name, Node: node, Kind: "numeric", StdDiff: "undefined"}
+	for _, m := range res.Mechanisms {
+		if m.Node == node {
+			v.Mechanism = m.Mechanism
+		}
+	}
+	if c.Categorical {
+		v.Kind = "categorical"
+	}
+	if c.StdDiff != nil {
+		v.StdDiff = trimNegZero(fmt.Sprintf("%.2f", *c.StdDiff))
+		v.Imbalanced = math.Abs(*c.StdDiff) > stdDiffFlag
+	}
+	labels := binLabels(c)
+	for j := range c.Reference {
+		v.Bins = append(v.Bins, binRow{Bin: labels[j], Reference: fmt.Sprintf("%.1f%%", 100*c.Reference[j]), Comparison: fmt.Sprintf("%.1f%%", 100*c.Comparison[j])})
+	}
+	if !c.Categorical {
+		v.Summary = fmt.Sprintf("mean %s (SD %s) for %s, %s (SD %s) for %s", formatEdge(c.MeanRef), formatEdge(c.SDRef), res.Groups.Reference,
+			formatEdge(c.MeanCmp), formatEdge(c.SDCmp), res.Groups.Comparison)
+	}
+	return v
+}
+
+// codeSpans escapes text for HTML and turns `quoted` words into <code>
+// elements.
+func codeSpans(s string) template.HTML {
+	parts := strings.Split(s, "`")
+	var b strings.Builder
+	for i, part := range parts {
+		esc := html.EscapeString(part)
+		if i%2 == 1 && i < len(parts)-1 {
+			b.WriteString("<code>" + esc + "</code>")
+		} else {
+			if i%2 == 1 {
+				b.WriteString("`")
+			}
+			b.WriteString(esc)
+		}
+	}
+	return template.HTML(b.String())
 }

@@ -7,8 +7,8 @@ package report
 import (
 	"fmt"
 	"math"
-	"regexp"
 	"sort"
+	"strconv"
 	"strings"
 
 	"github.com/gapwise/gapwise/fairness"
@@ -170,9 +170,10 @@ func trimNegZero(s string) string {
 const LowESSShare = 0.1
 
 // unreliable returns, per mechanism node, why its contributions should be
-// read with caution: it has low ESS, or a warning of the Result names it
-// (the node name appearing as a whole word). Nodes absent from the map are
-// not flagged.
+// read with caution: its effective sample size is low, or a warning of the
+// Result names it. Warnings name a mechanism by quoting its node or its
+// label in backticks (`hb` or `hb | anaemia`), as fairness.Warnings does.
+// Nodes absent from the map are not flagged.
 func unreliable(res *fairness.Result) map[string]string {
 	out := map[string]string{}
 	for _, m := range res.Mechanisms {
@@ -180,9 +181,8 @@ func unreliable(res *fairness.Result) map[string]string {
 			out[m.Node] = fmt.Sprintf("effective sample size %s is %.0f%% of the reference group", formatCount(math.Round(m.ESS)), 100*m.ESSShare)
 			continue
 		}
-		re := regexp.MustCompile(`(^|[^\p{L}\p{N}_])` + regexp.QuoteMeta(m.Node) + `($|[^\p{L}\p{N}_])`)
 		for _, w := range res.Warnings {
-			if re.MatchString(w) {
+			if strings.Contains(w, "`"+m.Node+"`") || (m.Mechanism != "" && strings.Contains(w, "`"+m.Mechanism+"`")) {
 				out[m.Node] = "a warning names it"
 				break
 			}
@@ -338,4 +338,17 @@ func Summary(res *fairness.Result, m fairness.MetricResult) string {
 	fmt.Fprintf(&b, " The contributions add up to %s; the remaining %s (residual) is estimation error the method cannot assign.",
 		formatDelta(m.Metric, m.Estimated), formatDelta(m.Metric, m.Residual))
 	return b.String()
+}
+
+// formatEdge prints a histogram bin edge with three significant digits
+// and no exponent (1234 prints as "1234").
+func formatEdge(v float64) string {
+	if v == 0 || math.IsNaN(v) || math.IsInf(v, 0) {
+		return trimNegZero(fmt.Sprint(v))
+	}
+	dec := 2 - int(math.Floor(math.Log10(math.Abs(v))))
+	if dec < 0 {
+		dec = 0
+	}
+	return trimNegZero(strconv.FormatFloat(v, 'f', dec, 64))
 }

@@ -75,9 +75,9 @@ func TestUnreliable(t *testing.T) {
 		t.Fatalf("unreliable = %v, want only ferritin with its 8%% ESS share", got)
 	}
 	res.Mechanisms[3].ESSShare = 0.5
-	res.Warnings = []string{"mechanism hb: mean ratio 1.2 is far from 1", "hbx is not a node"}
+	res.Warnings = []string{"the density ratios of `hb | anaemia` average 1.200", "`hbx` and hb are not quoted nodes", "`anaemia | age, sex` is not a label in the graph"}
 	got = unreliable(res)
 	if _, ok := got["hb"]; !ok || len(got) != 1 {
-		t.Fatalf("unreliable = %v, want only hb (named as a word in a warning)", got)
+		t.Fatalf("unreliable = %v, want only hb (quoted by its label in a warning)", got)
 	}
 }

@@ -1,0 +1,136 @@
+package report
+
+import (
+	"encoding/json"
+	"fmt"
+	"html"
+	"math"
+	"strconv"
+	"strings"
+
+	"github.com/go-echarts/go-echarts/v2/opts"
+	"github.com/go-echarts/go-echarts/v2/types"
+)
+
+// The report's palette. Group and direction colours are taken from the
+// eight-colour set of Okabe & Ito (2008), "Color Universal Design (CUD):
+// how to make figures and presentations that are friendly to colorblind
+// people", chosen so that every pair stays distinguishable under the common
+// colour-vision deficiencies; shapes and dash styles repeat the group
+// distinction for print in grey.
+const (
+	colourReference  = "#009E73" // Okabe–Ito bluish green
+	colourComparison = "#CC79A7" // Okabe–Ito reddish purple
+	colourUp         = "#D55E00" // Okabe–Ito vermillion: a step that raises the metric
+	colourDown       = "#0072B2" // Okabe–Ito blue: a step that lowers it
+	colourResidual   = "#9A9A9A"
+	colourNeutral    = "#F3F0E8" // the page's paper tone, the middle of the node ramp
+	colourInk        = "#22252B"
+	colourMuted      = "#6B6F76"
+	colourRule       = "#D9D4C7"
+)
+
+// chartOption is one chart's ECharts option, ready to encode.
+type chartOption map[string]any
+
+// optionOf returns the ECharts option of a go-echarts chart: the same map
+// go-echarts would embed in its own page, which we encode ourselves so that
+// the page carries the library inline instead of fetching it.
+func optionOf(c interface {
+	Validate()
+	JSON() map[string]any
+}) chartOption {
+	c.Validate()
+	// A JSON round trip turns go-echarts' typed series into plain maps
+	// that the builders can extend with options go-echarts lacks.
+	raw, err := json.Marshal(c.JSON())
+	if err != nil {
+		panic("report: go-echarts option does not encode: " + err.Error())
+	}
+	var o chartOption
+	if err := json.Unmarshal(raw, &o); err != nil {
+		panic("report: go-echarts option does not decode: " + err.Error())
+	}
+	// go-echarts always emits an empty toolbox and title; they only take
+	// room in our layout.
+	delete(o, "toolbox")
+	delete(o, "title")
+	o["color"] = []string{colourReference, colourComparison, colourDown, colourUp, colourResidual}
+	o["animation"] = false // charts must be final when printed or captured
+	o["textStyle"] = map[string]any{"fontFamily": "inherit", "color": colourInk}
+	return o
+}
+
+// encodeOptions encodes chart options as JSON for a <script> element. HTML
+// characters are escaped (\u003c…), so no string in the data can close
+// the element.
+func encodeOptions(v any) (string, error) {
+	b, err := json.Marshal(v)
+	if err != nil {
+		return "", fmt.Errorf("report: encoding chart data: %w", err)
+	}
+	return string(b), nil
+}
+
+// itemTooltip is a data item's tooltip showing fixed HTML lines; text is
+// escaped here, and braces, which ECharts reads as template fields, are
+// replaced by parentheses.
+func itemTooltip(lines ...string) *opts.Tooltip {
+	for i, l := range lines {
+		l = strings.NewReplacer("{", "(", "}", ")").Replace(l)
+		lines[i] = html.EscapeString(l)
+	}
+	return &opts.Tooltip{Formatter: types.FuncStr(strings.Join(lines, "<br>"))}
+}
+
+// plainTooltip is an item-triggered tooltip in the report's style.
+func plainTooltip() opts.Tooltip {
+	return opts.Tooltip{Show: opts.Bool(true), Trigger: "item", BackgroundColor: "#FFFFFF", BorderColor: colourRule}
+}
+
+// scaleOf returns the factor by which a metric's values are multiplied in
+// charts: percentages for proportions, the raw value otherwise.
+func scaleOf(metric string) float64 {
+	if isProportion(metric) {
+		return 100
+	}
+	return 1
+}
+
+// axisUnit is the axis label suffix of a metric's charts.
+func axisUnit(metric string) string {
+	if isProportion(metric) {
+		return "%"
+	}
+	return ""
+}
+
+// niceRange widens [lo, hi] by a margin and rounds it outwards to a
+// multiple of a 1-2-5 step, so that axis ends fall on readable numbers.
+func niceRange(lo, hi float64) (float64, float64) {
+	span := hi - lo
+	if !(span > 0) {
+		span = math.Max(math.Abs(hi), 1) * 0.1
+	}
+	lo, hi = lo-0.08*span, hi+0.08*span
+	step := niceStep((hi - lo) / 5)
+	return math.Floor(lo/step) * step, math.Ceil(hi/step) * step
+}
+
+// niceStep returns the smallest number of the form {1, 2, 5}·10^k at least x.
+func niceStep(x float64) float64 {
+	p := math.Pow(10, math.Floor(math.Log10(x)))
+	for _, m := range []float64{1, 2, 5, 10} {
+		if m*p >= x {
+			return m * p
+		}
+	}
+	return 10 * p
+}
+
+// round6 rounds chart coordinates to six significant decimals so the
+// embedded data stays short; tables carry the exact formatted values.
+func round6(v float64) float64 {
+	f, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 6, 64), 64)
+	return f
+}

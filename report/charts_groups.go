@@ -1,0 +1,96 @@
+package report
+
+import (
+	"github.com/go-echarts/go-echarts/v2/charts"
+	"github.com/go-echarts/go-echarts/v2/opts"
+	"github.com/go-echarts/go-echarts/v2/types"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// reliabilityChart plots each group's reliability curve (event rate against
+// mean score per non-empty score bin, in percent) with the diagonal of
+// perfect calibration. The reference group is drawn solid with circles and
+// the comparison group dashed with triangles, so the two stay apart in grey
+// print too.
+func reliabilityChart(res *fairness.Result, d *fairness.Details) chartOption {
+	line := charts.NewLine()
+	axis := func(name string) (opts.XAxis, opts.YAxis) {
+		return opts.XAxis{Type: "value", Name: name, NameLocation: "middle", NameGap: 28, Min: 0, Max: 100,
+				AxisLabel: &opts.AxisLabel{Formatter: types.FuncStr("{value}%")}},
+			opts.YAxis{Type: "value", Name: "observed event rate", NameLocation: "middle", NameGap: 40, Min: 0, Max: 100,
+				AxisLabel: &opts.AxisLabel{Formatter: types.FuncStr("{value}%")},
+				SplitLine: &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: colourRule, Type: "dashed"}}}
+	}
+	x, y := axis("mean score in bin")
+	line.SetGlobalOptions(
+		charts.WithTooltipOpts(plainTooltip()),
+		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(true), Top: "0"}),
+		charts.WithGridOpts(opts.Grid{Left: "56", Right: "16", Top: "36", Bottom: "44"}),
+		charts.WithXAxisOpts(x), charts.WithYAxisOpts(y),
+	)
+	curve := func(name string, g fairness.GroupDetails) []opts.LineData {
+		var out []opts.LineData
+		for _, b := range g.Curve {
+			out = append(out, opts.LineData{Value: []float64{round6(100 * b.MeanScore), round6(100 * b.EventRate)}})
+		}
+		return out
+	}
+	line.AddSeries("perfect calibration", []opts.LineData{{Value: []float64{0, 0}}, {Value: []float64{100, 100}}},
+		charts.WithLineStyleOpts(opts.LineStyle{Color: colourMuted, Type: "dotted", Width: 1}),
+		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "none"; s.Color = colourMuted }))
+	line.AddSeries(res.Groups.Reference+" (reference)", curve("ref", d.Reference),
+		charts.WithLineStyleOpts(opts.LineStyle{Color: colourReference, Width: 2}),
+		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "circle"; s.SymbolSize = 8; s.Color = colourReference }))
+	line.AddSeries(res.Groups.Comparison+" (comparison)", curve("cmp", d.Comparison),
+		charts.WithLineStyleOpts(opts.LineStyle{Color: colourComparison, Width: 2, Type: "dashed"}),
+		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "triangle"; s.SymbolSize = 10; s.Color = colourComparison }))
+	return optionOf(line)
+}
+
+// columnChart compares the two groups' distributions of one column as
+// side-by-side bars of the share of records (percent) per histogram bin or
+// level. Bin labels come from binLabels.
+func columnChart(res *fairness.Result, c fairness.ColumnDetails) chartOption {
+	bar := charts.NewBar()
+	bar.SetGlobalOptions(
+		charts.WithTooltipOpts(opts.Tooltip{Show: opts.Bool(true), Trigger: "axis", BackgroundColor: "#FFFFFF", BorderColor: colourRule}),
+		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(true), Top: "0"}),
+		charts.WithGridOpts(opts.Grid{Left: "8", Right: "8", Top: "32", Bottom: "8", ContainLabel: opts.Bool(true)}),
+		charts.WithYAxisOpts(opts.YAxis{Type: "value", AxisLabel: &opts.AxisLabel{Formatter: types.FuncStr("{value}%")},
+			SplitLine: &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: colourRule, Type: "dashed"}}}),
+		charts.WithXAxisOpts(opts.XAxis{Type: "category", AxisLabel: &opts.AxisLabel{Interval: "0", Rotate: rotateFor(len(c.Reference))}}),
+	)
+	bar.SetXAxis(binLabels(c))
+	shares := func(xs []float64) []opts.BarData {
+		var out []opts.BarData
+		for _, v := range xs {
+			out = append(out, opts.BarData{Value: round6(100 * v)})
+		}
+		return out
+	}
+	bar.AddSeries(res.Groups.Reference, shares(c.Reference), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourReference}))
+	bar.AddSeries(res.Groups.Comparison, shares(c.Comparison), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourComparison, BorderColor: colourInk, BorderWidth: 0.5}))
+	return optionOf(bar)
+}
+
+// rotateFor tilts category labels when there are many of them.
+func rotateFor(n int) float64 {
+	if n > 6 {
+		return 35
+	}
+	return 0
+}
+
+// binLabels names a column's histogram bins "lo–hi" with the edges printed
+// to three significant digits, or returns its levels.
+func binLabels(c fairness.ColumnDetails) []string {
+	if c.Categorical {
+		return c.Levels
+	}
+	var out []string
+	for j := 0; j+1 < len(c.Edges); j++ {
+		out = append(out, formatEdge(c.Edges[j])+"–"+formatEdge(c.Edges[j+1]))
+	}
+	return out
+}
