@@ -85,14 +85,14 @@ type keyValue struct{ Key, Value string }
 
 // metricView is one metric's summary, group values and decomposition.
 type metricView struct {
-	Name, Title                                     string
-	Summary                                         template.HTML
-	Reference, Comparison, Gap                      string
-	ReferenceCI, ComparisonCI, GapCI                string
-	Estimated, Residual                             string
-	Rows                                            []contributionRow
-	Selected                                        bool
-	TopNodes                                        []string
+	Name, Title                      string
+	Summary                          template.HTML
+	Reference, Comparison, Gap       string
+	ReferenceCI, ComparisonCI, GapCI string
+	Estimated, Residual              string
+	Rows                             []contributionRow
+	Selected                         bool
+	TopNodes                         []string
 }
 
 type contributionRow struct {
@@ -111,11 +111,11 @@ type mechanismView struct {
 }
 
 type confusionView struct {
-	Group, Role            string
-	N, Events, Prevalence  string
-	TP, FP, TN, FN         string
-	TPShade, FPShade       string // CSS opacity of the cell's tint
-	TNShade, FNShade       string
+	Group, Role           string
+	N, Events, Prevalence string
+	TP, FP, TN, FN        string
+	TPShade, FPShade      string // CSS opacity of the cell's tint
+	TNShade, FNShade      string
 }
 
 type reliabilityRow struct {
