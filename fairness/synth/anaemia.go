@@ -8,7 +8,7 @@ package synth
 //	age                          (root: case mix)
 //	anaemia  | age               (label: prevalence)
 //	hb       | anaemia, age      (how haemoglobin presents)
-//	panel    | anaemia           (vector node: mcv, ferritin)
+//	panel    | anaemia           (vector node: mcv, rdw)
 //	bmi      | age               (differs by sex, read by nothing)
 //
 // Every mechanism is a simple parametric family whose parameters differ by
@@ -16,15 +16,15 @@ package synth
 
 // Column and node names of the anaemia cohort.
 const (
-	ColSex      = "sex"
-	ColAge      = "age"
-	ColAnaemia  = "anaemia"
-	ColHb       = "hb"
-	ColMCV      = "mcv"
-	ColFerritin = "ferritin"
-	ColBMI      = "bmi"
-	ColScore    = "score"
-	NodePanel   = "panel" // vector node: mcv, ferritin
+	ColSex     = "sex"
+	ColAge     = "age"
+	ColAnaemia = "anaemia"
+	ColHb      = "hb"
+	ColMCV     = "mcv"
+	ColRDW     = "rdw"
+	ColBMI     = "bmi"
+	ColScore   = "score"
+	NodePanel  = "panel" // vector node: mcv, rdw
 
 	SexMale   = "male"   // reference group
 	SexFemale = "female" // comparison group
@@ -53,20 +53,18 @@ const (
 //	anaemia  ~ Bernoulli(σ(PrevLogit + PrevAgeSlope·(age − 50)))
 //	hb       ~ N(HbHealthy or HbAnaemic + HbAgeSlope·(age − 50), HbSD²), g/dL
 //	mcv      ~ N(MCVHealthy or MCVAnaemic, MCVSD²), fL
-//	ferritin = exp(N(ln FerritinHealthy or ln FerritinAnaemic, FerritinLogSD²)), µg/L
+//	rdw      ~ N(RDWHealthy or RDWAnaemic, RDWSD²), % (red cell distribution width)
 //	bmi      ~ N(BMIMean + BMIAgeSlope·(age − 50), BMISD²) truncated to [MinBMI, MaxBMI], kg/m²
 //
 // where σ is the logistic function and "healthy or anaemic" picks by the
-// record's anaemia label. mcv and ferritin are independent given anaemia.
+// record's anaemia label. mcv and rdw are independent given anaemia.
 type GroupParams struct {
 	AgeMean, AgeSD                float64
 	PrevLogit, PrevAgeSlope       float64
 	HbHealthy, HbAnaemic          float64
 	HbAgeSlope, HbSD              float64
 	MCVHealthy, MCVAnaemic, MCVSD float64
-	FerritinHealthy               float64
-	FerritinAnaemic               float64
-	FerritinLogSD                 float64
+	RDWHealthy, RDWAnaemic, RDWSD float64
 	BMIMean, BMIAgeSlope, BMISD   float64
 }
 
@@ -89,8 +87,8 @@ type Scenario struct {
 //   - case mix: the women screened are younger (mean 46 vs 54 years);
 //   - prevalence: about 14 % of women vs 6 % of men are anaemic;
 //   - haemoglobin given anaemia: lower in women, as above;
-//   - ferritin in healthy people: lower stores in women (60 vs 110 µg/L),
-//     a small shift in the panel;
+//   - red cell distribution width in healthy people: slightly wider in
+//     women (13.3 % vs 13.0 %), a small shift in the panel;
 //   - bmi: a shift that the model does not read and that causes nothing the
 //     model reads, so its true contribution to every gap is zero.
 func DefaultScenario() Scenario {
@@ -99,14 +97,14 @@ func DefaultScenario() Scenario {
 		PrevLogit: -2.9, PrevAgeSlope: 0.035,
 		HbHealthy: 15.0, HbAnaemic: 11.8, HbAgeSlope: -0.01, HbSD: 1.0,
 		MCVHealthy: 90, MCVAnaemic: 80, MCVSD: 5,
-		FerritinHealthy: 110, FerritinAnaemic: 20, FerritinLogSD: 0.6,
+		RDWHealthy: 13.0, RDWAnaemic: 15.5, RDWSD: 1.0,
 		BMIMean: 27.8, BMIAgeSlope: 0.04, BMISD: 4.5,
 	}
 	female := male
 	female.AgeMean, female.AgeSD = 46, 16
 	female.PrevLogit, female.PrevAgeSlope = -1.75, 0.01
-	female.HbHealthy, female.HbAnaemic = 13.4, 10.8
-	female.FerritinHealthy = 60
+	female.HbHealthy, female.HbAnaemic = 13.5, 10.8
+	female.RDWHealthy = 13.3
 	female.BMIMean, female.BMIAgeSlope = 26.2, 0.03
 	return Scenario{Male: male, Female: female, FemaleShare: 0.55, Model: DefaultScreeningModel()}
 }

@@ -1,23 +1,21 @@
 package synth
 
-import "math"
-
 // ScreeningModel is the fixed model under audit: a logistic function of the
 // recorded panel and age,
 //
 //	score = σ(Intercept + HbWeight·(HbCutoff − hb) + MCVWeight·(MCVCentre − mcv)
-//	          + FerritinWeight·(ln FerritinCentre − ln ferritin) + AgeWeight·(age − 50)).
+//	          + RDWWeight·(rdw − RDWCentre) + AgeWeight·(age − 50)).
 //
 // It does not read sex or bmi.
 type ScreeningModel struct {
-	Intercept      float64
-	HbCutoff       float64 // g/dL
-	HbWeight       float64 // per g/dL below the cut-off
-	MCVCentre      float64 // fL
-	MCVWeight      float64 // per fL below the centre
-	FerritinCentre float64 // µg/L
-	FerritinWeight float64 // per unit of log ferritin below the centre
-	AgeWeight      float64 // per year above 50
+	Intercept float64
+	HbCutoff  float64 // g/dL
+	HbWeight  float64 // per g/dL below the cut-off
+	MCVCentre float64 // fL
+	MCVWeight float64 // per fL below the centre
+	RDWCentre float64 // %
+	RDWWeight float64 // per % above the centre
+	AgeWeight float64 // per year above 50
 }
 
 // DefaultScreeningModel is the demo's model, built as if fitted on a cohort
@@ -25,7 +23,7 @@ type ScreeningModel struct {
 // cut-off (WHO 2011, see DefaultScenario). Its coefficients:
 //
 //	Intercept −0.3, HbCutoff 13, HbWeight 2.0,
-//	MCVCentre 86, MCVWeight 0.08, FerritinCentre 50, FerritinWeight 0.5,
+//	MCVCentre 86, MCVWeight 0.08, RDWCentre 14, RDWWeight 0.4,
 //	AgeWeight 0.005.
 //
 // Women's healthy haemoglobin sits near the single cut-off, so the model
@@ -36,18 +34,17 @@ func DefaultScreeningModel() ScreeningModel {
 		Intercept: -0.3,
 		HbCutoff:  13, HbWeight: 2.0,
 		MCVCentre: 86, MCVWeight: 0.08,
-		FerritinCentre: 50, FerritinWeight: 0.5,
+		RDWCentre: 14, RDWWeight: 0.4,
 		AgeWeight: 0.005,
 	}
 }
 
 // Score returns the model's probability of anaemia for one record's inputs.
-// ferritin must be positive.
-func (m ScreeningModel) Score(age, hb, mcv, ferritin float64) float64 {
+func (m ScreeningModel) Score(age, hb, mcv, rdw float64) float64 {
 	z := m.Intercept +
 		m.HbWeight*(m.HbCutoff-hb) +
 		m.MCVWeight*(m.MCVCentre-mcv) +
-		m.FerritinWeight*(math.Log(m.FerritinCentre)-math.Log(ferritin)) +
+		m.RDWWeight*(rdw-m.RDWCentre) +
 		m.AgeWeight*(age-50)
 	return sigmoid(z)
 }

@@ -8,14 +8,14 @@ import (
 
 // Record is one screened adult of the anaemia cohort.
 type Record struct {
-	Sex      string  // SexMale, SexFemale, or "hybrid" from GenerateHybrid
-	Age      float64 // whole years
-	Anaemia  int     // 1 if anaemic (the label)
-	Hb       float64 // g/dL, one decimal
-	MCV      float64 // fL, one decimal
-	Ferritin float64 // µg/L, one decimal, at least 1
-	BMI      float64 // kg/m², one decimal
-	Score    float64 // the screening model's output, six decimals
+	Sex     string  // SexMale, SexFemale, or "hybrid" from GenerateHybrid
+	Age     float64 // whole years
+	Anaemia int     // 1 if anaemic (the label)
+	Hb      float64 // g/dL, one decimal
+	MCV     float64 // fL, one decimal
+	RDW     float64 // %, one decimal
+	BMI     float64 // kg/m², one decimal
+	Score   float64 // the screening model's output, six decimals
 }
 
 // Generate draws n records: each record's sex is female with probability
@@ -72,7 +72,7 @@ func (s Scenario) GenerateHybrid(n int, seed uint64, fromFemale []string) []Reco
 // draw samples one record, taking each node's parameters from pick(node).
 // It always consumes six uniforms.
 func (s Scenario) draw(st stream, pick func(node string) *GroupParams) Record {
-	uAge, uAn, uHb, uMCV, uFer, uBMI := st.uniform(), st.uniform(), st.uniform(), st.uniform(), st.uniform(), st.uniform()
+	uAge, uAn, uHb, uMCV, uRDW, uBMI := st.uniform(), st.uniform(), st.uniform(), st.uniform(), st.uniform(), st.uniform()
 	var r Record
 
 	p := pick(ColAge)
@@ -91,28 +91,28 @@ func (s Scenario) draw(st stream, pick func(node string) *GroupParams) Record {
 	r.Hb = round(mu+p.HbAgeSlope*(r.Age-50)+p.HbSD*normalQuantile(uHb), 1)
 
 	p = pick(NodePanel)
-	mcv, fer := p.MCVHealthy, p.FerritinHealthy
+	mcv, rdw := p.MCVHealthy, p.RDWHealthy
 	if r.Anaemia == 1 {
-		mcv, fer = p.MCVAnaemic, p.FerritinAnaemic
+		mcv, rdw = p.MCVAnaemic, p.RDWAnaemic
 	}
 	r.MCV = round(mcv+p.MCVSD*normalQuantile(uMCV), 1)
-	r.Ferritin = math.Max(1, round(math.Exp(math.Log(fer)+p.FerritinLogSD*normalQuantile(uFer)), 1))
+	r.RDW = round(rdw+p.RDWSD*normalQuantile(uRDW), 1)
 
 	p = pick(ColBMI)
 	r.BMI = round(truncNormal(uBMI, p.BMIMean+p.BMIAgeSlope*(r.Age-50), p.BMISD, MinBMI, MaxBMI), 1)
 
-	r.Score = round(s.Model.Score(r.Age, r.Hb, r.MCV, r.Ferritin), 6)
+	r.Score = round(s.Model.Score(r.Age, r.Hb, r.MCV, r.RDW), 6)
 	return r
 }
 
 // AnaemiaTable lays records out as the demo's CSV table with columns
-// sex, age, anaemia, hb, mcv, ferritin, bmi, score.
+// sex, age, anaemia, hb, mcv, rdw, bmi, score.
 func AnaemiaTable(recs []Record) *Table {
-	t := &Table{Header: []string{ColSex, ColAge, ColAnaemia, ColHb, ColMCV, ColFerritin, ColBMI, ColScore}}
+	t := &Table{Header: []string{ColSex, ColAge, ColAnaemia, ColHb, ColMCV, ColRDW, ColBMI, ColScore}}
 	t.Rows = make([][]string, len(recs))
 	f := func(x float64, d int) string { return strconv.FormatFloat(x, 'f', d, 64) }
 	for i, r := range recs {
-		t.Rows[i] = []string{r.Sex, f(r.Age, 0), strconv.Itoa(r.Anaemia), f(r.Hb, 1), f(r.MCV, 1), f(r.Ferritin, 1), f(r.BMI, 1), f(r.Score, 6)}
+		t.Rows[i] = []string{r.Sex, f(r.Age, 0), strconv.Itoa(r.Anaemia), f(r.Hb, 1), f(r.MCV, 1), f(r.RDW, 1), f(r.BMI, 1), f(r.Score, 6)}
 	}
 	return t
 }

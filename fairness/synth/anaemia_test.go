@@ -52,7 +52,7 @@ func TestGenerateFollowsParameters(t *testing.T) {
 		if sex == SexFemale {
 			p = s.Female
 		}
-		var isSex, prevResid, hbResid, mcvResid, logFerResid, bmiResid []float64
+		var isSex, prevResid, hbResid, mcvResid, rdwResid, bmiResid []float64
 		for _, r := range recs {
 			if r.Sex != sex {
 				continue
@@ -61,16 +61,16 @@ func TestGenerateFollowsParameters(t *testing.T) {
 			// E[anaemia | age] = σ(PrevLogit + PrevAgeSlope·(age − 50)): the
 			// residual has mean 0 (definition of the mechanism).
 			prevResid = append(prevResid, float64(r.Anaemia)-sigmoid(p.PrevLogit+p.PrevAgeSlope*(r.Age-50)))
-			hbMu, mcvMu, fer := p.HbHealthy, p.MCVHealthy, p.FerritinHealthy
+			hbMu, mcvMu, rdwMu := p.HbHealthy, p.MCVHealthy, p.RDWHealthy
 			if r.Anaemia == 1 {
-				hbMu, mcvMu, fer = p.HbAnaemic, p.MCVAnaemic, p.FerritinAnaemic
+				hbMu, mcvMu, rdwMu = p.HbAnaemic, p.MCVAnaemic, p.RDWAnaemic
 			}
 			hbResid = append(hbResid, (r.Hb-hbMu-p.HbAgeSlope*(r.Age-50))/p.HbSD)
 			mcvResid = append(mcvResid, (r.MCV-mcvMu)/p.MCVSD)
-			logFerResid = append(logFerResid, (math.Log(r.Ferritin)-math.Log(fer))/p.FerritinLogSD)
+			rdwResid = append(rdwResid, (r.RDW-rdwMu)/p.RDWSD)
 			bmiResid = append(bmiResid, r.BMI-truncMean(p.BMIMean+p.BMIAgeSlope*(r.Age-50), p.BMISD, MinBMI, MaxBMI))
 		}
-		for name, xs := range map[string][]float64{"anaemia": prevResid, "hb": hbResid, "mcv": mcvResid, "log ferritin": logFerResid, "bmi": bmiResid} {
+		for name, xs := range map[string][]float64{"anaemia": prevResid, "hb": hbResid, "mcv": mcvResid, "rdw": rdwResid, "bmi": bmiResid} {
 			m, se := stats(xs)
 			if math.Abs(m) > 4.5*se {
 				t.Errorf("%s %s: residual mean %.4f, want 0 ± %.4f", sex, name, m, 4.5*se)
@@ -78,7 +78,7 @@ func TestGenerateFollowsParameters(t *testing.T) {
 		}
 		// Standardised Gaussian residuals have variance 1 (rounding to one
 		// decimal adds 0.1²/12 in raw units, negligible here).
-		for name, xs := range map[string][]float64{"hb": hbResid, "mcv": mcvResid, "log ferritin": logFerResid} {
+		for name, xs := range map[string][]float64{"hb": hbResid, "mcv": mcvResid, "rdw": rdwResid} {
 			var ss float64
 			for _, x := range xs {
 				ss += x * x
@@ -103,16 +103,16 @@ func TestScoreFormula(t *testing.T) {
 	m := DefaultScreeningModel()
 	// At the centre of every input the linear predictor is the intercept:
 	// σ(−0.3) = 1/(1+e^0.3) = 0.425557483188341 (computed by hand).
-	if got := m.Score(50, 13, 86, 50); math.Abs(got-0.425557483188341) > 1e-12 {
+	if got := m.Score(50, 13, 86, 14); math.Abs(got-0.425557483188341) > 1e-12 {
 		t.Errorf("score at the centre = %.15f, want 0.425557483188341", got)
 	}
 	// One g/dL below the cut-off adds HbWeight = 2 to the logit:
 	// σ(1.7) = 0.845534734916465 (computed by hand).
-	if got := m.Score(50, 12, 86, 50); math.Abs(got-0.845534734916465) > 1e-12 {
+	if got := m.Score(50, 12, 86, 14); math.Abs(got-0.845534734916465) > 1e-12 {
 		t.Errorf("score at hb 12 = %.15f, want 0.845534734916465", got)
 	}
 	for _, r := range DefaultScenario().Generate(200, 1) {
-		if want := round(m.Score(r.Age, r.Hb, r.MCV, r.Ferritin), 6); r.Score != want {
+		if want := round(m.Score(r.Age, r.Hb, r.MCV, r.RDW), 6); r.Score != want {
 			t.Fatalf("record %+v: score %g, model gives %g on the recorded values", r, r.Score, want)
 		}
 	}

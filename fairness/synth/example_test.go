@@ -14,11 +14,11 @@ func Example() {
 		fmt.Println(err)
 	}
 	// Output:
-	// sex,age,anaemia,hb,mcv,ferritin,bmi,score
-	// male,63,0,16.1,92.7,88.0,35.8,0.000707
-	// male,69,0,14.3,95.5,181.9,20.4,0.014619
-	// female,57,1,11.4,79.4,4.0,23.6,0.991215
-	// male,58,0,14.5,89.7,121.1,16.8,0.018016
+	// sex,age,anaemia,hb,mcv,rdw,bmi,score
+	// male,63,0,16.1,92.7,12.6,35.8,0.000536
+	// male,69,0,14.3,95.5,13.8,20.4,0.025456
+	// female,57,1,11.4,79.4,12.8,23.6,0.951800
+	// male,58,0,14.5,89.7,13.2,16.8,0.020312
 }
 
 func ExampleBenchTable() {

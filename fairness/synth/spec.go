@@ -28,7 +28,7 @@ graph:
   - node: hb
     parents: [anaemia, age]
   - node: panel
-    columns: [mcv, ferritin]
+    columns: [mcv, rdw]
     parents: [anaemia]
   - node: bmi
     parents: [age]

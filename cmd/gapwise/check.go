@@ -1,0 +1,86 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// checkOptions are the flags of `gapwise check`.
+type checkOptions struct {
+	spec string
+}
+
+func newCheckCmd(stdout, stderr io.Writer) *cobra.Command {
+	var o checkOptions
+	cmd := &cobra.Command{
+		Use:   "check --spec FILE",
+		Short: "Validate a spec and its data and show what decompose would estimate",
+		Args:  cobra.NoArgs,
+		RunE: func(*cobra.Command, []string) error {
+			return wrapRun(runCheck(o, stdout, stderr))
+		},
+	}
+	cmd.Flags().StringVar(&o.spec, "spec", "", "audit spec (YAML) `file`")
+	_ = cmd.MarkFlagRequired("spec")
+	return cmd
+}
+
+// runCheck is `gapwise check`: it validates the spec and the data without
+// fitting anything and prints the plan.
+func runCheck(o checkOptions, stdout, _ io.Writer) error {
+	spec, err := fairness.LoadSpec(o.spec)
+	if err != nil {
+		return err
+	}
+	p, err := fairness.Plan(spec)
+	if err != nil {
+		return err
+	}
+	var b strings.Builder
+	writePlan(&b, spec, p)
+	_, err = io.WriteString(stdout, b.String())
+	return err
+}
+
+// writePlan prints a plan as aligned text.
+func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
+	title := p.Title
+	if title == "" {
+		title = spec.File
+	}
+	fmt.Fprintf(b, "%s: spec and data are valid\n", title)
+	if p.Synthetic {
+		fmt.Fprintln(b, "SYNTHETIC DATA: the records are invented and describe no real patients.")
+	}
+	g := p.Groups
+	fmt.Fprintf(b, "\n  data        %s\n", spec.DataPath)
+	fmt.Fprintf(b, "  label       %s\n", p.Label)
+	fmt.Fprintf(b, "  score       %s (positive when >= %v)\n", p.Score, p.Threshold)
+	fmt.Fprintf(b, "  groups      column %s: reference %s (%d records, %d dropped), comparison %s (%d records, %d dropped)\n",
+		g.Column, g.Reference, g.NReference, g.DroppedReference, g.Comparison, g.NComparison, g.DroppedComparison)
+	fmt.Fprintf(b, "  metrics     %s\n", strings.Join(p.Metrics, ", "))
+	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, seed %d\n", p.Classifier, strings.Join(p.Learners, ", "), p.Folds, spec.Seed)
+	fmt.Fprintf(b, "  features    %d encoded columns\n", p.Features)
+
+	fmt.Fprintf(b, "\n%d mechanisms:\n", len(p.Nodes))
+	wMech, wCols := len("mechanism"), len("columns")
+	for _, n := range p.Nodes {
+		wMech = max(wMech, len([]rune(n.Mechanism)))
+		wCols = max(wCols, len(strings.Join(n.Columns, ", ")))
+	}
+	fmt.Fprintf(b, "  %-*s  %-*s  %s\n", wMech, "mechanism", wCols, "columns", "features")
+	for _, n := range p.Nodes {
+		fmt.Fprintf(b, "  %-*s  %-*s  %8d\n", wMech, n.Mechanism, wCols, strings.Join(n.Columns, ", "), n.Features)
+	}
+	if len(p.Warnings) > 0 {
+		fmt.Fprintln(b, "\nWarnings:")
+		for _, w := range p.Warnings {
+			fmt.Fprintf(b, "  - %s\n", w)
+		}
+	}
+}

@@ -1,0 +1,130 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// decompose runs `gapwise decompose` through its run function.
+func decompose(t *testing.T, o decomposeOptions) string {
+	t.Helper()
+	var stdout, stderr bytes.Buffer
+	if err := runDecompose(o, &stdout, &stderr); err != nil {
+		t.Fatalf("decompose %+v: %v", o, err)
+	}
+	return stdout.String()
+}
+
+// TestDecomposeFormats runs the default text format through runDecompose
+// and renders the demo's result as Markdown; JSON output is checked by
+// TestDecomposeDeterministic.
+func TestDecomposeFormats(t *testing.T) {
+	spec := filepath.Join(demoDir(t), demoSpec)
+	text := decompose(t, decomposeOptions{spec: spec, format: formatText})
+	for _, w := range []string{"fnr (false-negative rate)", "residual (gap - sum)", "hb | anaemia, age", "Assumptions and cautions", "SYNTHETIC DATA"} {
+		if !strings.Contains(text, w) {
+			t.Errorf("text output lacks %q", w)
+		}
+	}
+	var md bytes.Buffer
+	if err := render(&md, loadResult(t, filepath.Join(demoDir(t), resultFile)), formatMarkdown); err != nil {
+		t.Fatal(err)
+	}
+	for _, w := range []string{"|", "anaemia, age"} {
+		if !strings.Contains(md.String(), w) {
+			t.Errorf("markdown output lacks %q", w)
+		}
+	}
+}
+
+// TestDecomposeDeterministic: the JSON result depends only on the spec, the
+// data and the seed, not on the number of workers or on the run. The JSON
+// parses and honours Σ contributions + residual = gap.
+func TestDecomposeDeterministic(t *testing.T) {
+	spec := filepath.Join(demoDir(t), demoSpec)
+	one := decompose(t, decomposeOptions{spec: spec, format: formatJSON, workers: 1})
+	two := decompose(t, decomposeOptions{spec: spec, format: formatJSON, workers: 2})
+	if one != two {
+		t.Error("JSON differs between 1 and 2 workers")
+	}
+	// The demo's result.json came from an earlier run (GOMAXPROCS workers)
+	// on the same spec and data.
+	if file := readFile(t, filepath.Join(demoDir(t), resultFile)); file != one {
+		t.Error("demo's result.json differs from decompose --format json")
+	}
+	var res fairness.Result
+	if err := json.Unmarshal([]byte(one), &res); err != nil {
+		t.Fatalf("JSON output does not parse: %v", err)
+	}
+	checkSums(t, &res)
+}
+
+func TestDecomposeOut(t *testing.T) {
+	spec := filepath.Join(demoDir(t), demoSpec)
+	out := filepath.Join(t.TempDir(), "audit")
+	stdout := decompose(t, decomposeOptions{spec: spec, format: formatJSON, out: out})
+	if got := readFile(t, filepath.Join(out, resultFile)); got != stdout {
+		t.Error("result.json differs from the JSON printed on stdout")
+	}
+	if html := readFile(t, filepath.Join(out, reportFile)); !strings.Contains(html, "<html") {
+		t.Error("report.html is not HTML")
+	}
+	// A second run into the now non-empty folder is refused without --force
+	// and leaves the files alone.
+	before, _ := os.Stat(filepath.Join(out, resultFile))
+	var so, se bytes.Buffer
+	if code := execute([]string{"decompose", "--spec", spec, "--out", out}, &so, &se); code != exitInput {
+		t.Fatalf("exit %d, want %d (stderr %q)", code, exitInput, se.String())
+	}
+	after, _ := os.Stat(filepath.Join(out, resultFile))
+	if !before.ModTime().Equal(after.ModTime()) {
+		t.Error("refused run touched result.json")
+	}
+}
+
+// TestDecomposeFailedRunCreatesNoFolder: an audit that fails after the
+// spec was read (here: a metric without a value in one group) leaves no
+// output folder behind.
+func TestDecomposeFailedRunCreatesNoFolder(t *testing.T) {
+	dir := t.TempDir()
+	spec := filepath.Join(dir, "spec.yaml")
+	data := "g,y,x,score\n" + strings.Repeat("a,1,0.5,0.9\nb,1,0.4,0.8\n", 20)
+	if err := os.WriteFile(filepath.Join(dir, "d.csv"), []byte(data), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	src := "data: d.csv\nlabel: y\nscore: score\nthreshold: 0.5\ngroups: {column: g, reference: a, comparison: b}\n" +
+		"metrics: [fpr]\ngraph:\n  - node: y\n  - node: x\n    parents: [y]\nfolds: 2\n"
+	if err := os.WriteFile(spec, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "out")
+	var stdout, stderr bytes.Buffer
+	code := execute([]string{"decompose", "--spec", spec, "--out", out}, &stdout, &stderr)
+	if code == exitOK {
+		t.Fatal("FPR without negatives did not fail")
+	}
+	if _, err := os.Stat(out); err == nil {
+		t.Error("failed run created the output folder")
+	}
+	if stdout.Len() != 0 {
+		t.Errorf("failed run printed %q", stdout.String())
+	}
+}
+
+func TestCheckDemo(t *testing.T) {
+	var stdout, stderr bytes.Buffer
+	if err := runCheck(checkOptions{spec: filepath.Join(demoDir(t), demoSpec)}, &stdout, &stderr); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"spec and data are valid", "SYNTHETIC", "panel | anaemia", "mcv, rdw", "5 mechanisms", "fnr, fpr, ppv"} {
+		if !strings.Contains(stdout.String(), want) {
+			t.Errorf("check output lacks %q:\n%s", want, stdout.String())
+		}
+	}
+}

@@ -1,0 +1,98 @@
+package main
+
+import (
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"slices"
+	"strings"
+	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+func loadResult(t *testing.T, path string) *fairness.Result {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var res fairness.Result
+	if err := json.Unmarshal(b, &res); err != nil {
+		t.Fatalf("%s: %v", path, err)
+	}
+	return &res
+}
+
+// checkSums verifies the contract Σ contributions + residual = gap and
+// gap = comparison − reference for every metric.
+func checkSums(t *testing.T, res *fairness.Result) {
+	t.Helper()
+	for _, m := range res.Metrics {
+		var sum float64
+		for _, c := range m.Contributions {
+			sum += c.Value
+		}
+		if math.Abs(sum+m.Residual-m.Gap) > 1e-9 {
+			t.Errorf("%s: Σ contributions %.6f + residual %.6f != gap %.6f", m.Metric, sum, m.Residual, m.Gap)
+		}
+		if math.Abs(m.Comparison-m.Reference-m.Gap) > 1e-12 {
+			t.Errorf("%s: gap %.6f != %.6f − %.6f", m.Metric, m.Gap, m.Comparison, m.Reference)
+		}
+		if len(m.Contributions) != len(res.Mechanisms) {
+			t.Errorf("%s: %d contributions for %d mechanisms", m.Metric, len(m.Contributions), len(res.Mechanisms))
+		}
+	}
+}
+
+func TestDemoWritesEverything(t *testing.T) {
+	dir := demoDir(t)
+	for _, f := range []string{demoData, demoSpec, resultFile, reportFile} {
+		if info, err := os.Stat(filepath.Join(dir, f)); err != nil || info.Size() == 0 {
+			t.Errorf("%s: missing or empty (%v)", f, err)
+		}
+	}
+	res := loadResult(t, filepath.Join(dir, resultFile))
+	if !res.Synthetic {
+		t.Error("demo result is not marked synthetic")
+	}
+	if res.Tool.Version != version {
+		t.Errorf("tool version %q, want %q", res.Tool.Version, version)
+	}
+	if got := res.Groups.NReference + res.Groups.NComparison; got != testRows {
+		t.Errorf("%d records audited, want %d", got, testRows)
+	}
+	var names []string
+	for _, m := range res.Metrics {
+		names = append(names, m.Metric)
+	}
+	if want := []string{"fnr", "fpr", "ppv", "brier", "calibration_in_the_large", "ece"}; !slices.Equal(names, want) {
+		t.Errorf("metrics %v, want %v", names, want)
+	}
+	checkSums(t, res)
+	for _, want := range []string{"SYNTHETIC", "fpr", "largest: hb | anaemia, age", reportFile} {
+		if !strings.Contains(sharedOut, want) {
+			t.Errorf("summary lacks %q:\n%s", want, sharedOut)
+		}
+	}
+	if spec := readFile(t, filepath.Join(dir, demoSpec)); !strings.Contains(spec, "synthetic: true") {
+		t.Errorf("spec not marked synthetic:\n%s", spec)
+	}
+}
+
+func TestDemoRefusesNonEmptyFolder(t *testing.T) {
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "keep.txt"), []byte("x"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var stdout, stderr strings.Builder
+	code := execute([]string{"demo", "--out", dir, "--rows", "200"}, &stdout, &stderr)
+	if code != exitInput || !strings.Contains(stderr.String(), "--force") {
+		t.Errorf("exit %d, stderr %q; want 2 and a hint about --force", code, stderr.String())
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 1 {
+		t.Errorf("refused demo wrote files: %v", entries)
+	}
+}

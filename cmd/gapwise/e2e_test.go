@@ -1,0 +1,67 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// TestBinary builds gapwise with a version stamped in by -ldflags and runs
+// it as a user would: --version, demo, and a usage error's exit status.
+func TestBinary(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds the binary")
+	}
+	dir := t.TempDir()
+	bin := filepath.Join(dir, "gapwise")
+	build := exec.Command("go", "build", "-ldflags", "-X main.version=v9.9.9-test", "-o", bin, ".")
+	if out, err := build.CombinedOutput(); err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
+	}
+	run := func(args ...string) (stdout, stderr string, code int) {
+		var o, e bytes.Buffer
+		cmd := exec.Command(bin, args...)
+		cmd.Stdout, cmd.Stderr = &o, &e
+		err := cmd.Run()
+		var ee *exec.ExitError
+		switch {
+		case err == nil:
+		case errors.As(err, &ee):
+			code = ee.ExitCode()
+		default:
+			t.Fatalf("%v: %v", args, err)
+		}
+		return o.String(), e.String(), code
+	}
+
+	if out, _, code := run("--version"); code != 0 || out != "gapwise v9.9.9-test\n" {
+		t.Errorf("--version: exit %d, printed %q", code, out)
+	}
+	if _, errOut, code := run("decompose", "--nope"); code != exitInput || !strings.Contains(errOut, "--nope") {
+		t.Errorf("unknown flag: exit %d, stderr %q", code, errOut)
+	}
+
+	demo := filepath.Join(dir, "demo")
+	out, errOut, code := run("demo", "--out", demo, "--rows", "3000")
+	if code != 0 {
+		t.Fatalf("demo: exit %d, stderr %q", code, errOut)
+	}
+	if errOut != "" {
+		t.Errorf("demo wrote to stderr (not a terminal): %q", errOut)
+	}
+	if !strings.Contains(out, "SYNTHETIC") || !strings.Contains(out, demo) {
+		t.Errorf("demo summary: %q", out)
+	}
+	for _, f := range []string{demoData, demoSpec, resultFile, reportFile} {
+		if _, err := os.Stat(filepath.Join(demo, f)); err != nil {
+			t.Error(err)
+		}
+	}
+	if res := loadResult(t, filepath.Join(demo, resultFile)); res.Tool.Version != "v9.9.9-test" {
+		t.Errorf("result records version %q", res.Tool.Version)
+	}
+}

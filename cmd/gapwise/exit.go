@@ -1,0 +1,55 @@
+package main
+
+import (
+	"errors"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// Exit statuses.
+const (
+	exitOK      = 0
+	exitFailure = 1 // the tool failed (I/O, an estimation error)
+	exitInput   = 2 // bad input or usage
+)
+
+// usageError is a misuse of the command line found by a run function, such
+// as an unknown --format. It exits with status 2.
+type usageError struct{ msg string }
+
+func (e *usageError) Error() string { return e.msg }
+
+// runError marks an error returned by a command's run function, as
+// opposed to one from cobra's own parsing (which is always a usage error).
+type runError struct{ err error }
+
+func (e *runError) Error() string { return e.err.Error() }
+func (e *runError) Unwrap() error { return e.err }
+
+// exitCode maps an error from executing the root command to an exit
+// status: errors from cobra's parsing, usage errors and input errors
+// (fairness.IsInputError, an output folder that is in the way) give 2,
+// everything else 1.
+func exitCode(err error) int {
+	if err == nil {
+		return exitOK
+	}
+	var re *runError
+	if !errors.As(err, &re) {
+		return exitInput // cobra: unknown command or flag, missing required flag, ...
+	}
+	var ue *usageError
+	var oe *outDirError
+	if errors.As(err, &ue) || errors.As(err, &oe) || fairness.IsInputError(err) {
+		return exitInput
+	}
+	return exitFailure
+}
+
+// wrapRun adapts a run function's error for exitCode.
+func wrapRun(err error) error {
+	if err == nil {
+		return nil
+	}
+	return &runError{err}
+}

@@ -1,0 +1,71 @@
+package main
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// TestExitCodes runs command lines that fail before any estimation and
+// checks the status and the single error line on stderr.
+func TestExitCodes(t *testing.T) {
+	dir := t.TempDir()
+	notDir := filepath.Join(dir, "plain-file")
+	if err := os.WriteFile(notDir, []byte("x"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cases := []struct {
+		name   string
+		args   []string
+		code   int
+		stderr string
+	}{
+		{"unknown flag", []string{"decompose", "--spec", "x.yaml", "--bogus"}, exitInput, "unknown flag: --bogus"},
+		{"unknown command", []string{"explain"}, exitInput, `unknown command "explain"`},
+		{"missing spec", []string{"decompose"}, exitInput, `required flag(s) "spec" not set`},
+		{"stray argument", []string{"check", "--spec", "x.yaml", "extra"}, exitInput, "extra"},
+		{"bad format", []string{"decompose", "--spec", "x.yaml", "--format", "xml"}, exitInput, `--format must be text, json or markdown, got "xml"`},
+		{"negative workers", []string{"decompose", "--spec", "x.yaml", "--workers", "-1"}, exitInput, "--workers must be 0 or more"},
+		{"spec not found", []string{"decompose", "--spec", filepath.Join(dir, "nope.yaml")}, exitInput, "nope.yaml: spec file not found"},
+		{"check spec not found", []string{"check", "--spec", filepath.Join(dir, "nope.yaml")}, exitInput, "spec file not found"},
+		{"out is a file", []string{"decompose", "--spec", "x.yaml", "--out", notDir}, exitInput, "exists and is not a folder"},
+		{"out under a file", []string{"decompose", "--spec", "x.yaml", "--out", filepath.Join(notDir, "sub")}, exitFailure, "not a directory"},
+		{"demo too few rows", []string{"demo", "--rows", "5", "--out", filepath.Join(dir, "d")}, exitInput, "--rows must be at least 100"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			var stdout, stderr bytes.Buffer
+			code := execute(c.args, &stdout, &stderr)
+			if code != c.code {
+				t.Errorf("exit %d, want %d (stderr %q)", code, c.code, stderr.String())
+			}
+			if !strings.Contains(stderr.String(), c.stderr) {
+				t.Errorf("stderr %q lacks %q", stderr.String(), c.stderr)
+			}
+			if n := strings.Count(stderr.String(), "gapwise: "); n != 1 {
+				t.Errorf("error printed %d times: %q", n, stderr.String())
+			}
+			if strings.Contains(stderr.String(), "Usage:") {
+				t.Errorf("usage dump on stderr: %q", stderr.String())
+			}
+			if stdout.Len() != 0 {
+				t.Errorf("stdout not empty: %q", stdout.String())
+			}
+		})
+	}
+	if _, err := os.Stat(filepath.Join(dir, "d")); err == nil {
+		t.Error("demo with bad flags created its folder")
+	}
+}
+
+func TestVersionFlag(t *testing.T) {
+	var stdout, stderr bytes.Buffer
+	if code := execute([]string{"--version"}, &stdout, &stderr); code != exitOK {
+		t.Fatalf("exit %d, stderr %q", code, stderr.String())
+	}
+	if got, want := stdout.String(), "gapwise "+version+"\n"; got != want {
+		t.Errorf("--version printed %q, want %q", got, want)
+	}
+}

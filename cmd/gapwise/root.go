@@ -1,0 +1,51 @@
+package main
+
+import (
+	"fmt"
+	"io"
+
+	"github.com/spf13/cobra"
+)
+
+// newRootCmd builds the gapwise command tree writing results to stdout and
+// messages to stderr.
+func newRootCmd(stdout, stderr io.Writer) *cobra.Command {
+	root := &cobra.Command{
+		Use:   "gapwise",
+		Short: "Explain a performance gap of a diagnostic model between two patient groups",
+		Long: `gapwise splits the gap in a performance metric (false-negative rate,
+false-positive rate, calibration, ...) between a reference and a comparison
+group into the contributions of the mechanisms of a causal graph over the
+recorded variables (Shapley values over mechanism shifts, estimated by
+reweighting the reference group's records).
+
+The numbers are statistical estimates under stated assumptions (the graph is
+right, no hidden confounding, independent mechanisms, overlap). They are not
+clinical or legal findings.`,
+		Version:       version,
+		SilenceUsage:  true,
+		SilenceErrors: true,
+	}
+	root.SetOut(stdout)
+	root.SetErr(stderr)
+	root.SetVersionTemplate("gapwise {{.Version}}\n")
+	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error {
+		return fmt.Errorf("%w (see '%s --help')", err, c.CommandPath())
+	})
+	root.CompletionOptions.DisableDefaultCmd = true
+	root.AddCommand(newDecomposeCmd(stdout, stderr), newCheckCmd(stdout, stderr), newDemoCmd(stdout, stderr))
+	return root
+}
+
+// execute runs the command line args and returns the exit status. It
+// prints an error, once, to stderr.
+func execute(args []string, stdout, stderr io.Writer) int {
+	root := newRootCmd(stdout, stderr)
+	root.SetArgs(args)
+	err := root.Execute()
+	code := exitCode(err)
+	if err != nil {
+		fmt.Fprintf(stderr, "gapwise: %v\n", err)
+	}
+	return code
+}
