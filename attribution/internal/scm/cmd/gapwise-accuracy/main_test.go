@@ -1,0 +1,56 @@
+package main
+
+import (
+	"bytes"
+	"io"
+	"strings"
+	"testing"
+)
+
+func TestRunWritesTable(t *testing.T) {
+	opt, err := parseFlags([]string{"-sizes", "400,800", "-reps", "1", "-truth-n", "8192", "-cases", "prevalence", "-learners", "linear,linear+expanded", "-detail"}, io.Discard)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var out, errOut bytes.Buffer
+	if err := run(opt, &out, &errOut); err != nil {
+		t.Fatal(err)
+	}
+	text := out.String()
+	for _, want := range []string{"| case | learner | n = 400 | n = 800 |", "| prevalence | linear |", "| prevalence | linear+expanded |", "| prevalence | linear | 400 | fnr | disease |"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("output lacks %q:\n%s", want, text)
+		}
+	}
+	// 2 summary rows + 2 learners × 2 sizes × 4 metrics × 6 mechanisms detail rows.
+	if got := strings.Count(text, "\n| prevalence |"); got != 2+2*2*4*6 {
+		t.Errorf("%d table rows, want %d", got, 2+2*2*4*6)
+	}
+}
+
+func TestParseFlagsRejectsBadInput(t *testing.T) {
+	for _, args := range [][]string{
+		{"-sizes", "10"},
+		{"-sizes", "abc"},
+		{"-metrics", "auc"},
+		{"-metrics", "nope"},
+		{"-reps", "0"},
+	} {
+		if _, err := parseFlags(args, io.Discard); err == nil {
+			t.Errorf("parseFlags(%q) accepted bad input", args)
+		}
+	}
+	opt, err := parseFlags(nil, io.Discard)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := learnerSet("linear+nope"); err == nil {
+		t.Error("learnerSet accepted an unknown learner")
+	}
+	if _, err := selectCases([]string{"nope"}); err == nil {
+		t.Error("selectCases accepted an unknown case")
+	}
+	if len(opt.sizes) != 3 || opt.sizes[2] != 50000 {
+		t.Errorf("default sizes %v", opt.sizes)
+	}
+}
