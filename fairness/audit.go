@@ -2,6 +2,7 @@ package fairness
 
 import (
 	"errors"
+	"fmt"
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/classify"
@@ -14,6 +15,17 @@ const ToolName = "gapwise"
 type RunOptions struct {
 	Workers int    // goroutines for estimation; 0 means GOMAXPROCS
 	Version string // recorded in Result.Tool
+
+	// Bootstrap is the number of percentile-bootstrap replicates for
+	// intervals (attribution.DecomposeWithIntervals); 0 skips them.
+	Bootstrap int
+	// BootstrapLevel is the interval level; 0 means 0.95.
+	BootstrapLevel float64
+	// BootstrapKeepRatios resamples records with their fitted ratios
+	// instead of refitting the classifiers (faster, narrower intervals).
+	BootstrapKeepRatios bool
+	// Progress, if non-nil, is called after each bootstrap replicate.
+	Progress func(done, total int)
 }
 
 // Run performs the audit described by spec: it loads the data, checks that
@@ -39,23 +51,35 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	if !ok {
 		return nil, specErr(spec.File, spec.KeyLine("classifier"), "classifier", ErrClassifierUnavailable, "classifier %s is not available", spec.Classifier)
 	}
-	dec, err := attribution.Decompose(sample, mechs, spec.Metrics, attribution.Options{
+	aopt := attribution.Options{
 		Threshold: spec.Threshold,
 		Folds:     spec.Folds,
 		Seed:      spec.Seed,
 		Learners:  learners,
 		ECEBins:   spec.ECEBins,
 		Workers:   opt.Workers,
-	})
+	}
+	var dec *attribution.Decomposition
+	var boot *attribution.BootstrapSummary
+	if opt.Bootstrap > 0 {
+		dec, boot, err = attribution.DecomposeWithIntervals(sample, mechs, spec.Metrics, aopt, attribution.BootstrapOptions{
+			Replicates: opt.Bootstrap,
+			Level:      opt.BootstrapLevel,
+			KeepRatios: opt.BootstrapKeepRatios,
+			Progress:   opt.Progress,
+		})
+	} else {
+		dec, err = attribution.Decompose(sample, mechs, spec.Metrics, aopt)
+	}
 	if err != nil {
-		var me *attribution.MetricError
-		if errors.As(err, &me) {
-			return nil, undefinedMetric(spec, me.Metric, me.Group == attribution.GroupComparison)
-		}
-		return nil, err
+		return nil, decomposeError(spec, err)
 	}
 	r := buildResult(spec, d, dec, learners, opt)
+	r.Details = Describe(d, spec.Threshold, spec.ECEBins)
 	r.Warnings = Warnings(r)
+	if boot != nil && boot.Failed > 0 {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("%d of %d bootstrap replicates could not be computed (e.g. a metric without a value in a resample); the intervals rest on the rest", boot.Failed, boot.Replicates))
+	}
 	r.Assumptions = Assumptions(spec.ScoreIsNode(), spec.Synthetic)
 	return r, nil
 }
@@ -67,11 +91,13 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 func candidateLearners(name string) (learners []classify.Learner, ok bool) {
 	switch name {
 	case ClassifierAuto:
-		return []classify.Learner{classify.NewLinear(), classify.NewExpanded()}, true
+		return []classify.Learner{classify.NewLinear(), classify.NewExpanded(), classify.NewBoosted()}, true
 	case ClassifierLinear:
 		return []classify.Learner{classify.NewLinear()}, true
 	case ClassifierExpanded:
 		return []classify.Learner{classify.NewExpanded()}, true
+	case ClassifierBoosted:
+		return []classify.Learner{classify.NewBoosted()}, true
 	}
 	return nil, false
 }
@@ -176,4 +202,14 @@ func interval(iv *attribution.Interval) *Interval {
 		return nil
 	}
 	return &Interval{Low: iv.Low, High: iv.High}
+}
+
+// decomposeError names the group's value in an *attribution.MetricError
+// (which only knows "reference" or "comparison"); other errors pass through.
+func decomposeError(spec *Spec, err error) error {
+	var me *attribution.MetricError
+	if errors.As(err, &me) {
+		return undefinedMetric(spec, me.Metric, me.Group == attribution.GroupComparison)
+	}
+	return err
 }

@@ -10,6 +10,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -272,6 +273,67 @@ func TestRunDeterministic(t *testing.T) {
 			if a, b := r1.Metrics[i].Contributions[j], r4.Metrics[i].Contributions[j]; a != b {
 				t.Errorf("metric %s mechanism %d: %+v with 1 worker, %+v with 4", r1.Metrics[i].Metric, j, a, b)
 			}
+		}
+	}
+}
+
+// TestRunAutoAndBootstrap checks that "auto" offers every learner to each
+// mechanism (one out-of-fold loss per candidate) and that bootstrap
+// intervals reach the result: an interval for every quantity, Low ≤ High.
+func TestRunAutoAndBootstrap(t *testing.T) {
+	spec := writeAudit(t, strings.Replace(smallSpec, "classifier: linear", "classifier: auto", 1), smallData(160))
+	r, err := Run(spec, RunOptions{Workers: 2, Bootstrap: 20, BootstrapKeepRatios: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := strings.Join(r.Settings.Learners, ",")
+	if want != "linear,expanded,boosted" {
+		t.Errorf("learners %s", want)
+	}
+	for _, m := range r.Mechanisms {
+		var got []string
+		for _, l := range m.Losses {
+			got = append(got, l.Classifier)
+		}
+		if strings.Join(got, ",") != want {
+			t.Errorf("%s: losses for %v", m.Node, got)
+		}
+	}
+	for _, m := range r.Metrics {
+		if m.ReferenceCI == nil || m.ComparisonCI == nil || m.GapCI == nil || m.GapCI.Low > m.GapCI.High {
+			t.Errorf("%s: intervals %+v %+v %+v", m.Metric, m.ReferenceCI, m.ComparisonCI, m.GapCI)
+		}
+		for _, c := range m.Contributions {
+			if c.CILow == nil || c.CIHigh == nil || *c.CILow > *c.CIHigh {
+				t.Errorf("%s %s: interval %v %v", m.Metric, c.Node, c.CILow, c.CIHigh)
+			}
+		}
+	}
+	if r.Details == nil {
+		t.Error("no details")
+	}
+}
+
+func TestDecomposeError(t *testing.T) {
+	spec, err := ParseSpec("spec.yaml", []byte(exampleSpec))
+	if err != nil {
+		t.Fatal(err)
+	}
+	tests := []struct {
+		in   error
+		want string
+	}{
+		{&attribution.MetricError{Metric: "fpr", Group: attribution.GroupComparison, Err: metrics.ErrUndefined}, `metric fpr is undefined in group "south" (clinic): it has no negatives`},
+		{fmt.Errorf("wrapped: %w", &attribution.MetricError{Metric: "tpr", Group: attribution.GroupReference, Err: metrics.ErrUndefined}), `metric tpr is undefined in group "north" (clinic): it has no positives`},
+		{errors.New("classifier failed"), "classifier failed"},
+	}
+	for _, tc := range tests {
+		got := decomposeError(spec, tc.in)
+		if got.Error() != tc.want {
+			t.Errorf("got %q, want %q", got, tc.want)
+		}
+		if isMetric := strings.HasPrefix(tc.want, "metric"); IsInputError(got) != isMetric || errors.Is(got, metrics.ErrUndefined) != isMetric {
+			t.Errorf("%q: IsInputError %v", got, IsInputError(got))
 		}
 	}
 }

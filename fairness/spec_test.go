@@ -166,6 +166,15 @@ func TestParseSpecErrors(t *testing.T) {
 	}
 }
 
+func TestParseSpecClassifiers(t *testing.T) {
+	for _, c := range []string{ClassifierAuto, ClassifierLinear, ClassifierExpanded, ClassifierBoosted} {
+		s, err := ParseSpec("spec.yaml", []byte(exampleSpec+"classifier: "+c+"\n"))
+		if err != nil || s.Classifier != c {
+			t.Errorf("classifier %s: %v", c, err)
+		}
+	}
+}
+
 func TestLoadSpecNotFound(t *testing.T) {
 	_, err := LoadSpec(filepath.Join(t.TempDir(), "nope.yaml"))
 	if !errors.Is(err, ErrSpecNotFound) || !strings.Contains(err.Error(), "nope.yaml") {
