@@ -51,17 +51,26 @@ func writeDetail(w io.Writer, opt options, cases []scm.Case, cells []cell) {
 	for _, c := range cells {
 		for m, byMech := range c.errs {
 			for i, e := range byMech {
-				mean, ms := 0.0, 0.0
-				for _, x := range e {
-					mean += x / float64(len(e))
-					ms += x * x / float64(len(e))
-				}
-				sd := math.NaN()
-				if len(e) > 1 {
-					sd = math.Sqrt(math.Max(0, ms-mean*mean) * float64(len(e)) / float64(len(e)-1))
-				}
-				fmt.Fprintf(w, "| %s | %s | %d | %s | %s | %+.4f | %.4f | %.4f |\n", c.caseName, c.learner, c.size, opt.metrics[m], nodes[c.caseName][i].Name, mean, math.Sqrt(ms), sd)
+				mean, rms, sd := moments(e)
+				fmt.Fprintf(w, "| %s | %s | %d | %s | %s | %+.4f | %.4f | %.4f |\n", c.caseName, c.learner, c.size, opt.metrics[m], nodes[c.caseName][i].Name, mean, rms, sd)
 			}
+			mean, rms, sd := moments(c.residual[m])
+			fmt.Fprintf(w, "| %s | %s | %d | %s | (residual) | %+.4f | %.4f | %.4f |\n", c.caseName, c.learner, c.size, opt.metrics[m], mean, rms, sd)
 		}
 	}
+}
+
+// moments returns the mean, root mean square and sample standard deviation
+// (n−1; NaN for a single value) of e.
+func moments(e []float64) (mean, rms, sd float64) {
+	var ms float64
+	for _, x := range e {
+		mean += x / float64(len(e))
+		ms += x * x / float64(len(e))
+	}
+	sd = math.NaN()
+	if len(e) > 1 {
+		sd = math.Sqrt(math.Max(0, ms-mean*mean) * float64(len(e)) / float64(len(e)-1))
+	}
+	return mean, math.Sqrt(ms), sd
 }
