@@ -1,0 +1,399 @@
+package classify
+
+import "math"
+
+// boostGH is one training row's gradient and hessian of the weighted
+// logistic loss ℓ = w·[log(1+e^z) − y·z] at the current log-odds z:
+// g = ∂ℓ/∂z = w·(σ(z) − y), h = ∂²ℓ/∂z² = w·σ(z)·(1 − σ(z)).
+type boostGH struct{ g, h float64 }
+
+// boostBin accumulates the gradient, hessian and row count of the rows of a
+// tree node that fall into one bin of one feature.
+type boostBin struct {
+	g, h float64
+	n    int
+}
+
+// boostTreeConfig holds the growth limits of one tree.
+type boostTreeConfig struct {
+	maxLeaves, maxDepth int
+	minRows             int     // rows on each side of a split
+	minHessian          float64 // hessian sum on each side of a split
+	l2                  float64 // λ in the leaf value −G/(H+λ)
+	rate                float64 // shrinkage applied to every leaf value
+}
+
+// boostNode is a node of a fitted tree. Rows with x[feat] ≤ thr (bins:
+// bin ≤ bin) go to child left, the others to left+1. A leaf points to itself
+// with thr = +Inf and bin = 255, so walking a fixed number of steps past a
+// leaf stays on it; this makes prediction branch-free.
+type boostNode struct {
+	thr   float64
+	feat  int32
+	left  int32
+	bin   uint8
+	value float64 // leaf value, 0 for inner nodes
+}
+
+// boostTree is one fitted regression tree; nodes[0] is the root and depth is
+// the longest root-to-leaf path.
+type boostTree struct {
+	nodes []boostNode
+	depth int
+}
+
+// boostSplit is the best split found for a node: rows with bin ≤ bin of
+// feature feat go left, with gradient, hessian and row sums gl, hl, nl.
+type boostSplit struct {
+	gain   float64
+	feat   int
+	bin    int
+	gl, hl float64
+	nl     int
+}
+
+// boostLeaf is a node of the tree being grown: it owns the training rows at
+// positions start … end−1 of the grower's position-ordered arrays.
+type boostLeaf struct {
+	node       int32
+	start, end int
+	g, h       float64
+	depth      int
+	hist       []boostBin // nil once released
+	split      boostSplit // valid when split.gain > 0
+}
+
+// boostGrower grows regression trees on binned training rows by best-first
+// (leaf-wise) splitting: at every step the leaf whose best split lowers the
+// second-order loss the most is split, until maxLeaves leaves exist or no
+// split is allowed. The gain of splitting a node with sums (G, H) into
+// (G_L, H_L) and (G_R, H_R) is
+//
+//	gain = G_L²/(H_L+λ) + G_R²/(H_R+λ) − G²/(H+λ),
+//
+// the decrease in the Newton approximation of the loss (Friedman 2001,
+// "Greedy function approximation: a gradient boosting machine"; Chen &
+// Guestrin 2016, "XGBoost: a scalable tree boosting system", eq. 7), and a
+// leaf's value is −rate·G/(H+λ). The histogram of the larger child is the
+// parent's minus the smaller child's (Ke et al. 2017, "LightGBM").
+//
+// Every per-row array is stored in position order: splitting a node
+// partitions its rows physically (stably), so each node's rows are
+// contiguous and both histogram building and gradient updates stream
+// through memory. The training rows' original order is never needed again.
+type boostGrower struct {
+	p, words int
+	binning  *boostBinning
+	bins     []uint64  // packed bins
+	gh       []boostGH // gradients at z
+	z        []float64 // running log-odds
+	sw       []float64 // signed weight: +w for y = 1, −w for y = 0
+	cfg      boostTreeConfig
+	free     [][]boostBin // released histograms for reuse
+
+	tmpBins []uint64
+	tmpGH   []boostGH
+	tmpZ    []float64
+	tmpSW   []float64
+}
+
+// boostHistChunk is the number of rows whose histogram one goroutine builds.
+// The chunks depend only on the node's position range, so the fixed-order
+// sum of their histograms is the same whatever GOMAXPROCS is.
+const boostHistChunk = 16384
+
+// newBoostGrower takes ownership of the packed training bins, the initial
+// log-odds z and the signed weights sw (all indexed by training row).
+func newBoostGrower(bins []uint64, binning *boostBinning, z, sw []float64, cfg boostTreeConfig) *boostGrower {
+	p := len(binning.edges)
+	n := len(z)
+	return &boostGrower{
+		p: p, words: boostWords(p), binning: binning, cfg: cfg,
+		bins: bins, z: z, sw: sw,
+		gh:      make([]boostGH, n),
+		tmpBins: make([]uint64, len(bins)),
+		tmpGH:   make([]boostGH, n),
+		tmpZ:    make([]float64, n),
+		tmpSW:   make([]float64, n),
+	}
+}
+
+// gradients writes g = w·(σ(z) − y) = w·σ(z) − max(sw, 0) and
+// h = w·σ(z)(1 − σ(z)) for every position, in parallel over fixed blocks
+// (each entry depends on its row only).
+func (gr *boostGrower) gradients() {
+	const block = 16384
+	n := len(gr.z)
+	boostParallel((n+block-1)/block, func(k int) {
+		lo, hi := k*block, min(n, (k+1)*block)
+		z, sw, gh := gr.z[lo:hi], gr.sw[lo:hi], gr.gh[lo:hi]
+		for i, zi := range z {
+			s := 1 / (1 + math.Exp(-zi))
+			w := math.Abs(sw[i])
+			gh[i] = boostGH{g: w*s - math.Max(sw[i], 0), h: w * s * (1 - s)}
+		}
+	})
+}
+
+// grow fits one tree to the current gradients and adds its leaf values to
+// the rows' log-odds z.
+func (gr *boostGrower) grow() boostTree {
+	gr.gradients()
+	var g, h float64
+	for _, v := range gr.gh {
+		g += v.g
+		h += v.h
+	}
+	root := boostLeaf{node: 0, start: 0, end: len(gr.z), g: g, h: h, hist: gr.newHist()}
+	gr.buildHist(root.hist, 0, len(gr.z))
+	tree := boostTree{nodes: []boostNode{{}}}
+	root.split = gr.bestSplit(&root)
+
+	leaves := []boostLeaf{root}
+	for len(leaves) < gr.cfg.maxLeaves {
+		best := -1
+		for i := range leaves {
+			if leaves[i].split.gain > 0 && (best < 0 || leaves[i].split.gain > leaves[best].split.gain) {
+				best = i
+			}
+		}
+		if best < 0 {
+			break
+		}
+		left, right := gr.split(&tree, &leaves[best])
+		leaves[best] = left
+		leaves = append(leaves, right)
+	}
+	for i := range leaves {
+		lf := &leaves[i]
+		gr.release(lf)
+		v := -gr.cfg.rate * lf.g / (lf.h + gr.cfg.l2)
+		tree.nodes[lf.node] = boostNode{thr: math.Inf(1), left: lf.node, bin: math.MaxUint8, value: v}
+		tree.depth = max(tree.depth, lf.depth)
+		for i := range gr.z[lf.start:lf.end] {
+			gr.z[lf.start+i] += v
+		}
+	}
+	return tree
+}
+
+// split applies parent's best split: it partitions the parent's rows,
+// builds the smaller child's histogram, derives the larger one's by
+// subtraction and finds both children's best splits.
+func (gr *boostGrower) split(tree *boostTree, parent *boostLeaf) (left, right boostLeaf) {
+	s := parent.split
+	lid := int32(len(tree.nodes))
+	tree.nodes[parent.node] = boostNode{
+		thr: gr.binning.edges[s.feat][s.bin], feat: int32(s.feat), left: lid, bin: uint8(s.bin),
+	}
+	tree.nodes = append(tree.nodes, boostNode{}, boostNode{})
+
+	mid := gr.partition(parent.start, parent.end, s.feat, uint8(s.bin))
+	depth := parent.depth + 1
+	left = boostLeaf{node: lid, start: parent.start, end: mid, g: s.gl, h: s.hl, depth: depth}
+	right = boostLeaf{node: lid + 1, start: mid, end: parent.end, g: parent.g - s.gl, h: parent.h - s.hl, depth: depth}
+
+	small, large := &left, &right
+	if right.end-right.start < left.end-left.start {
+		small, large = large, small
+	}
+	small.hist = gr.newHist()
+	gr.buildHist(small.hist, small.start, small.end)
+	large.hist = parent.hist
+	parent.hist = nil
+	for i := range large.hist {
+		large.hist[i].g -= small.hist[i].g
+		large.hist[i].h -= small.hist[i].h
+		large.hist[i].n -= small.hist[i].n
+	}
+	for _, c := range []*boostLeaf{&left, &right} {
+		c.split = gr.bestSplit(c)
+		if c.split.gain <= 0 {
+			gr.release(c)
+		}
+	}
+	return left, right
+}
+
+// partition reorders positions start … end−1 stably so that rows whose bin of
+// feature f is ≤ t come first, and returns the first position of the others.
+// Left rows are compacted in place (the write position never passes the
+// read position) and right rows are staged in the tmp arrays; the loop is
+// branch-free.
+func (gr *boostGrower) partition(start, end, f int, t uint8) int {
+	W := gr.words
+	word, shift := f>>3, uint(8*(f&7))
+	nl, nr := start, 0
+	gh, z, sw := gr.gh, gr.z, gr.sw
+	tgh, tz, tsw := gr.tmpGH, gr.tmpZ, gr.tmpSW
+	if W == 1 {
+		bins, tb := gr.bins, gr.tmpBins
+		for i := start; i < end; i++ {
+			b, v, zi, si := bins[i], gh[i], z[i], sw[i]
+			bins[nl], gh[nl], z[nl], sw[nl] = b, v, zi, si
+			tb[nr], tgh[nr], tz[nr], tsw[nr] = b, v, zi, si
+			c := 0
+			if uint8(b>>shift) <= t {
+				c = 1
+			}
+			nl += c
+			nr += 1 - c
+		}
+		copy(bins[nl:end], tb[:nr])
+	} else {
+		for i := start; i < end; i++ {
+			v, zi, si := gh[i], z[i], sw[i]
+			copy(gr.tmpBins[nr*W:nr*W+W], gr.bins[i*W:i*W+W])
+			copy(gr.bins[nl*W:nl*W+W], gr.tmpBins[nr*W:nr*W+W])
+			gh[nl], z[nl], sw[nl] = v, zi, si
+			tgh[nr], tz[nr], tsw[nr] = v, zi, si
+			c := 0
+			if uint8(gr.tmpBins[nr*W+word]>>shift) <= t {
+				c = 1
+			}
+			nl += c
+			nr += 1 - c
+		}
+		copy(gr.bins[nl*W:end*W], gr.tmpBins[:nr*W])
+	}
+	copy(gh[nl:end], tgh[:nr])
+	copy(z[nl:end], tz[:nr])
+	copy(sw[nl:end], tsw[:nr])
+	return nl
+}
+
+// bestSplit scans every feature's histogram for the split with the largest
+// positive gain that leaves at least minRows rows and minHessian hessian on
+// each side. Ties keep the lowest feature, then the lowest bin. A zero gain
+// means the node stays a leaf.
+func (gr *boostGrower) bestSplit(lf *boostLeaf) boostSplit {
+	var best boostSplit
+	cfg := gr.cfg
+	n := lf.end - lf.start
+	if lf.depth >= cfg.maxDepth || n < 2*cfg.minRows {
+		return best
+	}
+	l2 := cfg.l2
+	parentScore := lf.g * lf.g / (lf.h + l2)
+	offs := gr.binning.offsets
+	for f := range gr.p {
+		hist := lf.hist[offs[f]:offs[f+1]]
+		var gl, hl float64
+		nl := 0
+		for b := 0; b < len(hist)-1; b++ {
+			gl += hist[b].g
+			hl += hist[b].h
+			nl += hist[b].n
+			if nl < cfg.minRows || hl < cfg.minHessian {
+				continue
+			}
+			if n-nl < cfg.minRows {
+				break
+			}
+			gr, hr := lf.g-gl, lf.h-hl
+			if hr < cfg.minHessian {
+				break
+			}
+			gain := gl*gl/(hl+l2) + gr*gr/(hr+l2) - parentScore
+			if gain > best.gain {
+				best = boostSplit{gain: gain, feat: f, bin: b, gl: gl, hl: hl, nl: nl}
+			}
+		}
+	}
+	return best
+}
+
+// buildHist fills dst with the histogram of positions start … end−1. Large
+// ranges are cut into fixed chunks of boostHistChunk rows built in parallel
+// and summed in chunk order.
+func (gr *boostGrower) buildHist(dst []boostBin, start, end int) {
+	chunks := (end - start + boostHistChunk - 1) / boostHistChunk
+	if chunks <= 1 {
+		clear(dst)
+		gr.accumulate(dst, start, end)
+		return
+	}
+	parts := make([][]boostBin, chunks)
+	parts[0] = dst
+	for k := 1; k < chunks; k++ {
+		parts[k] = gr.newHist()
+	}
+	boostParallel(chunks, func(k int) {
+		clear(parts[k])
+		lo := start + k*boostHistChunk
+		gr.accumulate(parts[k], lo, min(end, lo+boostHistChunk))
+	})
+	for k := 1; k < chunks; k++ {
+		for i, b := range parts[k] {
+			dst[i].g += b.g
+			dst[i].h += b.h
+			dst[i].n += b.n
+		}
+		gr.free = append(gr.free, parts[k])
+	}
+}
+
+// accumulate adds the gradients, hessians and counts of positions
+// start … end−1 to dst.
+func (gr *boostGrower) accumulate(dst []boostBin, start, end int) {
+	p, W := gr.p, gr.words
+	offs := gr.binning.offsets[:p]
+	gh := gr.gh[start:end]
+	if W == 1 {
+		bins := gr.bins[start:end]
+		for i, v := range gh {
+			word := bins[i]
+			for _, o := range offs {
+				e := &dst[o+int(word&0xff)]
+				e.g += v.g
+				e.h += v.h
+				e.n++
+				word >>= 8
+			}
+		}
+		return
+	}
+	bins := gr.bins[start*W : end*W]
+	for i, v := range gh {
+		row := bins[i*W : i*W+W]
+		for f, o := range offs {
+			e := &dst[o+int(boostBinAt(row, f))]
+			e.g += v.g
+			e.h += v.h
+			e.n++
+		}
+	}
+}
+
+func (gr *boostGrower) newHist() []boostBin {
+	if k := len(gr.free); k > 0 {
+		h := gr.free[k-1]
+		gr.free = gr.free[:k-1]
+		return h
+	}
+	return make([]boostBin, gr.binning.offsets[gr.p])
+}
+
+func (gr *boostGrower) release(lf *boostLeaf) {
+	if lf.hist != nil {
+		gr.free = append(gr.free, lf.hist)
+		lf.hist = nil
+	}
+}
+
+// addBinned adds the tree's output for packed binned rows to raw.
+func (t *boostTree) addBinned(bins []uint64, words int, raw []float64) {
+	nodes := t.nodes
+	for i := range raw {
+		row := bins[i*words : i*words+words]
+		k := int32(0)
+		for range t.depth {
+			nd := &nodes[k]
+			k = nd.left
+			if boostBinAt(row, int(nd.feat)) > nd.bin {
+				k++
+			}
+		}
+		raw[i] += nodes[k].value
+	}
+}
