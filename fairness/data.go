@@ -67,7 +67,9 @@ func LoadData(spec *Spec) (*Dataset, error) {
 //
 // Cells are trimmed of surrounding blanks. A cell that is empty, "NA" or
 // "NaN" (any case) is missing: with spec.Missing = "error" it is an error,
-// with "drop" the row is dropped and counted per group. The label accepts
+// with "drop" the row is dropped and counted per group (a row whose group
+// value is missing belongs to neither group and is skipped uncounted). The
+// label accepts
 // 0, 1, true and false (any case); the score must be a number in [0, 1];
 // other graph columns must be finite numbers unless listed as categorical,
 // in which case their levels are sorted and coded 0, 1, ... in that order.
