@@ -108,26 +108,24 @@ func featureValue(f int, label, score float64) float64 {
 	return 1
 }
 
-// fill writes per-cell sums into st: sums[slot][fi] is feature p.feats[fi]
-// of cell p.cells[slot]. Cells and features not in the plan are zero.
-func (p *metricPlan) fill(st *metrics.Stats, sums func(slot, fi int) float64) {
-	clear(st.W)
-	clear(st.WS)
-	clear(st.WS2)
-	clear(st.WL)
-	for s, c := range p.cells {
-		for fi, f := range p.feats {
-			x := sums(s, fi)
+// targets returns, for every needed (cell slot, feature) pair in the order
+// slot·len(p.feats) + fi, a pointer to the matching entry of st. Writing
+// through them fills st; entries outside the plan stay zero.
+func (p *metricPlan) targets(st *metrics.Stats) []*float64 {
+	t := make([]*float64, 0, len(p.cells)*len(p.feats))
+	for _, c := range p.cells {
+		for _, f := range p.feats {
 			switch f {
 			case featW:
-				st.W[c] = x
+				t = append(t, &st.W[c])
 			case featWS:
-				st.WS[c] = x
+				t = append(t, &st.WS[c])
 			case featWS2:
-				st.WS2[c] = x
+				t = append(t, &st.WS2[c])
 			case featWL:
-				st.WL[c] = x
+				t = append(t, &st.WL[c])
 			}
 		}
 	}
+	return t
 }

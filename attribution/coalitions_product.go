@@ -254,16 +254,24 @@ func (e *productEngine) evaluate(acc [][][]float64, a0, a1 int, values [][]float
 	p := &e.in.plan
 	w := e.in.workers
 	stats := make([]*metrics.Stats, w)
+	targets := make([][]*float64, w)
 	for i := range stats {
 		stats[i] = metrics.NewStats(p.bins)
+		targets[i] = p.targets(stats[i])
+	}
+	var flat [][]float64 // flat[slot·nf + fi], the order of targets
+	for _, a := range acc {
+		flat = append(flat, a...)
 	}
 	errs := make([]error, a1-a0)
 	nBPad := e.nBPad()
 	parallelFor(w, a1-a0, func(worker, ra int) {
-		st := stats[worker]
+		st, tg := stats[worker], targets[worker]
 		for sb := 0; sb < e.nB; sb++ {
 			idx := ra*nBPad + sb
-			p.fill(st, func(slot, fi int) float64 { return acc[slot][fi][idx] })
+			for t, dst := range tg {
+				*dst = flat[t][idx]
+			}
 			S := (a0+ra)*e.nB + sb
 			for _, m := range p.stat {
 				v, err := st.Value(p.names[m])

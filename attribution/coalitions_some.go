@@ -130,6 +130,7 @@ func (ev *chainEvaluator) walk(chainCoalitions []uint64, values [][]float64, off
 		w[r] = math.Exp(x - top)
 	}
 	st := metrics.NewStats(p.bins)
+	tg := p.targets(st)
 	sums := make([]float64, len(p.cells)*len(p.feats))
 	nf := len(p.feats)
 	prev := first
@@ -165,7 +166,9 @@ func (ev *chainEvaluator) walk(chainCoalitions []uint64, values [][]float64, off
 				sums[s*nf+fi] += x
 			}
 		}
-		p.fill(st, func(slot, fi int) float64 { return sums[slot*nf+fi] })
+		for t, dst := range tg {
+			*dst = sums[t]
+		}
 		for _, m := range p.stat {
 			v, err := st.Value(p.names[m])
 			if err != nil {

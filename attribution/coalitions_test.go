@@ -235,3 +235,34 @@ func TestEvaluateCoalitionsPanicsOnLengthMismatch(t *testing.T) {
 	}()
 	EvaluateCoalitions([]float64{0, 1}, []float64{0.1, 0.9}, 0.5, [][]float64{{0}}, []string{metrics.NameFPR}, EngineOptions{})
 }
+
+// TestEvaluateCoalitionsLargeK checks random coalitions of an 18-mechanism
+// game (many tiles, several passes) against the brute-force definition.
+func TestEvaluateCoalitionsLargeK(t *testing.T) {
+	if testing.Short() {
+		t.Skip("2^18 coalitions")
+	}
+	old := passByteLimit
+	passByteLimit = 2 << 20
+	defer func() { passByteLimit = old }()
+	k := 18
+	labels, scores, logr := randomReference(20, 600, k, 0.4)
+	names := []string{metrics.NameFNR, metrics.NameBrier, metrics.NameECE}
+	g, err := EvaluateCoalitions(labels, scores, 0.5, logr, names, EngineOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(1, 20))
+	for c := 0; c < 150; c++ {
+		S := uint64(rng.IntN(1 << k))
+		if c == 0 {
+			S = 1<<k - 1
+		}
+		for m, name := range names {
+			want := bruteForce(t, labels, scores, 0.5, logr, name, S, metrics.DefaultECEBins)
+			if got := g.Values[m][S]; !relClose(got, want, 1e-9) {
+				t.Errorf("%s S=%b: got %.15g, brute force %.15g", name, S, got, want)
+			}
+		}
+	}
+}
