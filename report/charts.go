@@ -28,6 +28,7 @@ const (
 	colourInk        = "#22252B"
 	colourMuted      = "#6B6F76"
 	colourRule       = "#D9D4C7"
+	chartFont        = `"Segoe UI", system-ui, -apple-system, "Helvetica Neue", Arial, sans-serif`
 )
 
 // chartOption is one chart's ECharts option, ready to encode.
@@ -57,7 +58,9 @@ func optionOf(c interface {
 	delete(o, "title")
 	o["color"] = []string{colourReference, colourComparison, colourDown, colourUp, colourResidual}
 	o["animation"] = false // charts must be final when printed or captured
-	o["textStyle"] = map[string]any{"fontFamily": "inherit", "color": colourInk}
+	// A concrete font list, not "inherit": ECharts measures text on a canvas
+	// with this font, and an unknown family would skew label widths.
+	o["textStyle"] = map[string]any{"fontFamily": chartFont, "color": colourInk}
 	return o
 }
 

@@ -129,6 +129,11 @@
     });
     document.body.setAttribute("data-charts-expected", String(expected));
     var menu = document.getElementById("gw-metric");
+    // A link may choose the metric: report.html#metric=fpr.
+    var wanted = /metric=([A-Za-z0-9_]+)/.exec(window.location.hash);
+    if (menu && wanted && data.walk[wanted[1]]) {
+      menu.value = wanted[1];
+    }
     if (menu) {
       menu.addEventListener("change", function () { selectMetric(menu.value); });
       selectMetric(menu.value);
