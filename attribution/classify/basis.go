@@ -1,0 +1,314 @@
+package classify
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"gonum.org/v1/gonum/mat"
+)
+
+// Term is one column of a logistic design, built from the standardised raw
+// columns z_I, z_J of the feature matrix:
+//
+//	J < 0:   z_I        (the original column)
+//	J == I:  z_I²       (its square)
+//	J > I:   z_I · z_J  (a pairwise product)
+//
+// Every term is then standardised again on the training rows (see Expanded).
+type Term struct{ I, J int }
+
+// String renders the term with raw column indices, e.g. "x3", "x3^2", "x3*x5".
+func (t Term) String() string {
+	switch {
+	case t.J < 0:
+		return fmt.Sprintf("x%d", t.I)
+	case t.J == t.I:
+		return fmt.Sprintf("x%d^2", t.I)
+	default:
+		return fmt.Sprintf("x%d*x%d", t.I, t.J)
+	}
+}
+
+// columnScale is the weighted location and scale of one column:
+//
+//	mean = Σ w_i x_i / Σ w_i,   sd = sqrt(Σ w_i (x_i − mean)² / Σ w_i)
+//
+// (population variance, no degrees-of-freedom correction). A column whose
+// values are all equal over the rows with w_i > 0 is constant; it carries no
+// information and is left out of the design.
+type columnScale struct {
+	mean, sd float64
+	constant bool
+	binary   bool // two distinct values over the rows with w_i > 0
+}
+
+// scaleColumn computes the columnScale of the n values v[i*stride], i < n,
+// with optional weights w (nil means all 1) whose sum sw is positive. The
+// binary flag is computed only if checkBinary is set.
+func scaleColumn(v []float64, stride, n int, w []float64, sw float64, checkBinary bool) columnScale {
+	var s columnScale
+	first := true
+	lo, hi := 0.0, 0.0
+	for i := 0; i < n; i++ {
+		wi := 1.0
+		if w != nil {
+			if wi = w[i]; wi == 0 {
+				continue
+			}
+		}
+		x := v[i*stride]
+		if first || x < lo {
+			lo = x
+		}
+		if first || x > hi {
+			hi = x
+		}
+		first = false
+		s.mean += wi * x
+	}
+	s.mean /= sw
+	if lo == hi {
+		s.constant = true
+		s.mean, s.sd = lo, 1
+		return s
+	}
+	var ss float64
+	for i := 0; i < n; i++ {
+		d := v[i*stride] - s.mean
+		if w == nil {
+			ss += d * d
+		} else {
+			ss += w[i] * d * d
+		}
+	}
+	s.sd = math.Sqrt(ss / sw)
+	if !checkBinary {
+		return s
+	}
+	// Binary means two distinct values over the rows with positive weight:
+	// the square of such a column is there an affine function of the column
+	// itself and would duplicate it.
+	s.binary = true
+	for i := 0; i < n; i++ {
+		if w != nil && w[i] == 0 {
+			continue
+		}
+		if x := v[i*stride]; x != lo && x != hi {
+			s.binary = false
+			break
+		}
+	}
+	return s
+}
+
+// design is a term-major design matrix: column k occupies
+// cols[k*n : (k+1)*n]. Column 0 is the intercept (all ones).
+type design struct {
+	n, d int
+	cols []float64
+}
+
+func (z *design) col(k int) []float64 { return z.cols[k*z.n : (k+1)*z.n] }
+
+// basis maps raw feature rows to the standardised design of a fitted model.
+//
+// Raw column c (for c in raw) becomes z_c = (x_c − raw[c].mean)/raw[c].sd.
+// Each term t is built from those and, when termScale is non-nil,
+// standardised again: (t − termScale[k].mean)/termScale[k].sd.
+type basis struct {
+	p         int           // raw column count the model expects
+	raw       []columnScale // per raw column
+	terms     []Term
+	termScale []columnScale // nil for the linear basis
+}
+
+// standardiseRaw checks x, w and computes the per-column scales.
+// It returns the indices of the non-constant columns.
+func standardiseRaw(x *mat.Dense, w []float64, sw float64) ([]columnScale, []int) {
+	n, p := x.Dims()
+	raw := x.RawMatrix()
+	scales := make([]columnScale, p)
+	var active []int
+	for c := 0; c < p; c++ {
+		scales[c] = scaleColumn(raw.Data[c:], raw.Stride, n, w, sw, true)
+		if !scales[c].constant {
+			active = append(active, c)
+		}
+	}
+	return scales, active
+}
+
+// interactionSet returns the raw columns whose squares and pairwise
+// products enter the expanded basis: all active columns when there are at
+// most k of them, otherwise the k with the largest |Σ_i w_i z_ic y_i|
+// (which, as z_c has weighted mean 0 and sd 1, ranks the weighted
+// correlation of z_c with y), ties broken by lower column index, returned
+// in ascending column order.
+func interactionSet(z *design, active []int, y, w []float64, k int) []int {
+	if len(active) <= k {
+		return active
+	}
+	score := make([]float64, len(active))
+	for a := range active {
+		col := z.col(1 + a)
+		var s float64
+		for i, v := range col {
+			wi := 1.0
+			if w != nil {
+				wi = w[i]
+			}
+			s += wi * v * y[i]
+		}
+		score[a] = math.Abs(s)
+	}
+	order := make([]int, len(active))
+	for a := range order {
+		order[a] = a
+	}
+	sort.SliceStable(order, func(i, j int) bool { return score[order[i]] > score[order[j]] })
+	keep := order[:k]
+	sort.Ints(keep)
+	out := make([]int, k)
+	for i, a := range keep {
+		out[i] = active[a]
+	}
+	return out
+}
+
+// linearDesign builds the intercept and the standardised active columns.
+func linearDesign(x *mat.Dense, raw []columnScale, active []int) *design {
+	n, _ := x.Dims()
+	rm := x.RawMatrix()
+	z := &design{n: n, d: 1 + len(active), cols: make([]float64, (1+len(active))*n)}
+	ones := z.col(0)
+	for i := range ones {
+		ones[i] = 1
+	}
+	for a, c := range active {
+		col := z.col(1 + a)
+		m, s := raw[c].mean, raw[c].sd
+		for i := range col {
+			col[i] = (rm.Data[i*rm.Stride+c] - m) / s
+		}
+	}
+	return z
+}
+
+// expandTerms lists the expanded terms in design order: originals of the
+// active columns, then squares of the non-binary columns of the interaction
+// set, then products z_I·z_J (I < J) within the interaction set in
+// lexicographic order.
+func expandTerms(raw []columnScale, active, inter []int) []Term {
+	terms := make([]Term, 0, len(active)+len(inter)*(len(inter)+1)/2)
+	for _, c := range active {
+		terms = append(terms, Term{c, -1})
+	}
+	for _, c := range inter {
+		if !raw[c].binary {
+			terms = append(terms, Term{c, c})
+		}
+	}
+	for a, c := range inter {
+		for _, e := range inter[a+1:] {
+			terms = append(terms, Term{c, e})
+		}
+	}
+	return terms
+}
+
+// allFourCells reports whether the two-valued columns a and b take all four
+// value combinations over the rows with positive weight. If they do not, the
+// product a·b coincides on those rows with an affine function of a and b
+// (at most three points of a 2×2 grid, which an affine function can
+// interpolate), so the product term would only duplicate the originals;
+// e.g. two one-hot codes of one variable never both equal 1.
+func allFourCells(a, b, w []float64) bool {
+	var cells [4][2]float64
+	k := 0
+	for i := range a {
+		if w != nil && w[i] == 0 {
+			continue
+		}
+		seen := false
+		for _, c := range cells[:k] {
+			if c[0] == a[i] && c[1] == b[i] {
+				seen = true
+				break
+			}
+		}
+		if !seen {
+			cells[k] = [2]float64{a[i], b[i]}
+			if k++; k == 4 {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// expandDesign turns the linear design lin (intercept + active columns, in
+// the order of active) into the design of terms, re-standardising each term
+// on the training weights. Products of two binary columns that do not take
+// all four value combinations, and terms constant on the weighted rows, are
+// dropped; the kept terms and their scales are returned with the design.
+func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w []float64, sw float64) (*design, []Term, []columnScale) {
+	binary := func(c int) bool { return raw[c].binary }
+	n := lin.n
+	pos := make(map[int]int, len(active)) // raw column → design column
+	for a, c := range active {
+		pos[c] = 1 + a
+	}
+	z := &design{n: n, cols: make([]float64, 0, (1+len(terms))*n)}
+	z.cols = append(z.cols, lin.col(0)...)
+	var kept []Term
+	var scales []columnScale
+	for _, t := range terms {
+		a := lin.col(pos[t.I])
+		if t.J > t.I && binary(t.I) && binary(t.J) && !allFourCells(a, lin.col(pos[t.J]), w) {
+			continue
+		}
+		// Build the term in place at the end of the design; drop it by
+		// truncating again.
+		z.cols = z.cols[:len(z.cols)+n]
+		buf := z.cols[len(z.cols)-n:]
+		if t.J < 0 {
+			copy(buf, a)
+		} else {
+			b := lin.col(pos[t.J])
+			for i := range buf {
+				buf[i] = a[i] * b[i]
+			}
+		}
+		s := scaleColumn(buf, 1, n, w, sw, false)
+		if s.constant {
+			z.cols = z.cols[:len(z.cols)-n]
+			continue
+		}
+		for i, v := range buf {
+			buf[i] = (v - s.mean) / s.sd
+		}
+		kept = append(kept, t)
+		scales = append(scales, s)
+	}
+	z.d = 1 + len(kept)
+	return z, kept, scales
+}
+
+// rowTerms evaluates the design row (without the intercept) for the raw
+// row x into dst, using zbuf (length p) as scratch for standardised values.
+func (b *basis) rowTerms(x, zbuf, dst []float64) {
+	for c, s := range b.raw {
+		zbuf[c] = (x[c] - s.mean) / s.sd
+	}
+	for k, t := range b.terms {
+		v := zbuf[t.I]
+		if t.J >= 0 {
+			v *= zbuf[t.J]
+		}
+		if b.termScale != nil {
+			v = (v - b.termScale[k].mean) / b.termScale[k].sd
+		}
+		dst[k] = v
+	}
+}
