@@ -8,6 +8,7 @@ import (
 	"html/template"
 	"io"
 	"math"
+	"path/filepath"
 	"sort"
 	"strings"
 
@@ -149,7 +150,7 @@ func newPage(res *fairness.Result) (*page, error) {
 	p := &page{
 		Res:         res,
 		Title:       fmt.Sprintf("Gap audit: %s for %s vs %s", res.Score, res.Groups.Comparison, res.Groups.Reference),
-		Cohort:      res.Inputs.DataFile,
+		Cohort:      filepath.Base(res.Inputs.DataFile), // the footer has the full path
 		Threshold:   formatThreshold(res.Threshold),
 		Assumptions: res.Assumptions,
 		EChartsJS:   template.JS(echartsJS),
@@ -158,7 +159,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		LowESSShare: fmt.Sprintf("%.0f%%", 100*LowESSShare),
 		DrillNodes:  drillNodes,
 	}
-	if p.Cohort == "" {
+	if res.Inputs.DataFile == "" {
 		p.Cohort = "the audited records"
 	}
 	for _, s := range []string{echartsJS, reportJS} {
