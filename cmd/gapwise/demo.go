@@ -63,6 +63,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err := checkOutDir(o.out, o.force); err != nil {
 		return err
 	}
+	progress(stderr, "gapwise: generating %d synthetic records ...\n", o.rows)
 	var csv bytes.Buffer
 	recs := synth.DefaultScenario().Generate(o.rows, o.seed)
 	if err := synth.AnaemiaTable(recs).WriteCSV(&csv); err != nil {
@@ -77,6 +78,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	progress(stderr, "gapwise: estimating %d mechanisms for %d metrics ...\n", len(spec.Graph), len(spec.Metrics))
 	res, err := fairness.Run(spec, fairness.RunOptions{Workers: o.workers, Version: version})
 	if err != nil {
 		return err
