@@ -117,35 +117,91 @@ func observe(metricNames []string, g groupSplit, opt Options) ([]MetricDecomposi
 	return out, nil
 }
 
-// splitGaps evaluates the game of every metric over all coalitions from the
-// reference records and their log-ratios, and fills the Shapley values.
+// splitGaps evaluates the game of every metric from the reference records
+// and their log-ratios, and fills the Shapley values: exactly over all
+// coalitions when k ≤ opt.ExactLimit, otherwise by antithetic permutation
+// sampling (SampledShapleyGames) with Monte Carlo standard errors.
 func splitGaps(mds []MetricDecomposition, refY, refS []float64, logr [][]float64, opt Options) error {
 	names := make([]string, len(mds))
 	for m := range mds {
 		names[m] = mds[m].Metric
 	}
 	k := len(logr)
-	games, err := EvaluateCoalitions(refY, refS, opt.Threshold, logr, names, EngineOptions{Workers: opt.Workers, ECEBins: opt.ECEBins})
+	limit := opt.ExactLimit
+	if limit == 0 {
+		limit = DefaultExactLimit
+	}
+	eopt := EngineOptions{Workers: opt.Workers, ECEBins: opt.ECEBins}
+	if k > limit {
+		return splitGapsSampled(mds, names, refY, refS, logr, opt, eopt)
+	}
+	games, err := EvaluateCoalitions(refY, refS, opt.Threshold, logr, names, eopt)
 	if err != nil {
 		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
 	}
 	full := uint64(1)<<k - 1
 	for m := range mds {
-		md := &mds[m]
 		vals := games.Values[m]
 		v := make([]float64, len(vals))
 		for S := range vals {
 			v[S] = vals[S] - vals[0]
 		}
-		md.Contributions = ExactShapley(v, k)
-		md.Estimated = v[full]
-		md.Residual = md.Gap - md.Estimated
-		md.Alone = make([]float64, k)
-		md.IfEqualised = make([]float64, k)
-		for i := 0; i < k; i++ {
-			md.Alone[i] = v[uint64(1)<<i]
-			md.IfEqualised[i] = v[full&^(uint64(1)<<i)]
+		fillSummary(&mds[m], ExactShapley(v, k), func(S uint64) float64 { return v[S] }, k, full)
+	}
+	return nil
+}
+
+// fillSummary sets the contributions and the what-if values of one metric
+// from φ and the game v (v(∅) = 0).
+func fillSummary(md *MetricDecomposition, phi []float64, v func(uint64) float64, k int, full uint64) {
+	md.Contributions = phi
+	md.Estimated = v(full)
+	md.Residual = md.Gap - md.Estimated
+	md.Alone = make([]float64, k)
+	md.IfEqualised = make([]float64, k)
+	for i := 0; i < k; i++ {
+		md.Alone[i] = v(uint64(1) << i)
+		md.IfEqualised[i] = v(full &^ (uint64(1) << i))
+	}
+}
+
+// splitGapsSampled is splitGaps for many mechanisms. The Shapley values of
+// S ↦ M(P_S) and of v(S) = M(P_S) − M(P_∅) coincide, so the sampler works
+// on M directly; ∅, N, {i} and N∖{i} are evaluated exactly for the summary.
+func splitGapsSampled(mds []MetricDecomposition, names []string, refY, refS []float64, logr [][]float64, opt Options, eopt EngineOptions) error {
+	k := len(logr)
+	value := func(cs []uint64, dst [][]float64) error {
+		v, err := EvaluateSome(refY, refS, opt.Threshold, logr, names, cs, eopt)
+		if err != nil {
+			return err
 		}
+		for m := range dst {
+			copy(dst[m], v[m])
+		}
+		return nil
+	}
+	sopt := opt.Sampling
+	sopt.Seed = opt.Seed
+	phi, se, err := SampledShapleyGames(k, len(names), value, sopt)
+	if err != nil {
+		return fmt.Errorf("attribution: sampling Shapley values: %w", err)
+	}
+	full := uint64(1)<<k - 1
+	special := []uint64{0, full}
+	for i := 0; i < k; i++ {
+		special = append(special, uint64(1)<<i, full&^(uint64(1)<<i))
+	}
+	vals, err := EvaluateSome(refY, refS, opt.Threshold, logr, names, special, eopt)
+	if err != nil {
+		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
+	}
+	for m := range mds {
+		at := map[uint64]float64{}
+		for j, S := range special {
+			at[S] = vals[m][j] - vals[m][0]
+		}
+		fillSummary(&mds[m], phi[m], func(S uint64) float64 { return at[S] }, k, full)
+		mds[m].StdErrors = se[m]
 	}
 	return nil
 }

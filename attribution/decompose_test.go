@@ -71,3 +71,37 @@ func TestDecomposeNullMechanism(t *testing.T) {
 		}
 	}
 }
+
+// With two players, one antithetic pair of orders visits both orders, so the
+// sampled Shapley values equal the exact ones (Castro, Gómez & Tejada 2009:
+// the estimator averages marginal contributions over the sampled orders).
+func TestDecomposeSampledMatchesExactForTwoMechanisms(t *testing.T) {
+	s, mechs := twoNodeSample(3000, 0.5, 2)
+	opt := attribution.Options{Threshold: 0.5, Seed: 3, Learners: []classify.Learner{classify.NewLinear()}}
+	exact, err := attribution.Decompose(s, mechs, []string{"fpr", "ece"}, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	opt.ExactLimit = 1
+	sampled, err := attribution.Decompose(s, mechs, []string{"fpr", "ece"}, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for m := range exact.Metrics {
+		e, g := exact.Metrics[m], sampled.Metrics[m]
+		if g.StdErrors == nil || e.StdErrors != nil {
+			t.Fatalf("%s: std errors exact=%v sampled=%v", e.Metric, e.StdErrors, g.StdErrors)
+		}
+		for i := range e.Contributions {
+			if math.Abs(e.Contributions[i]-g.Contributions[i]) > 1e-12 {
+				t.Errorf("%s φ_%d: exact %v sampled %v", e.Metric, i, e.Contributions[i], g.Contributions[i])
+			}
+			if e.Alone[i] != g.Alone[i] && math.Abs(e.Alone[i]-g.Alone[i]) > 1e-12 {
+				t.Errorf("%s alone_%d: exact %v sampled %v", e.Metric, i, e.Alone[i], g.Alone[i])
+			}
+		}
+		if math.Abs(e.Residual-g.Residual) > 1e-12 {
+			t.Errorf("%s residual: exact %v sampled %v", e.Metric, e.Residual, g.Residual)
+		}
+	}
+}

@@ -10,7 +10,18 @@ type Options struct {
 	Learners  []classify.Learner // candidates, chosen per mechanism by out-of-fold log loss
 	ECEBins   int                // bins for ECE; 0 means metrics.DefaultECEBins
 	Workers   int                // goroutines; 0 means GOMAXPROCS
+
+	// ExactLimit is the largest number of mechanisms for which Shapley
+	// values are computed exactly over all 2^k coalitions; above it they
+	// are estimated by permutation sampling. 0 means DefaultExactLimit.
+	ExactLimit int
+	// Sampling tunes the permutation sampling used above ExactLimit; its
+	// Seed is ignored (Options.Seed is used).
+	Sampling SamplingOptions
 }
+
+// DefaultExactLimit is the default Options.ExactLimit.
+const DefaultExactLimit = 16
 
 // Decomposition is the result of Decompose.
 type Decomposition struct {
@@ -30,6 +41,9 @@ type MetricDecomposition struct {
 	Contributions []float64 // Shapley values φ_i
 	Alone         []float64 // v({i})
 	IfEqualised   []float64 // v(N∖{i})
+	// StdErrors are the Monte Carlo standard errors of Contributions when
+	// they were estimated by permutation sampling; nil when exact.
+	StdErrors []float64
 
 	// Percentile bootstrap intervals, set by Bootstrap; nil otherwise.
 	ReferenceCI     *Interval
