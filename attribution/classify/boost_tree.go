@@ -4,8 +4,11 @@ import "math"
 
 // boostGH is one training row's gradient and hessian of the weighted
 // logistic loss ℓ = w·[log(1+e^z) − y·z] at the current log-odds z:
-// g = ∂ℓ/∂z = w·(σ(z) − y), h = ∂²ℓ/∂z² = w·σ(z)·(1 − σ(z)).
-type boostGH struct{ g, h float64 }
+// g = ∂ℓ/∂z = w·(σ(z) − y), h = ∂²ℓ/∂z² = w·σ(z)·(1 − σ(z)). They are
+// stored in single precision (relative rounding 6e-8, far below the
+// sampling noise of any split) to halve the bytes moved per row; all sums
+// are accumulated in double precision.
+type boostGH struct{ g, h float32 }
 
 // boostBin accumulates the gradient, hessian and row count of the rows of a
 // tree node that fall into one bin of one feature.
@@ -61,6 +64,7 @@ type boostLeaf struct {
 	depth      int
 	hist       []boostBin // nil once released
 	split      boostSplit // valid when split.gain > 0
+	applied    bool       // leaf value already added to z (rows not partitioned)
 }
 
 // boostGrower grows regression trees on binned training rows by best-first
@@ -130,7 +134,7 @@ func (gr *boostGrower) gradients() {
 		for i, zi := range z {
 			s := 1 / (1 + math.Exp(-zi))
 			w := math.Abs(sw[i])
-			gh[i] = boostGH{g: w*s - math.Max(sw[i], 0), h: w * s * (1 - s)}
+			gh[i] = boostGH{g: float32(w*s - math.Max(sw[i], 0)), h: float32(w * s * (1 - s))}
 		}
 	})
 }
@@ -141,8 +145,8 @@ func (gr *boostGrower) grow() boostTree {
 	gr.gradients()
 	var g, h float64
 	for _, v := range gr.gh {
-		g += v.g
-		h += v.h
+		g += float64(v.g)
+		h += float64(v.h)
 	}
 	root := boostLeaf{node: 0, start: 0, end: len(gr.z), g: g, h: h, hist: gr.newHist()}
 	gr.buildHist(root.hist, 0, len(gr.z))
@@ -160,16 +164,20 @@ func (gr *boostGrower) grow() boostTree {
 		if best < 0 {
 			break
 		}
-		left, right := gr.split(&tree, &leaves[best])
+		final := len(leaves)+1 == gr.cfg.maxLeaves
+		left, right := gr.split(&tree, &leaves[best], final)
 		leaves[best] = left
 		leaves = append(leaves, right)
 	}
 	for i := range leaves {
 		lf := &leaves[i]
 		gr.release(lf)
-		v := -gr.cfg.rate * lf.g / (lf.h + gr.cfg.l2)
+		v := gr.leafValue(lf.g, lf.h)
 		tree.nodes[lf.node] = boostNode{thr: math.Inf(1), left: lf.node, bin: math.MaxUint8, value: v}
 		tree.depth = max(tree.depth, lf.depth)
+		if lf.applied {
+			continue
+		}
 		for i := range gr.z[lf.start:lf.end] {
 			gr.z[lf.start+i] += v
 		}
@@ -177,10 +185,19 @@ func (gr *boostGrower) grow() boostTree {
 	return tree
 }
 
+// leafValue is −rate·G/(H+λ).
+func (gr *boostGrower) leafValue(g, h float64) float64 {
+	return -gr.cfg.rate * g / (h + gr.cfg.l2)
+}
+
 // split applies parent's best split: it partitions the parent's rows,
 // builds the smaller child's histogram, derives the larger one's by
-// subtraction and finds both children's best splits.
-func (gr *boostGrower) split(tree *boostTree, parent *boostLeaf) (left, right boostLeaf) {
+// subtraction and finds both children's best splits. A child is terminal
+// when it can never be split: the tree is full after this split (final),
+// or the child reaches maxDepth or has fewer than 2·minRows rows. When both
+// children are terminal, the rows are not moved at all: their leaf values
+// are added to z in place.
+func (gr *boostGrower) split(tree *boostTree, parent *boostLeaf, final bool) (left, right boostLeaf) {
 	s := parent.split
 	lid := int32(len(tree.nodes))
 	tree.nodes[parent.node] = boostNode{
@@ -188,10 +205,24 @@ func (gr *boostGrower) split(tree *boostTree, parent *boostLeaf) (left, right bo
 	}
 	tree.nodes = append(tree.nodes, boostNode{}, boostNode{})
 
-	mid := gr.partition(parent.start, parent.end, s.feat, uint8(s.bin))
 	depth := parent.depth + 1
-	left = boostLeaf{node: lid, start: parent.start, end: mid, g: s.gl, h: s.hl, depth: depth}
-	right = boostLeaf{node: lid + 1, start: mid, end: parent.end, g: parent.g - s.gl, h: parent.h - s.hl, depth: depth}
+	nr := parent.end - parent.start - s.nl
+	terminal := func(rows int) bool {
+		return final || depth >= gr.cfg.maxDepth || rows < 2*gr.cfg.minRows
+	}
+	gl, hl := s.gl, s.hl
+	gR, hR := parent.g-s.gl, parent.h-s.hl
+	if terminal(s.nl) && terminal(nr) {
+		gr.applySplit(parent.start, parent.end, s.feat, uint8(s.bin), gr.leafValue(gl, hl), gr.leafValue(gR, hR))
+		gr.release(parent)
+		left = boostLeaf{node: lid, g: gl, h: hl, depth: depth, applied: true}
+		right = boostLeaf{node: lid + 1, g: gR, h: hR, depth: depth, applied: true}
+		return left, right
+	}
+
+	mid := gr.partition(parent.start, parent.end, s.feat, uint8(s.bin))
+	left = boostLeaf{node: lid, start: parent.start, end: mid, g: gl, h: hl, depth: depth}
+	right = boostLeaf{node: lid + 1, start: mid, end: parent.end, g: gR, h: hR, depth: depth}
 
 	small, large := &left, &right
 	if right.end-right.start < left.end-left.start {
@@ -207,12 +238,30 @@ func (gr *boostGrower) split(tree *boostTree, parent *boostLeaf) (left, right bo
 		large.hist[i].n -= small.hist[i].n
 	}
 	for _, c := range []*boostLeaf{&left, &right} {
-		c.split = gr.bestSplit(c)
+		if !terminal(c.end - c.start) {
+			c.split = gr.bestSplit(c)
+		}
 		if c.split.gain <= 0 {
 			gr.release(c)
 		}
 	}
 	return left, right
+}
+
+// applySplit adds vl to z at positions start … end−1 whose bin of feature f
+// is ≤ t and vr to the others.
+func (gr *boostGrower) applySplit(start, end, f int, t uint8, vl, vr float64) {
+	W := gr.words
+	word, shift := f>>3, uint(8*(f&7))
+	z := gr.z[start:end]
+	bins := gr.bins[start*W : end*W]
+	for i := range z {
+		v := vr
+		if uint8(bins[i*W+word]>>shift) <= t {
+			v = vl
+		}
+		z[i] += v
+	}
 }
 
 // partition reorders positions start … end−1 stably so that rows whose bin of
@@ -345,8 +394,8 @@ func (gr *boostGrower) accumulate(dst []boostBin, start, end int) {
 			word := bins[i]
 			for _, o := range offs {
 				e := &dst[o+int(word&0xff)]
-				e.g += v.g
-				e.h += v.h
+				e.g += float64(v.g)
+				e.h += float64(v.h)
 				e.n++
 				word >>= 8
 			}
@@ -358,8 +407,8 @@ func (gr *boostGrower) accumulate(dst []boostBin, start, end int) {
 		row := bins[i*W : i*W+W]
 		for f, o := range offs {
 			e := &dst[o+int(boostBinAt(row, f))]
-			e.g += v.g
-			e.h += v.h
+			e.g += float64(v.g)
+			e.h += float64(v.h)
 			e.n++
 		}
 	}
