@@ -136,16 +136,30 @@ func (t *textWriter) list(title string, items []string, empty string) {
 func (t *textWriter) inputs(res *fairness.Result) {
 	in := res.Inputs
 	s := res.Settings
-	t.line("Inputs and settings")
-	tab := textTable{header: []string{"", ""}}
-	tab.add("spec", in.SpecFile+"  sha256 "+in.SpecSHA256)
-	tab.add("data", in.DataFile+"  sha256 "+in.DataSHA256)
+	tab := textTable{header: []string{"", ""}, noHeader: true}
+	file := func(name, path, sum string) {
+		if path != "" {
+			tab.add(name, strings.TrimSpace(path+"  sha256 "+sum))
+		}
+	}
+	file("spec", in.SpecFile, in.SpecSHA256)
+	file("data", in.DataFile, in.DataSHA256)
 	tab.add("seed", fmt.Sprint(res.Seed))
-	tab.add("folds", fmt.Sprint(s.Folds))
-	tab.add("classifier", s.Classifier+" ("+strings.Join(s.Learners, ", ")+")")
-	tab.add("ece bins", fmt.Sprint(s.ECEBins))
+	if s.Folds > 0 {
+		tab.add("folds", fmt.Sprint(s.Folds))
+	}
+	if s.Classifier != "" {
+		c := s.Classifier
+		if len(s.Learners) > 0 {
+			c += " (" + strings.Join(s.Learners, ", ") + ")"
+		}
+		tab.add("classifier", c)
+	}
+	if s.ECEBins > 0 {
+		tab.add("ece bins", fmt.Sprint(s.ECEBins))
+	}
 	tab.add("missing values", map[bool]string{true: "rows dropped", false: "an error"}[s.DropMissing])
-	tab.noHeader = true
+	t.line("Inputs and settings")
 	tab.write(t.w, "  ")
 }
 

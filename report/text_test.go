@@ -3,9 +3,13 @@ package report
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"math"
+	"os"
 	"strings"
 	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
 )
 
 // The expected strings below are handResult's numbers rounded by hand to
@@ -136,4 +140,54 @@ func BenchmarkWriteText(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+func ExampleWriteText() {
+	res := &fairness.Result{
+		Tool:      fairness.ToolInfo{Name: "gapwise", Version: "v1.0.0"},
+		Groups:    fairness.GroupInfo{Column: "clinic", Reference: "north", Comparison: "south", NReference: 800, NComparison: 700},
+		Label:     "dx",
+		Score:     "risk",
+		Threshold: 0.5,
+		Metrics: []fairness.MetricResult{{
+			Metric: "fpr", Reference: 0.10, Comparison: 0.16, Gap: 0.06, Estimated: 0.055, Residual: 0.005,
+			Contributions: []fairness.Contribution{
+				{Node: "age", Mechanism: "age", Value: 0.015, Alone: 0.01, IfEqualised: 0.045},
+				{Node: "lab", Mechanism: "lab | dx, age", Value: 0.04, Alone: 0.035, IfEqualised: 0.02},
+			},
+		}},
+		Assumptions: []string{"The causal graph is right."},
+	}
+	if err := WriteText(os.Stdout, res); err != nil {
+		fmt.Println(err)
+	}
+	// Output:
+	// gapwise v1.0.0: audit of "risk" against label "dx", positive when score >= 0.5
+	//
+	// Groups (column "clinic")
+	//   role        value  records  dropped
+	//   reference   north      800        0
+	//   comparison  south      700        0
+	//
+	// fpr (false-positive rate)
+	//                                   value
+	//   reference                      0.1000
+	//   comparison                     0.1600
+	//   gap (comparison - reference)  +0.0600
+	//
+	//   mechanism             contribution    alone  gap if equalised
+	//   age                        +0.0150  +0.0100           +0.0450
+	//   lab | dx, age              +0.0400  +0.0350           +0.0200
+	//   sum of contributions       +0.0550
+	//   residual (gap - sum)       +0.0050
+	//
+	// Warnings
+	//   none
+	//
+	// Assumptions and cautions
+	//   - The causal graph is right.
+	//
+	// Inputs and settings
+	//   seed            0
+	//   missing values  an error
 }
