@@ -3,7 +3,10 @@ package classify
 import (
 	"fmt"
 	"math"
+	"runtime"
 	"sort"
+	"sync"
+	"sync/atomic"
 
 	"gonum.org/v1/gonum/mat"
 )
@@ -130,8 +133,10 @@ func standardiseRaw(x *mat.Dense, w []float64, sw float64) ([]columnScale, []int
 	raw := x.RawMatrix()
 	scales := make([]columnScale, p)
 	var active []int
-	for c := 0; c < p; c++ {
+	forEachIndex(p, func(c int) {
 		scales[c] = scaleColumn(raw.Data[c:], raw.Stride, n, w, sw, true)
+	})
+	for c := 0; c < p; c++ {
 		if !scales[c].constant {
 			active = append(active, c)
 		}
@@ -185,13 +190,14 @@ func linearDesign(x *mat.Dense, raw []columnScale, active []int) *design {
 	for i := range ones {
 		ones[i] = 1
 	}
-	for a, c := range active {
+	forEachIndex(len(active), func(a int) {
+		c := active[a]
 		col := z.col(1 + a)
 		m, s := raw[c].mean, raw[c].sd
 		for i := range col {
 			col[i] = (rm.Data[i*rm.Stride+c] - m) / s
 		}
-	}
+	})
 	return z
 }
 
@@ -253,25 +259,23 @@ func allFourCells(a, b, w []float64) bool {
 // all four value combinations, and terms constant on the weighted rows, are
 // dropped; the kept terms and their scales are returned with the design.
 func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w []float64, sw float64) (*design, []Term, []columnScale) {
-	binary := func(c int) bool { return raw[c].binary }
 	n := lin.n
 	pos := make(map[int]int, len(active)) // raw column → design column
 	for a, c := range active {
 		pos[c] = 1 + a
 	}
-	z := &design{n: n, cols: make([]float64, 0, (1+len(terms))*n)}
-	z.cols = append(z.cols, lin.col(0)...)
-	var kept []Term
-	var scales []columnScale
-	for _, t := range terms {
-		a := lin.col(pos[t.I])
-		if t.J > t.I && binary(t.I) && binary(t.J) && !allFourCells(a, lin.col(pos[t.J]), w) {
-			continue
+	z := &design{n: n, cols: make([]float64, (1+len(terms))*n)}
+	copy(z.col(0), lin.col(0))
+	scales := make([]columnScale, len(terms))
+	// Terms are independent: build them in parallel, each into its own
+	// slot (k+1); no floating-point result depends on the scheduling.
+	forEachIndex(len(terms), func(k int) {
+		t := terms[k]
+		a, buf := lin.col(pos[t.I]), z.col(k+1)
+		if t.J > t.I && raw[t.I].binary && raw[t.J].binary && !allFourCells(a, lin.col(pos[t.J]), w) {
+			scales[k].constant = true
+			return
 		}
-		// Build the term in place at the end of the design; drop it by
-		// truncating again.
-		z.cols = z.cols[:len(z.cols)+n]
-		buf := z.cols[len(z.cols)-n:]
 		if t.J < 0 {
 			copy(buf, a)
 		} else {
@@ -280,19 +284,55 @@ func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w 
 				buf[i] = a[i] * b[i]
 			}
 		}
-		s := scaleColumn(buf, 1, n, w, sw, false)
-		if s.constant {
-			z.cols = z.cols[:len(z.cols)-n]
-			continue
+		sc := scaleColumn(buf, 1, n, w, sw, false)
+		scales[k] = sc
+		if sc.constant {
+			return
 		}
 		for i, v := range buf {
-			buf[i] = (v - s.mean) / s.sd
+			buf[i] = (v - sc.mean) / sc.sd
+		}
+	})
+	// Compact: drop the terms marked constant, keeping the order.
+	var kept []Term
+	var keptScales []columnScale
+	d := 1
+	for k, t := range terms {
+		if scales[k].constant {
+			continue
+		}
+		if d != k+1 {
+			copy(z.col(d), z.col(k+1))
 		}
 		kept = append(kept, t)
-		scales = append(scales, s)
+		keptScales = append(keptScales, scales[k])
+		d++
 	}
-	z.d = 1 + len(kept)
-	return z, kept, scales
+	z.d = d
+	z.cols = z.cols[:d*n]
+	return z, kept, keptScales
+}
+
+// forEachIndex calls fn(k) for k in [0, m) on up to GOMAXPROCS goroutines.
+// fn must only write state owned by index k.
+func forEachIndex(m int, fn func(k int)) {
+	workers := min(runtime.GOMAXPROCS(0), m)
+	if workers <= 1 {
+		for k := 0; k < m; k++ {
+			fn(k)
+		}
+		return
+	}
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Go(func() {
+			for k := int(next.Add(1) - 1); k < m; k = int(next.Add(1) - 1) {
+				fn(k)
+			}
+		})
+	}
+	wg.Wait()
 }
 
 // rowTerms evaluates the design row (without the intercept) for the raw

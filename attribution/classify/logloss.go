@@ -63,6 +63,16 @@ func softplus(z float64) float64 {
 // blocks (logisticBlocks) and reduced in block order, so results do not
 // depend on GOMAXPROCS. The per-row quantities of the last θ are cached,
 // because optimize evaluates Func, Grad and Hess at the same point in turn.
+//
+// Hess recomputes Zᵀdiag(h)Z only while Newton is far from the optimum:
+// once a step has cut ‖∇L‖_∞ at least tenfold, the previous data Hessian is
+// reused (a Newton iteration with a lagged Hessian; Shamanskii 1967, "A
+// modification of Newton's method", cited from memory). Near the optimum
+// the Hessian changes by O(‖Δθ‖), so each reused step still contracts the
+// gradient by about that factor, while costing only a function and
+// gradient evaluation. The gradient is always exact, so the minimiser and
+// the stopping test are unchanged; if a step contracts less than tenfold
+// the Hessian is recomputed at the next point.
 type logisticObjective struct {
 	z       *design
 	y, w    []float64
@@ -77,6 +87,10 @@ type logisticObjective struct {
 	gtol    float64   // the optimiser's gradient threshold
 	gnorm   float64   // ‖∇L‖_∞ at at, valid if gvalid
 	gvalid  bool
+	// lastHess is the data Hessian in use; prevGnorm is ‖∇L‖_∞ at the
+	// previous point where the Hessian was requested.
+	lastHess  []float64
+	prevGnorm float64
 }
 
 func newLogisticObjective(z *design, y, w []float64, lambda float64) *logisticObjective {
@@ -211,7 +225,13 @@ func (o *logisticObjective) Hess(hess *mat.SymDense, theta []float64) {
 		}
 		return
 	}
-	tri := o.dataHessian()
+	// Reuse the last data Hessian while the previous step still cut the
+	// gradient at least tenfold (see the type comment).
+	if o.lastHess == nil || !(o.gnorm < 0.1*o.prevGnorm) {
+		o.lastHess = o.dataHessian()
+	}
+	o.prevGnorm = o.gnorm
+	tri := o.lastHess
 	idx := 0
 	for j := 0; j < d; j++ {
 		for k := j; k < d; k++ {
@@ -225,21 +245,33 @@ func (o *logisticObjective) Hess(hess *mat.SymDense, theta []float64) {
 	}
 }
 
+// hessianSubRows is the row count of the cache-sized sub-blocks of
+// dataHessian (d columns × 2048 rows × 8 bytes ≤ 512 KiB for d ≤ 32).
+const hessianSubRows = 2048
+
 // dataHessian returns the upper triangle, row by row, of Zᵀdiag(h)Z at the
 // cached θ.
 func (o *logisticObjective) dataHessian() []float64 {
 	d := o.z.d
 	tri := d * (d + 1) / 2
 	logisticBlocks(o.z.n, func(b, lo, hi int) {
-		h := o.h[lo:hi]
-		hz := make([]float64, hi-lo)
+		hz := make([]float64, hessianSubRows)
 		out := o.partial[b*tri : (b+1)*tri]
-		idx := 0
-		for j := 0; j < d; j++ {
-			floats.MulTo(hz, h, o.z.col(j)[lo:hi])
-			for k := j; k < d; k++ {
-				out[idx] = floats.Dot(hz, o.z.col(k)[lo:hi])
-				idx++
+		for i := range out {
+			out[i] = 0
+		}
+		// Sub-blocks keep the d columns of a slice of rows in cache while
+		// all d(d+1)/2 dot products are formed.
+		for s := lo; s < hi; s += hessianSubRows {
+			e := min(hi, s+hessianSubRows)
+			h, hz := o.h[s:e], hz[:e-s]
+			idx := 0
+			for j := 0; j < d; j++ {
+				floats.MulTo(hz, h, o.z.col(j)[s:e])
+				for k := j; k < d; k++ {
+					out[idx] += floats.Dot(hz, o.z.col(k)[s:e])
+					idx++
+				}
 			}
 		}
 	})
