@@ -406,3 +406,46 @@ func TestBoostedLearnerContract(t *testing.T) {
 		t.Errorf("log-odds %v, want log 3 = %v", z[0], math.Log(3))
 	}
 }
+
+// TestBoostedWideRowsMatchNarrow checks the two-word packing path (more
+// than eight columns) against the one-word path: inserting constant columns,
+// which have a single bin and can never be split, must not change the
+// fitted model (same rows, same seed, same splits).
+func TestBoostedWideRowsMatchNarrow(t *testing.T) {
+	x, y := boostBenchData(20000, 7, 5)
+	n := len(y)
+	wide := mat.NewDense(n, 12, nil)
+	// Narrow column j goes to wide column place[j]; the others stay 3.5.
+	place := []int{0, 2, 3, 5, 8, 9, 11}
+	for i := range n {
+		row := wide.RawRowView(i)
+		for j := range row {
+			row[j] = 3.5
+		}
+		for j, c := range place {
+			row[c] = x.At(i, j)
+		}
+	}
+	l := NewBoosted()
+	l.Rounds = 40
+	mn, err := l.Fit(x, y, nil, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mw, err := l.Fit(wide, y, nil, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	zn := make([]float64, n)
+	zw := make([]float64, n)
+	mn.LogOdds(x, zn)
+	mw.LogOdds(wide, zw)
+	if a, b := mn.(*BoostedModel).Trees(), mw.(*BoostedModel).Trees(); a != b {
+		t.Fatalf("narrow model has %d trees, wide %d", a, b)
+	}
+	for i := range zn {
+		if zn[i] != zw[i] {
+			t.Fatalf("row %d: narrow %v, wide %v", i, zn[i], zw[i])
+		}
+	}
+}
