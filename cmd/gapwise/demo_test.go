@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -10,6 +11,7 @@ import (
 	"testing"
 
 	"github.com/gapwise/gapwise/fairness"
+	"github.com/gapwise/gapwise/fairness/synth"
 )
 
 func loadResult(t *testing.T, path string) *fairness.Result {
@@ -94,5 +96,34 @@ func TestDemoRefusesNonEmptyFolder(t *testing.T) {
 	entries, _ := os.ReadDir(dir)
 	if len(entries) != 1 {
 		t.Errorf("refused demo wrote files: %v", entries)
+	}
+}
+
+// TestGeneratedSpecsParse: the specs written by fairness/synth pass the
+// real spec parser, and the benchmark cohort passes `check`.
+func TestGeneratedSpecsParse(t *testing.T) {
+	if _, err := fairness.ParseSpec("spec.yaml", synth.AnaemiaSpec("cohort.csv")); err != nil {
+		t.Errorf("demo spec: %v", err)
+	}
+	for _, k := range []int{2, 6} {
+		dir := t.TempDir()
+		tab, err := synth.BenchTable(400, k, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var csv strings.Builder
+		if err := tab.WriteCSV(&csv); err != nil {
+			t.Fatal(err)
+		}
+		if err := writeOutDir(dir, []outFile{{"cohort.csv", []byte(csv.String())}, {"spec.yaml", synth.BenchSpec("cohort.csv", k)}}, false); err != nil {
+			t.Fatal(err)
+		}
+		var stdout, stderr strings.Builder
+		if err := runCheck(checkOptions{spec: filepath.Join(dir, "spec.yaml")}, &stdout, &stderr); err != nil {
+			t.Errorf("k=%d: check: %v", k, err)
+		}
+		if want := fmt.Sprintf("%d mechanisms", k); !strings.Contains(stdout.String(), want) {
+			t.Errorf("k=%d: check output lacks %q:\n%s", k, want, stdout.String())
+		}
 	}
 }
