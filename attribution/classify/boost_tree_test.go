@@ -1,0 +1,80 @@
+package classify
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"gonum.org/v1/gonum/mat"
+)
+
+// TestBoostExp compares the fast exponential with the standard library's
+// math.Exp (reference) over the whole clamped range and near zero.
+func TestBoostExp(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 5))
+	worst := 0.0
+	for i := range 200000 {
+		x := (rng.Float64()*2 - 1) * 700
+		if i%2 == 0 {
+			x /= 350 // dense near 0, where log-odds live
+		}
+		want := math.Exp(x)
+		got := boostExp(x)
+		worst = max(worst, math.Abs(got-want)/want)
+	}
+	if worst > 1e-8 {
+		t.Errorf("max relative error %.3g, want ≤ 1e-8", worst)
+	}
+	if got := boostExp(-1000); math.Abs(got/math.Exp(-700)-1) > 1e-8 {
+		t.Errorf("boostExp(-1000) = %v, want the clamped e^-700", got)
+	}
+}
+
+// TestBoostedOneRoundNewtonStep checks one boosting round on a 0/1 feature
+// against the closed form: from z₀ = logit(p̄) a leaf holding the rows of
+// group g (event rate p_g) moves by the Newton step
+// −G/H = (p_g − σ(z₀)) / (σ(z₀)(1 − σ(z₀))) when L2 = 0 and the rate is 1
+// (Newton's method on the logistic loss; analytic).
+func TestBoostedOneRoundNewtonStep(t *testing.T) {
+	cases := []struct {
+		name           string
+		n0, k0, n1, k1 int // rows and events per group
+	}{
+		{"balanced", 400, 100, 400, 300},
+		{"skewed", 900, 90, 100, 60},
+		{"rare", 1000, 10, 1000, 50},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			n := c.n0 + c.n1
+			x := mat.NewDense(n, 1, nil)
+			y := make([]float64, n)
+			for i := range c.n1 {
+				x.Set(c.n0+i, 0, 1)
+				if i < c.k1 {
+					y[c.n0+i] = 1
+				}
+			}
+			for i := range c.k0 {
+				y[i] = 1
+			}
+			l := NewBoosted()
+			l.Rounds, l.LearningRate, l.L2, l.ValidationFraction = 1, 1, 0, 0
+			m, err := l.Fit(x, y, nil, 1)
+			if err != nil {
+				t.Fatal(err)
+			}
+			got := make([]float64, 2)
+			m.LogOdds(mat.NewDense(2, 1, []float64{0, 1}), got)
+			pbar := float64(c.k0+c.k1) / float64(n)
+			z0 := math.Log(pbar / (1 - pbar))
+			for g, pg := range []float64{float64(c.k0) / float64(c.n0), float64(c.k1) / float64(c.n1)} {
+				want := z0 + (pg-pbar)/(pbar*(1-pbar))
+				// Gradients are single precision: relative error ~1e-7.
+				if math.Abs(got[g]-want) > 1e-5 {
+					t.Errorf("group %d: log-odds %.7f, want %.7f", g, got[g], want)
+				}
+			}
+		})
+	}
+}
