@@ -154,11 +154,13 @@ func TestLinearMissesInteraction(t *testing.T) {
 	if tol := bound + 4*truth[0].SE[scm.NodeMarkerA]; errExp > tol {
 		t.Errorf("expanded |err| %.4f exceeds tolerance %.4f", errExp, tol)
 	}
-	// The linear learner's error must exceed the tolerance three times
-	// over, i.e. be a real misattribution rather than noise. Measured with
-	// this test's seeds at 20 000 records per group: truth +0.2143, linear
-	// +0.0454 (|err| 0.1689), expanded +0.2230 (|err| 0.0087).
-	if errLin < 3*bound {
-		t.Errorf("linear |err| %.4f is not measurably worse than 3 × the tolerance %.4f", errLin, bound)
+	// The linear learner's error must lie outside what sampling error
+	// explains (above the tolerance) and be at least 5 × the expanded
+	// learner's: a real misattribution, not noise. Measured with this
+	// test's seeds at 20 000 records per group: truth +0.2143, linear
+	// +0.0454 (|err| 0.1689), expanded +0.2230 (|err| 0.0087); with -short
+	// (5 000 per group): linear |err| 0.1714, expanded 0.0027.
+	if errLin <= bound || errLin < 5*errExp {
+		t.Errorf("linear |err| %.4f is not measurably worse: tolerance %.4f, expanded |err| %.4f", errLin, bound, errExp)
 	}
 }
