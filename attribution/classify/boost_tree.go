@@ -2,13 +2,12 @@ package classify
 
 import "math"
 
-// boostGH is one training row's gradient and hessian of the weighted
+// The boosting rounds use the gradient and hessian of the weighted
 // logistic loss ℓ = w·[log(1+e^z) − y·z] at the current log-odds z:
 // g = ∂ℓ/∂z = w·(σ(z) − y), h = ∂²ℓ/∂z² = w·σ(z)·(1 − σ(z)). They are
 // stored in single precision (relative rounding 6e-8, far below the
-// sampling noise of any split) to halve the bytes moved per row; all sums
+// sampling noise of any split) to shrink the bytes moved per row; all sums
 // are accumulated in double precision.
-type boostGH struct{ g, h float32 }
 
 // boostBin accumulates the gradient, hessian and row count of the rows of a
 // tree node that fall into one bin of one feature.
@@ -81,24 +80,30 @@ type boostLeaf struct {
 // leaf's value is −rate·G/(H+λ). The histogram of the larger child is the
 // parent's minus the smaller child's (Ke et al. 2017, "LightGBM").
 //
-// Every per-row array is stored in position order: splitting a node
+// The training rows are stored in position order: splitting a node
 // partitions its rows physically (stably), so each node's rows are
 // contiguous and both histogram building and gradient updates stream
-// through memory. The training rows' original order is never needed again.
+// through memory. Each row is one 32-byte record, so a partition moves
+// one record per row. The training rows' original order is never needed
+// again.
 type boostGrower struct {
 	p, words int
 	binning  *boostBinning
-	bins     []uint64  // packed bins
-	gh       []boostGH // gradients at z
-	z        []float64 // running log-odds
-	sw       []float64 // signed weight: +w for y = 1, −w for y = 0
+	recs     []boostRec
+	hi       []uint64 // bins of features 8, 9, …: words−1 words per position
 	cfg      boostTreeConfig
 	free     [][]boostBin // released histograms for reuse
 
-	tmpBins []uint64
-	tmpGH   []boostGH
-	tmpZ    []float64
-	tmpSW   []float64
+	tmp   []boostRec
+	tmpHi []uint64
+}
+
+// boostRec is one training row of the grower.
+type boostRec struct {
+	bins uint64  // bins of features 0…7, byte f holding feature f
+	g, h float32 // gradient and hessian at z (see boostGH)
+	z    float64 // running log-odds
+	sw   float64 // signed weight: +w for y = 1, −w for y = 0
 }
 
 // boostHistChunk is the number of rows whose histogram one goroutine builds.
@@ -106,20 +111,29 @@ type boostGrower struct {
 // sum of their histograms is the same whatever GOMAXPROCS is.
 const boostHistChunk = 16384
 
-// newBoostGrower takes ownership of the packed training bins, the initial
-// log-odds z and the signed weights sw (all indexed by training row).
+// newBoostGrower builds the grower's records from the packed training bins
+// (boostBinning.binRows layout), the initial log-odds z and the signed
+// weights sw, all indexed by training row.
 func newBoostGrower(bins []uint64, binning *boostBinning, z, sw []float64, cfg boostTreeConfig) *boostGrower {
 	p := len(binning.edges)
+	W := boostWords(p)
 	n := len(z)
-	return &boostGrower{
-		p: p, words: boostWords(p), binning: binning, cfg: cfg,
-		bins: bins, z: z, sw: sw,
-		gh:      make([]boostGH, n),
-		tmpBins: make([]uint64, len(bins)),
-		tmpGH:   make([]boostGH, n),
-		tmpZ:    make([]float64, n),
-		tmpSW:   make([]float64, n),
+	gr := &boostGrower{
+		p: p, words: W, binning: binning, cfg: cfg,
+		recs: make([]boostRec, n),
+		tmp:  make([]boostRec, n),
 	}
+	for i := range gr.recs {
+		gr.recs[i] = boostRec{bins: bins[i*W], z: z[i], sw: sw[i]}
+	}
+	if W > 1 {
+		gr.hi = make([]uint64, n*(W-1))
+		gr.tmpHi = make([]uint64, n*(W-1))
+		for i := range n {
+			copy(gr.hi[i*(W-1):(i+1)*(W-1)], bins[i*W+1:(i+1)*W])
+		}
+	}
+	return gr
 }
 
 // gradients writes g = w·(σ(z) − y) = w·σ(z) − max(sw, 0) and
@@ -127,14 +141,15 @@ func newBoostGrower(bins []uint64, binning *boostBinning, z, sw []float64, cfg b
 // (each entry depends on its row only).
 func (gr *boostGrower) gradients() {
 	const block = 16384
-	n := len(gr.z)
+	n := len(gr.recs)
 	boostParallel((n+block-1)/block, func(k int) {
-		lo, hi := k*block, min(n, (k+1)*block)
-		z, sw, gh := gr.z[lo:hi], gr.sw[lo:hi], gr.gh[lo:hi]
-		for i, zi := range z {
-			s := 1 / (1 + boostExp(-zi))
-			w := math.Abs(sw[i])
-			gh[i] = boostGH{g: float32(w*s - math.Max(sw[i], 0)), h: float32(w * s * (1 - s))}
+		recs := gr.recs[k*block : min(n, (k+1)*block)]
+		for i := range recs {
+			r := &recs[i]
+			s := 1 / (1 + boostExp(-r.z))
+			w := math.Abs(r.sw)
+			r.g = float32(w*s - math.Max(r.sw, 0))
+			r.h = float32(w * s * (1 - s))
 		}
 	})
 }
@@ -164,12 +179,12 @@ func boostExp(x float64) float64 {
 func (gr *boostGrower) grow() boostTree {
 	gr.gradients()
 	var g, h float64
-	for _, v := range gr.gh {
-		g += float64(v.g)
-		h += float64(v.h)
+	for _, r := range gr.recs {
+		g += float64(r.g)
+		h += float64(r.h)
 	}
-	root := boostLeaf{node: 0, start: 0, end: len(gr.z), g: g, h: h, hist: gr.newHist()}
-	gr.buildHist(root.hist, 0, len(gr.z))
+	root := boostLeaf{node: 0, start: 0, end: len(gr.recs), g: g, h: h, hist: gr.newHist()}
+	gr.buildHist(root.hist, 0, len(gr.recs))
 	tree := boostTree{nodes: []boostNode{{}}}
 	root.split = gr.bestSplit(&root)
 
@@ -198,8 +213,9 @@ func (gr *boostGrower) grow() boostTree {
 		if lf.applied {
 			continue
 		}
-		for i := range gr.z[lf.start:lf.end] {
-			gr.z[lf.start+i] += v
+		recs := gr.recs[lf.start:lf.end]
+		for i := range recs {
+			recs[i].z += v
 		}
 	}
 	return tree
@@ -271,17 +287,22 @@ func (gr *boostGrower) split(tree *boostTree, parent *boostLeaf, final bool) (le
 // applySplit adds vl to z at positions start … end−1 whose bin of feature f
 // is ≤ t and vr to the others.
 func (gr *boostGrower) applySplit(start, end, f int, t uint8, vl, vr float64) {
-	W := gr.words
-	word, shift := f>>3, uint(8*(f&7))
-	z := gr.z[start:end]
-	bins := gr.bins[start*W : end*W]
-	for i := range z {
+	recs := gr.recs[start:end]
+	for i := range recs {
 		v := vr
-		if uint8(bins[i*W+word]>>shift) <= t {
+		if gr.binOf(start+i, f) <= t {
 			v = vl
 		}
-		z[i] += v
+		recs[i].z += v
 	}
+}
+
+// binOf returns the bin of feature f at position i.
+func (gr *boostGrower) binOf(i, f int) uint8 {
+	if f < 8 {
+		return uint8(gr.recs[i].bins >> (8 * f))
+	}
+	return uint8(gr.hi[i*(gr.words-1)+f>>3-1] >> (8 * (f & 7)))
 }
 
 // partition reorders positions start … end−1 stably so that rows whose bin of
@@ -290,44 +311,40 @@ func (gr *boostGrower) applySplit(start, end, f int, t uint8, vl, vr float64) {
 // read position) and right rows are staged in the tmp arrays; the loop is
 // branch-free.
 func (gr *boostGrower) partition(start, end, f int, t uint8) int {
-	W := gr.words
-	word, shift := f>>3, uint(8*(f&7))
+	recs, tmp := gr.recs, gr.tmp
 	nl, nr := start, 0
-	gh, z, sw := gr.gh, gr.z, gr.sw
-	tgh, tz, tsw := gr.tmpGH, gr.tmpZ, gr.tmpSW
-	if W == 1 {
-		bins, tb := gr.bins, gr.tmpBins
+	if gr.words == 1 {
+		shift := uint(8 * f)
 		for i := start; i < end; i++ {
-			b, v, zi, si := bins[i], gh[i], z[i], sw[i]
-			bins[nl], gh[nl], z[nl], sw[nl] = b, v, zi, si
-			tb[nr], tgh[nr], tz[nr], tsw[nr] = b, v, zi, si
+			r := recs[i]
+			recs[nl] = r
+			tmp[nr] = r
 			c := 0
-			if uint8(b>>shift) <= t {
+			if uint8(r.bins>>shift) <= t {
 				c = 1
 			}
 			nl += c
 			nr += 1 - c
 		}
-		copy(bins[nl:end], tb[:nr])
 	} else {
+		H := gr.words - 1
+		hi, tmpHi := gr.hi, gr.tmpHi
 		for i := start; i < end; i++ {
-			v, zi, si := gh[i], z[i], sw[i]
-			copy(gr.tmpBins[nr*W:nr*W+W], gr.bins[i*W:i*W+W])
-			copy(gr.bins[nl*W:nl*W+W], gr.tmpBins[nr*W:nr*W+W])
-			gh[nl], z[nl], sw[nl] = v, zi, si
-			tgh[nr], tz[nr], tsw[nr] = v, zi, si
 			c := 0
-			if uint8(gr.tmpBins[nr*W+word]>>shift) <= t {
+			if gr.binOf(i, f) <= t {
 				c = 1
 			}
+			r := recs[i]
+			copy(tmpHi[nr*H:nr*H+H], hi[i*H:i*H+H])
+			copy(hi[nl*H:nl*H+H], tmpHi[nr*H:nr*H+H])
+			recs[nl] = r
+			tmp[nr] = r
 			nl += c
 			nr += 1 - c
 		}
-		copy(gr.bins[nl*W:end*W], gr.tmpBins[:nr*W])
+		copy(hi[nl*H:end*H], tmpHi[:nr*H])
 	}
-	copy(gh[nl:end], tgh[:nr])
-	copy(z[nl:end], tz[:nr])
-	copy(sw[nl:end], tsw[:nr])
+	copy(recs[nl:end], tmp[:nr])
 	return nl
 }
 
@@ -405,30 +422,32 @@ func (gr *boostGrower) buildHist(dst []boostBin, start, end int) {
 // accumulate adds the gradients, hessians and counts of positions
 // start … end−1 to dst.
 func (gr *boostGrower) accumulate(dst []boostBin, start, end int) {
-	p, W := gr.p, gr.words
-	offs := gr.binning.offsets[:p]
-	gh := gr.gh[start:end]
-	if W == 1 {
-		bins := gr.bins[start:end]
-		for i, v := range gh {
-			word := bins[i]
-			for _, o := range offs {
-				e := &dst[o+int(word&0xff)]
-				e.g += float64(v.g)
-				e.h += float64(v.h)
-				e.n++
-				word >>= 8
-			}
+	offs := gr.binning.offsets[:gr.p]
+	lo := offs[:min(8, len(offs))]
+	recs := gr.recs[start:end]
+	for _, r := range recs {
+		word := r.bins
+		g, h := float64(r.g), float64(r.h)
+		for _, o := range lo {
+			e := &dst[o+int(word&0xff)]
+			e.g += g
+			e.h += h
+			e.n++
+			word >>= 8
 		}
+	}
+	if gr.words == 1 {
 		return
 	}
-	bins := gr.bins[start*W : end*W]
-	for i, v := range gh {
-		row := bins[i*W : i*W+W]
-		for f, o := range offs {
-			e := &dst[o+int(boostBinAt(row, f))]
-			e.g += float64(v.g)
-			e.h += float64(v.h)
+	H := gr.words - 1
+	hi := gr.hi[start*H : end*H]
+	for i, r := range recs {
+		g, h := float64(r.g), float64(r.h)
+		row := hi[i*H : i*H+H]
+		for f := 8; f < len(offs); f++ {
+			e := &dst[offs[f]+int(uint8(row[f>>3-1]>>(8*(f&7))))]
+			e.g += g
+			e.h += h
 			e.n++
 		}
 	}
