@@ -8,6 +8,7 @@ import (
 	"sync"
 	"sync/atomic"
 
+	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -284,14 +285,7 @@ func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w 
 				buf[i] = a[i] * b[i]
 			}
 		}
-		sc := scaleColumn(buf, 1, n, w, sw, false)
-		scales[k] = sc
-		if sc.constant {
-			return
-		}
-		for i, v := range buf {
-			buf[i] = (v - sc.mean) / sc.sd
-		}
+		scales[k] = standardiseInPlace(buf, w, sw)
 	})
 	// Compact: drop the terms marked constant, keeping the order.
 	var kept []Term
@@ -311,6 +305,47 @@ func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w 
 	z.d = d
 	z.cols = z.cols[:d*n]
 	return z, kept, keptScales
+}
+
+// standardiseInPlace replaces v by (v − mean)/sd with the weighted mean and
+// population sd of scaleColumn, and returns them. A column constant over
+// the rows with positive weight is left as is and reported constant. It is
+// the contiguous fast path of scaleColumn for the expanded terms (same
+// formulas, vectorised: two passes over v instead of four).
+func standardiseInPlace(v, w []float64, sw float64) columnScale {
+	var s columnScale
+	ref, found, varying := 0.0, false, false
+	for i, x := range v {
+		if w != nil && w[i] == 0 {
+			continue
+		}
+		if !found {
+			ref, found = x, true
+		} else if x != ref {
+			varying = true
+			break
+		}
+	}
+	if !varying {
+		return columnScale{mean: ref, sd: 1, constant: true}
+	}
+	if w == nil {
+		s.mean = floats.Sum(v) / sw
+	} else {
+		s.mean = floats.Dot(v, w) / sw
+	}
+	floats.AddConst(-s.mean, v)
+	var ss float64
+	if w == nil {
+		ss = floats.Dot(v, v)
+	} else {
+		for i, x := range v {
+			ss += w[i] * x * x
+		}
+	}
+	s.sd = math.Sqrt(ss / sw)
+	floats.Scale(1/s.sd, v)
+	return s
 }
 
 // forEachIndex calls fn(k) for k in [0, m) on up to GOMAXPROCS goroutines.

@@ -83,7 +83,9 @@ type logisticObjective struct {
 	eta     []float64
 	r, h    []float64
 	loss    float64
-	partial []float64 // per-block partial sums, reused
+	partial []float64 // per-block Hessian parts, reused
+	gpart   []float64 // per-block gradient parts at at
+	lpart   []float64 // per-block compensated loss sums at at
 	gtol    float64   // the optimiser's gradient threshold
 	gnorm   float64   // ‖∇L‖_∞ at at, valid if gvalid
 	gvalid  bool
@@ -102,7 +104,9 @@ func newLogisticObjective(z *design, y, w []float64, lambda float64) *logisticOb
 		eta:     make([]float64, z.n),
 		r:       make([]float64, z.n),
 		h:       make([]float64, z.n),
-		partial: make([]float64, nb*max(2, d*(d+1)/2)),
+		partial: make([]float64, nb*d*(d+1)/2),
+		gpart:   make([]float64, nb*d),
+		lpart:   make([]float64, 2*nb),
 	}
 }
 
@@ -114,39 +118,57 @@ func (o *logisticObjective) update(theta []float64) {
 	copy(o.at, theta)
 	o.valid = true
 	o.gvalid = false
+	d := o.z.d
 	logisticBlocks(o.z.n, func(b, lo, hi int) {
-		eta := o.eta[lo:hi]
-		for i := range eta {
-			eta[i] = theta[0]
-		}
-		for k := 1; k < o.z.d; k++ {
-			if theta[k] != 0 {
-				floats.AddScaled(eta, theta[k], o.z.col(k)[lo:hi])
-			}
-		}
 		var acc neumaierSum
-		for i, e := range eta {
-			g := lo + i
-			wi := 1.0
-			if o.w != nil {
-				wi = o.w[g]
-			}
-			a := math.Exp(-math.Abs(e))
-			p := 1 / (1 + a)
-			if e < 0 {
-				p = a / (1 + a)
-			}
-			yi := o.y[g]
-			acc.add(wi * (math.Max(e, 0) + math.Log(1+a) - yi*e))
-			o.r[g] = wi * (p - yi)
-			o.h[g] = wi * a / ((1 + a) * (1 + a))
+		gp := o.gpart[b*d : (b+1)*d]
+		for k := range gp {
+			gp[k] = 0
 		}
-		o.partial[2*b], o.partial[2*b+1] = acc.sum, acc.c
+		// Sub-blocks keep η, r and the d column slices in cache between
+		// the pass that forms η and the one that forms the gradient.
+		for s := lo; s < hi; s += hessianSubRows {
+			e := min(hi, s+hessianSubRows)
+			eta := o.eta[s:e]
+			for i := range eta {
+				eta[i] = theta[0]
+			}
+			for k := 1; k < d; k++ {
+				if theta[k] != 0 {
+					floats.AddScaled(eta, theta[k], o.z.col(k)[s:e])
+				}
+			}
+			for i, et := range eta {
+				g := s + i
+				wi := 1.0
+				if o.w != nil {
+					wi = o.w[g]
+				}
+				a := math.Exp(-math.Abs(et))
+				p := 1 / (1 + a)
+				if et < 0 {
+					p = a / (1 + a)
+				}
+				yi := o.y[g]
+				l := math.Log(1+a) - yi*et
+				if et > 0 {
+					l += et
+				}
+				acc.add(wi * l)
+				o.r[g] = wi * (p - yi)
+				o.h[g] = wi * a / ((1 + a) * (1 + a))
+			}
+			r := o.r[s:e]
+			for k := 0; k < d; k++ {
+				gp[k] += floats.Dot(r, o.z.col(k)[s:e])
+			}
+		}
+		o.lpart[2*b], o.lpart[2*b+1] = acc.sum, acc.c
 	})
 	var acc neumaierSum
 	for b := 0; b < o.nb; b++ {
-		acc.add(o.partial[2*b])
-		acc.add(o.partial[2*b+1])
+		acc.add(o.lpart[2*b])
+		acc.add(o.lpart[2*b+1])
 	}
 	var pen float64
 	for _, t := range theta[1:] {
@@ -181,21 +203,15 @@ func (o *logisticObjective) Func(theta []float64) float64 {
 	return o.loss
 }
 
-// Grad writes ∇L(θ) into grad.
+// Grad writes ∇L(θ) into grad (its per-block parts are formed by update).
 func (o *logisticObjective) Grad(grad, theta []float64) {
 	o.update(theta)
 	d := o.z.d
-	logisticBlocks(o.z.n, func(b, lo, hi int) {
-		r := o.r[lo:hi]
-		for k := 0; k < d; k++ {
-			o.partial[b*d+k] = floats.Dot(r, o.z.col(k)[lo:hi])
-		}
-	})
 	for k := range grad {
 		grad[k] = 0
 	}
 	for b := 0; b < o.nb; b++ {
-		floats.Add(grad, o.partial[b*d:(b+1)*d])
+		floats.Add(grad, o.gpart[b*d:(b+1)*d])
 	}
 	for k := 1; k < d; k++ {
 		grad[k] += o.lambda * theta[k]
