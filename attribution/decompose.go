@@ -62,31 +62,76 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	if err != nil {
 		return nil, nil, err
 	}
+	out.Side = opt.Side.resolve()
+	useRef := out.Side != SideComparison
+	useCmp := out.Side != SideReference
 	logr := make([][]float64, len(mechs))
+	var logrCmp [][]float64
+	if useCmp {
+		logrCmp = make([][]float64, len(mechs))
+	}
 	member := s.comparisonLabels()
 	for i, mr := range ratios {
-		logr[i] = pick(mr.LogRatio, g.refIdx)
-		ws := SummariseLogWeights(logr[i])
-		// Out-of-fold AUC of the (node, parents) classifier; both groups
-		// are present, so it is defined.
-		auc, err := metrics.AUC(member, mr.JointLogOdds, nil)
-		if err != nil {
-			auc = math.NaN()
-		}
-		out.Mechanisms = append(out.Mechanisms, MechanismReport{
+		raw := pick(mr.LogRatio, g.refIdx)
+		rep := MechanismReport{
 			Mechanism:     mr.Mechanism,
 			Learner:       mr.Learner,
 			ParentLearner: mr.ParentLearner,
 			Losses:        mr.Losses,
-			AUC:           auc,
-			ESS:           ws.ESS,
-			MaxShare:      ws.MaxShare,
-			MeanRatio:     ws.MeanRatio,
-		})
+			ExtremeShare:  ExtremeShare(raw),
+			MeanRatio:     SummariseLogWeights(raw).MeanRatio,
+		}
+		var key []float64
+		if mr.ParentLearner != PriorLearner {
+			// logit P(cmp | pa_i) = logit P(cmp | x_i, pa_i) − log r_i.
+			key = make([]float64, len(raw))
+			for a, r := range g.refIdx {
+				key[a] = mr.JointLogOdds[r] - mr.LogRatio[r]
+			}
+		}
+		rep.WorstStratumMean = WorstStratumMean(raw, key)
+		logr[i] = raw
+		if opt.ClipQuantile != 0 && useRef {
+			if logr[i], rep.ClippedReference, err = ClipAtQuantiles(raw, opt.ClipQuantile); err != nil {
+				return nil, nil, err
+			}
+		}
+		ws := SummariseLogWeights(logr[i])
+		rep.ESS, rep.MaxShare = ws.ESS, ws.MaxShare
+		if useCmp {
+			logrCmp[i] = pick(mr.LogRatio, g.cmpIdx)
+			if opt.ClipQuantile != 0 {
+				if logrCmp[i], rep.ClippedComparison, err = ClipAtQuantiles(logrCmp[i], opt.ClipQuantile); err != nil {
+					return nil, nil, err
+				}
+			}
+			neg := make([]float64, len(logrCmp[i]))
+			for r, x := range logrCmp[i] {
+				neg[r] = -x
+			}
+			rep.ComparisonESS = SummariseLogWeights(neg).ESS
+		}
+		// Out-of-fold AUC of the (node, parents) classifier; both groups
+		// are present, so it is defined.
+		if rep.AUC, err = metrics.AUC(member, mr.JointLogOdds, nil); err != nil {
+			rep.AUC = math.NaN()
+		}
+		out.Mechanisms = append(out.Mechanisms, rep)
 	}
-	if err := splitGaps(out.Metrics, g.refY, g.refS, logr, opt); err != nil {
+	var sides []*sideEstimate
+	if useRef {
+		sides = append(sides, newSideEstimate(SideReference, g.refY, g.refS, logr))
+	}
+	if useCmp {
+		sides = append(sides, newSideEstimate(SideComparison, g.cmpY, g.cmpS, logrCmp))
+	}
+	if err := splitGapsSides(out.Metrics, sides, opt); err != nil {
 		return nil, nil, err
 	}
+	if out.Weights, err = sideWeights(sides, opt); err != nil {
+		return nil, nil, err
+	}
+	effectiveRecords(out.Metrics, sides, opt)
 	return out, ratios, nil
 }
 
@@ -118,30 +163,33 @@ func observe(metricNames []string, g groupSplit, opt Options) ([]MetricDecomposi
 }
 
 // splitGaps evaluates the game of every metric from the reference records
-// and their log-ratios, and fills the Shapley values: exactly over all
-// coalitions when k ≤ opt.ExactLimit, otherwise by antithetic permutation
-// sampling (SampledShapleyGames) with Monte Carlo standard errors.
+// and their log-ratios (SideReference), and fills the Shapley values.
 func splitGaps(mds []MetricDecomposition, refY, refS []float64, logr [][]float64, opt Options) error {
+	return splitGapsSides(mds, []*sideEstimate{newSideEstimate(SideReference, refY, refS, logr)}, opt)
+}
+
+// splitGapsSides evaluates the game of every metric from one side's records
+// or from both combined (see Side), and fills the Shapley values: exactly
+// over all coalitions when k ≤ opt.ExactLimit, otherwise by antithetic
+// permutation sampling (SampledShapleyGames) with Monte Carlo standard
+// errors.
+func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Options) error {
 	names := make([]string, len(mds))
 	for m := range mds {
 		names[m] = mds[m].Metric
 	}
-	k := len(logr)
-	limit := opt.ExactLimit
-	if limit == 0 {
-		limit = DefaultExactLimit
-	}
+	k := len(sides[0].logr)
 	eopt := EngineOptions{Workers: opt.Workers, ECEBins: opt.ECEBins}
-	if k > limit {
-		return splitGapsSampled(mds, names, refY, refS, logr, opt, eopt)
+	if k > exactLimit(opt) {
+		return splitGapsSampled(mds, names, sides, opt, eopt)
 	}
-	games, err := EvaluateCoalitions(refY, refS, opt.Threshold, logr, names, eopt)
+	values, err := hybridAll(sides, names, opt.Threshold, eopt)
 	if err != nil {
 		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
 	}
 	full := uint64(1)<<k - 1
 	for m := range mds {
-		vals := games.Values[m]
+		vals := values[m]
 		v := make([]float64, len(vals))
 		for S := range vals {
 			v[S] = vals[S] - vals[0]
@@ -149,6 +197,14 @@ func splitGaps(mds []MetricDecomposition, refY, refS []float64, logr [][]float64
 		fillSummary(&mds[m], ExactShapley(v, k), func(S uint64) float64 { return v[S] }, k, full)
 	}
 	return nil
+}
+
+// exactLimit is opt.ExactLimit with its default.
+func exactLimit(opt Options) int {
+	if opt.ExactLimit == 0 {
+		return DefaultExactLimit
+	}
+	return opt.ExactLimit
 }
 
 // fillSummary sets the contributions and the what-if values of one metric
@@ -168,10 +224,10 @@ func fillSummary(md *MetricDecomposition, phi []float64, v func(uint64) float64,
 // splitGapsSampled is splitGaps for many mechanisms. The Shapley values of
 // S ↦ M(P_S) and of v(S) = M(P_S) − M(P_∅) coincide, so the sampler works
 // on M directly; ∅, N, {i} and N∖{i} are evaluated exactly for the summary.
-func splitGapsSampled(mds []MetricDecomposition, names []string, refY, refS []float64, logr [][]float64, opt Options, eopt EngineOptions) error {
-	k := len(logr)
+func splitGapsSampled(mds []MetricDecomposition, names []string, sides []*sideEstimate, opt Options, eopt EngineOptions) error {
+	k := len(sides[0].logr)
 	value := func(cs []uint64, dst [][]float64) error {
-		v, err := EvaluateSome(refY, refS, opt.Threshold, logr, names, cs, eopt)
+		v, err := hybridSome(sides, names, cs, opt.Threshold, eopt)
 		if err != nil {
 			return err
 		}
@@ -191,7 +247,7 @@ func splitGapsSampled(mds []MetricDecomposition, names []string, refY, refS []fl
 	for i := 0; i < k; i++ {
 		special = append(special, uint64(1)<<i, full&^(uint64(1)<<i))
 	}
-	vals, err := EvaluateSome(refY, refS, opt.Threshold, logr, names, special, eopt)
+	vals, err := hybridSome(sides, names, special, opt.Threshold, eopt)
 	if err != nil {
 		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
 	}

@@ -18,6 +18,13 @@ type Options struct {
 	// Sampling tunes the permutation sampling used above ExactLimit; its
 	// Seed is ignored (Options.Seed is used).
 	Sampling SamplingOptions
+	// Side chooses the records that estimate the hybrid metrics (see
+	// Side); SideDefault means DefaultSide.
+	Side Side
+	// ClipQuantile, if in (0, 1), clips every mechanism's log-ratios to
+	// their central interval of probability ClipQuantile over the records
+	// of each side used (ClipAtQuantiles); 0 means no clipping.
+	ClipQuantile float64
 }
 
 // DefaultExactLimit is the default Options.ExactLimit.
@@ -27,6 +34,24 @@ const DefaultExactLimit = 16
 type Decomposition struct {
 	Mechanisms []MechanismReport     // in the order given
 	Metrics    []MetricDecomposition // in the order requested
+	Side       Side                  // the side used (never SideDefault)
+	// Weights describes, per side used (reference first), the weights
+	// that emulate the hybrid distributions on that side's records.
+	Weights []SideWeights
+}
+
+// SideWeights summarises the importance weights of one side.
+type SideWeights struct {
+	Side    Side // SideReference or SideComparison
+	Records int  // records of the side
+	// Far is the hybrid farthest from the side's own group: N on the
+	// reference side (the reweighted comparison group), ∅ on the
+	// comparison side (the reweighted reference group).
+	Far CoalitionWeight
+	// Worst is the hybrid coalition with the smallest n_eff, searched over
+	// all 2^k coalitions when AllCoalitions, else over ∅, N, {i} and N∖{i}.
+	Worst         CoalitionWeight
+	AllCoalitions bool
 }
 
 // MetricDecomposition splits one metric's gap. Contributions[i] belongs to
@@ -44,6 +69,14 @@ type MetricDecomposition struct {
 	// StdErrors are the Monte Carlo standard errors of Contributions when
 	// they were estimated by permutation sampling; nil when exact.
 	StdErrors []float64
+	// EffectiveRecords is n_eff of the weights behind the estimate of the
+	// far end of the gap, over the records the metric counts (negatives
+	// for FPR, positives for FNR and TPR, flagged records for PPV, ...):
+	// the reference side's w_N for SideReference, the comparison side's
+	// w'_∅ for SideComparison; for SideBoth the smaller over the two ends
+	// of n_eff(reference) + n_eff(comparison), an observed end counting
+	// all its records.
+	EffectiveRecords float64
 
 	// Percentile bootstrap intervals, set by Bootstrap; nil otherwise.
 	ReferenceCI     *Interval
@@ -65,6 +98,18 @@ type MechanismReport struct {
 	ESS           float64       // (Σw)²/Σw² over reference records, w = r_i
 	MaxShare      float64       // max w / Σw over reference records
 	MeanRatio     float64       // mean of r_i over reference records (≈ 1 if right)
+	// ExtremeShare is the share of reference records with
+	// |log r_i| > ExtremeLogRatio (before clipping).
+	ExtremeShare float64
+	// WorstStratumMean is the mean of r_i in the stratum of the parents
+	// farthest from 1 (WorstStratumMean; before clipping).
+	WorstStratumMean float64
+	// ComparisonESS is n_eff of 1/r_i over the comparison records, set
+	// when the comparison side is used (0 otherwise).
+	ComparisonESS float64
+	// ClippedReference and ClippedComparison count the records of each
+	// side whose log-ratio was clipped (Options.ClipQuantile).
+	ClippedReference, ClippedComparison int
 }
 
 // LearnerLoss is a candidate learner's out-of-fold log loss.
