@@ -72,7 +72,10 @@ func softplus(z float64) float64 {
 // gradient by about that factor, while costing only a function and
 // gradient evaluation. The gradient is always exact, so the minimiser and
 // the stopping test are unchanged; if a step contracts less than tenfold
-// the Hessian is recomputed at the next point.
+// the Hessian is recomputed at the next point. This pays only when the
+// d(d+1)/2 products per row of the Hessian outweigh the exp and log per
+// row of a function evaluation, so below lagHessianMinCols design columns
+// the Hessian is always recomputed (plain Newton).
 type logisticObjective struct {
 	z       *design
 	y, w    []float64
@@ -243,7 +246,7 @@ func (o *logisticObjective) Hess(hess *mat.SymDense, theta []float64) {
 	}
 	// Reuse the last data Hessian while the previous step still cut the
 	// gradient at least tenfold (see the type comment).
-	if o.lastHess == nil || !(o.gnorm < 0.1*o.prevGnorm) {
+	if o.lastHess == nil || d < lagHessianMinCols || !(o.gnorm < 0.1*o.prevGnorm) {
 		o.lastHess = o.dataHessian()
 	}
 	o.prevGnorm = o.gnorm
@@ -260,6 +263,11 @@ func (o *logisticObjective) Hess(hess *mat.SymDense, theta []float64) {
 		}
 	}
 }
+
+// lagHessianMinCols is the design width from which Hess reuses a lagged
+// Hessian (measured with instruction counts on 160k rows: at 7 columns
+// recomputing is cheaper, at 28 reusing saves about a fifth of the fit).
+const lagHessianMinCols = 12
 
 // hessianSubRows is the row count of the cache-sized sub-blocks of
 // dataHessian (d columns × 2048 rows × 8 bytes ≤ 512 KiB for d ≤ 32).
