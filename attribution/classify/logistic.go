@@ -47,8 +47,9 @@ const DefaultMaxInteract = 8
 // The minimiser is found with Newton's method (gonum optimize.Newton with
 // the analytic gradient and Hessian) from β₀ = logit(ȳ_w), β = 0, and
 // stops when ‖∇L‖_∞ < 1e-9·Σ_i w_i. Under perfect separation λ > 0 keeps
-// the minimiser finite; with λ = 0 the fit then fails to converge and
-// returns an error.
+// the minimiser finite. With λ = 0 separable data have no minimiser: the
+// gradient decays as the coefficients grow, and the iteration stops at
+// arbitrarily large ones (hundreds, on standardised columns); use λ > 0.
 type Linear struct {
 	// Lambda is the L2 penalty λ ≥ 0 on the coefficients of the
 	// standardised columns (scikit-learn's C = 1/λ).
@@ -303,7 +304,7 @@ const (
 )
 
 // ErrNoConvergence: the Newton iteration did not reach the gradient
-// threshold (e.g. perfect separation with Lambda = 0).
+// threshold within its iteration and evaluation limits.
 var ErrNoConvergence = errors.New("logistic fit did not converge")
 
 // LogisticModel is a fitted Linear or Expanded classifier:
@@ -327,7 +328,8 @@ func (m *LogisticModel) Terms() []Term { return append([]Term(nil), m.b.terms...
 // Coef returns β_k for every term, on the standardised scale.
 func (m *LogisticModel) Coef() []float64 { return append([]float64(nil), m.coef...) }
 
-// Iterations returns the number of Newton iterations the fit took.
+// Iterations returns the number of Newton iterations the fit took,
+// including those of the subsample warm start on large inputs.
 func (m *LogisticModel) Iterations() int { return m.iters }
 
 // LogOdds writes β₀ + Σ_k β_k t_k(x_i) for every row x_i of x into dst.

@@ -6,8 +6,10 @@ import (
 	"math"
 	"math/rand/v2"
 	"os"
+	"reflect"
 	"runtime"
 	"strings"
+	"sync"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
@@ -51,6 +53,53 @@ func BenchmarkLinearFit(b *testing.B) { benchmarkFit(b, NewLinear()) }
 
 // BenchmarkExpandedFit: 160k rows × 6 features, expanded to 27 terms.
 func BenchmarkExpandedFit(b *testing.B) { benchmarkFit(b, NewExpanded()) }
+
+// BenchmarkExpandedFitWide: 160k rows × 30 features, the widest mechanism
+// the engine expects; the interaction cap gives 30 + 36 terms.
+func BenchmarkExpandedFitWide(b *testing.B) {
+	x, y, _ := interactionData(160000, 30, 1)
+	for b.Loop() {
+		if _, err := NewExpanded().Fit(x, y, nil, 1); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkExpandedLogOdds: predictions for 160k rows × 6 features.
+func BenchmarkExpandedLogOdds(b *testing.B) {
+	x, y, _ := interactionData(160000, 6, 1)
+	m, err := NewExpanded().Fit(x, y, nil, 1)
+	if err != nil {
+		b.Fatal(err)
+	}
+	dst := make([]float64, len(y))
+	b.ResetTimer()
+	for b.Loop() {
+		m.LogOdds(x, dst)
+	}
+}
+
+// TestLogisticConcurrentFits: one learner value used by several goroutines
+// at once (the Learner contract) gives the same model as a lone fit.
+func TestLogisticConcurrentFits(t *testing.T) {
+	x, y, _ := interactionData(3000, 4, 21)
+	l := NewExpanded()
+	want, err := l.Fit(x, y, nil, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var wg sync.WaitGroup
+	got := make([]Model, 4)
+	for g := range got {
+		wg.Go(func() { got[g], _ = l.Fit(x, y, nil, 1) })
+	}
+	wg.Wait()
+	for g, m := range got {
+		if m == nil || !reflect.DeepEqual(m.(*LogisticModel).Coef(), want.(*LogisticModel).Coef()) {
+			t.Errorf("goroutine %d: coefficients differ from a lone fit", g)
+		}
+	}
+}
 
 // referenceFile is written by testdata/classify/make_reference.py
 // (scikit-learn fits on designs rebuilt independently in numpy).
