@@ -2,9 +2,12 @@ package main
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"math"
+	"os"
 	"path/filepath"
 
 	"github.com/spf13/cobra"
@@ -72,6 +75,13 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	inputs := []outFile{{demoData, csv.Bytes()}, {demoSpec, synth.AnaemiaSpec(demoData)}}
 	if err := writeOutDir(o.out, inputs, o.force); err != nil {
 		return err
+	}
+	// Outputs of an earlier demo in a forced folder would not match the new
+	// cohort: remove them so that a failed audit leaves only the inputs.
+	for _, f := range []string{resultFile, reportFile} {
+		if err := os.Remove(filepath.Join(o.out, f)); err != nil && !errors.Is(err, fs.ErrNotExist) {
+			return err
+		}
 	}
 	specPath := filepath.Join(o.out, demoSpec)
 	spec, err := fairness.LoadSpec(specPath)
