@@ -35,7 +35,12 @@ var ErrBoostedOneClass = errors.New("classify: boosted: targets hold a single cl
 // training stops once Patience rounds pass without the validation log loss
 // improving by more than 1e-7, and the model keeps the rounds up to the best
 // one. With Calibrate, the final log-odds are recalibrated on that split by
-// Platt scaling (see plattFit).
+// Platt scaling (see plattFit). It is off by default: boosting on the log
+// loss with early stopping was already calibrated in our measurements (on
+// held-out class-0 rows of five test problems the mean density ratio moved
+// from 0.946–1.037 without Platt scaling to 0.968–1.026 with it, within
+// the sampling noise of that heavy-tailed mean, and test log loss changed
+// by at most 0.0004).
 //
 // Weights are rescaled to mean 1 over the training rows, so L2 and
 // MinLeafHessian mean the same whatever the weights' scale.

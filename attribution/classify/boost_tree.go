@@ -146,32 +146,12 @@ func (gr *boostGrower) gradients() {
 		recs := gr.recs[k*block : min(n, (k+1)*block)]
 		for i := range recs {
 			r := &recs[i]
-			s := 1 / (1 + boostExp(-r.z))
+			s := 1 / (1 + math.Exp(-r.z))
 			w := math.Abs(r.sw)
 			r.g = float32(w*s - math.Max(r.sw, 0))
 			r.h = float32(w * s * (1 - s))
 		}
 	})
-}
-
-// boostExp returns e^x with relative error below 1e-8 for |x| ≤ 700 (x is
-// clamped to that range), enough for gradients kept in single precision.
-// It reduces x = k·ln 2 + r with |r| ≤ ln 2/2, using ln 2 split into a
-// high part exact in 32 bits and a low part (the Cody–Waite reduction),
-// evaluates the degree-8 Taylor polynomial of e^r by Horner's rule
-// (truncation error |r|⁹/9! < 2e-10) and scales by 2^k through the
-// exponent bits. It is several times faster than math.Exp.
-func boostExp(x float64) float64 {
-	const (
-		log2e = 1.4426950408889634
-		ln2hi = 6.93147180369123816490e-01
-		ln2lo = 1.90821492927058770002e-10
-	)
-	x = max(-700, min(700, x))
-	k := math.Floor(x*log2e + 0.5)
-	r := x - k*ln2hi - k*ln2lo
-	p := 1 + r*(1+r*(1.0/2+r*(1.0/6+r*(1.0/24+r*(1.0/120+r*(1.0/720+r*(1.0/5040+r*(1.0/40320))))))))
-	return p * math.Float64frombits(uint64(int64(k)+1023)<<52)
 }
 
 // grow fits one tree to the current gradients and adds its leaf values to

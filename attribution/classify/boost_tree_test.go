@@ -2,33 +2,10 @@ package classify
 
 import (
 	"math"
-	"math/rand/v2"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
 )
-
-// TestBoostExp compares the fast exponential with the standard library's
-// math.Exp (reference) over the whole clamped range and near zero.
-func TestBoostExp(t *testing.T) {
-	rng := rand.New(rand.NewPCG(5, 5))
-	worst := 0.0
-	for i := range 200000 {
-		x := (rng.Float64()*2 - 1) * 700
-		if i%2 == 0 {
-			x /= 350 // dense near 0, where log-odds live
-		}
-		want := math.Exp(x)
-		got := boostExp(x)
-		worst = max(worst, math.Abs(got-want)/want)
-	}
-	if worst > 1e-8 {
-		t.Errorf("max relative error %.3g, want ≤ 1e-8", worst)
-	}
-	if got := boostExp(-1000); math.Abs(got/math.Exp(-700)-1) > 1e-8 {
-		t.Errorf("boostExp(-1000) = %v, want the clamped e^-700", got)
-	}
-}
 
 // TestBoostedOneRoundNewtonStep checks one boosting round on a 0/1 feature
 // against the closed form: from z₀ = logit(p̄) a leaf holding the rows of
