@@ -30,3 +30,11 @@ func ExampleGroundTruth() {
 	// unread   +0.0000
 	// gap      +0.0074
 }
+
+// The glove game: player 0 holds a left glove, players 1 and 2 a right glove
+// each, and a pair is worth 1. v is indexed by coalition bit set.
+func ExampleShapley() {
+	v := []float64{0, 0, 0, 1, 0, 1, 0, 1}
+	fmt.Printf("%.4f\n", scm.Shapley(v))
+	// Output: [0.6667 0.1667 0.1667]
+}
