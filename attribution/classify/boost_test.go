@@ -449,3 +449,45 @@ func TestBoostedWideRowsMatchNarrow(t *testing.T) {
 		}
 	}
 }
+
+// TestBoostedConcurrentFits runs fits of one learner value from several
+// goroutines, as the attribution engine does, and requires each to equal
+// the sequential fit (the Learner contract: Fit must not mutate Boosted).
+func TestBoostedConcurrentFits(t *testing.T) {
+	x, y := boostBenchData(5000, 4, 6)
+	l := NewBoosted()
+	l.Rounds = 15
+	want := make([][]float64, 4)
+	for s := range want {
+		m, err := l.Fit(x, y, nil, uint64(s))
+		if err != nil {
+			t.Fatal(err)
+		}
+		want[s] = make([]float64, len(y))
+		m.LogOdds(x, want[s])
+	}
+	got := make([][]float64, 4)
+	done := make(chan error, 4)
+	for s := range got {
+		go func() {
+			m, err := l.Fit(x, y, nil, uint64(s))
+			if err == nil {
+				got[s] = make([]float64, len(y))
+				m.LogOdds(x, got[s])
+			}
+			done <- err
+		}()
+	}
+	for range got {
+		if err := <-done; err != nil {
+			t.Fatal(err)
+		}
+	}
+	for s := range got {
+		for i := range got[s] {
+			if got[s][i] != want[s][i] {
+				t.Fatalf("seed %d row %d: concurrent %v, sequential %v", s, i, got[s][i], want[s][i])
+			}
+		}
+	}
+}
