@@ -58,6 +58,16 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		Learners:  learners,
 		ECEBins:   spec.ECEBins,
 		Workers:   opt.Workers,
+
+		ExactLimit:   spec.ExactLimit,
+		ClipQuantile: spec.ClipRatios,
+	}
+	if spec.EstimateFrom != "" {
+		side, err := attribution.ParseSide(spec.EstimateFrom)
+		if err != nil {
+			return nil, specErr(spec.File, spec.KeyLine("estimate_from"), "estimate_from", ErrBadValue, "%v", err)
+		}
+		aopt.Side = side
 	}
 	var dec *attribution.Decomposition
 	var boot *attribution.BootstrapSummary
@@ -126,6 +136,10 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			ECEBins:     spec.ECEBins,
 			DropMissing: spec.DropMissing(),
 			Learners:    learnerNames(learners),
+
+			EstimateFrom: dec.Side.String(),
+			ClipRatios:   spec.ClipRatios,
+			ExactLimit:   spec.ExactLimit,
 		},
 		Synthetic: spec.Synthetic,
 		Inputs: InputInfo{
@@ -136,6 +150,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		},
 		Metrics:     []MetricResult{},
 		Mechanisms:  []MechanismResult{},
+		Weights:     []WeightSide{},
 		Warnings:    []string{},
 		Assumptions: []string{},
 	}
@@ -156,27 +171,34 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			ESS:              m.ESS,
 			MaxShare:         m.MaxShare,
 			MeanRatio:        m.MeanRatio,
+
+			ExtremeShare:      m.ExtremeShare,
+			WorstStratumMean:  m.WorstStratumMean,
+			ComparisonESS:     m.ComparisonESS,
+			ClippedReference:  m.ClippedReference,
+			ClippedComparison: m.ClippedComparison,
 		}
 		if groups.NReference > 0 {
 			mr.ESSShare = m.ESS / float64(groups.NReference)
 		}
 		for _, l := range m.Losses {
-			mr.Losses = append(mr.Losses, LearnerLoss{Classifier: l.Learner, LogLoss: l.LogLoss})
+			mr.Losses = append(mr.Losses, LearnerLoss{Classifier: l.Learner, LogLoss: l.LogLoss, OddsCheck: l.OddsCheck})
 		}
 		r.Mechanisms = append(r.Mechanisms, mr)
 	}
 	for _, md := range dec.Metrics {
 		res := MetricResult{
-			Metric:        md.Metric,
-			Reference:     md.Reference,
-			Comparison:    md.Comparison,
-			Gap:           md.Gap,
-			Estimated:     md.Estimated,
-			Residual:      md.Residual,
-			ReferenceCI:   interval(md.ReferenceCI),
-			ComparisonCI:  interval(md.ComparisonCI),
-			GapCI:         interval(md.GapCI),
-			Contributions: []Contribution{},
+			Metric:           md.Metric,
+			Reference:        md.Reference,
+			Comparison:       md.Comparison,
+			Gap:              md.Gap,
+			Estimated:        md.Estimated,
+			Residual:         md.Residual,
+			EffectiveRecords: md.EffectiveRecords,
+			ReferenceCI:      interval(md.ReferenceCI),
+			ComparisonCI:     interval(md.ComparisonCI),
+			GapCI:            interval(md.GapCI),
+			Contributions:    []Contribution{},
 		}
 		for i, m := range dec.Mechanisms {
 			c := Contribution{
@@ -190,11 +212,35 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 				lo, hi := md.ContributionCIs[i].Low, md.ContributionCIs[i].High
 				c.CILow, c.CIHigh = &lo, &hi
 			}
+			if i < len(md.StdErrors) {
+				se := md.StdErrors[i]
+				c.StdError = &se
+			}
 			res.Contributions = append(res.Contributions, c)
 		}
 		r.Metrics = append(r.Metrics, res)
 	}
+	for _, w := range dec.Weights {
+		r.Weights = append(r.Weights, WeightSide{
+			Side:          w.Side.String(),
+			Records:       w.Records,
+			Far:           hybridWeight(w.Far, dec.Mechanisms),
+			Worst:         hybridWeight(w.Worst, dec.Mechanisms),
+			AllCoalitions: w.AllCoalitions,
+		})
+	}
 	return r
+}
+
+// hybridWeight names the mechanisms of a coalition by their nodes.
+func hybridWeight(c attribution.CoalitionWeight, mechs []attribution.MechanismReport) HybridWeight {
+	h := HybridWeight{ComparisonNodes: []string{}, ESS: c.ESS, MaxShare: c.MaxShare}
+	for i, m := range mechs {
+		if c.Coalition&(1<<i) != 0 {
+			h.ComparisonNodes = append(h.ComparisonNodes, m.Mechanism.Node)
+		}
+	}
+	return h
 }
 
 func interval(iv *attribution.Interval) *Interval {

@@ -2,6 +2,7 @@ package fairness
 
 import (
 	"bufio"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -350,5 +351,71 @@ func BenchmarkRun(b *testing.B) {
 				}
 			}
 		})
+	}
+}
+
+// TestRunSidesClippingSampling checks the mapping of the estimation side,
+// clipping, sampled Shapley values and weight diagnostics into the Result.
+// With 100 records per group and clip_ratios 0.9, each side's log-ratios
+// are clipped below the 5% and above the 95% quantile (Hyndman & Fan
+// definition 7: order statistics 4.95 and 94.05 of 0..99), so 5 + 5 = 10
+// distinct values per mechanism and side change (by hand).
+func TestRunSidesClippingSampling(t *testing.T) {
+	src := smallSpec + "estimate_from: both\nclip_ratios: 0.9\nexact_limit: 1\n"
+	spec := writeAudit(t, src, smallData(200))
+	r, err := Run(spec, RunOptions{Workers: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := r.Settings; s.EstimateFrom != "both" || s.ClipRatios != 0.9 || s.ExactLimit != 1 {
+		t.Errorf("settings %+v", s)
+	}
+	if len(r.Weights) != 2 || r.Weights[0].Side != "reference" || r.Weights[1].Side != "comparison" ||
+		r.Weights[0].Records != 100 || r.Weights[0].AllCoalitions {
+		t.Fatalf("weights %+v", r.Weights)
+	}
+	if n := r.Weights[0].Far.ComparisonNodes; len(n) != 3 {
+		t.Errorf("reference side's far hybrid has comparison nodes %v, want all 3", n)
+	}
+	if n := r.Weights[1].Far.ComparisonNodes; len(n) != 0 {
+		t.Errorf("comparison side's far hybrid has comparison nodes %v, want none", n)
+	}
+	for _, m := range r.Mechanisms {
+		if m.ClippedReference != 10 || m.ClippedComparison != 10 {
+			t.Errorf("%s: clipped %d reference and %d comparison records, want 10 and 10", m.Node, m.ClippedReference, m.ClippedComparison)
+		}
+		if !(m.ComparisonESS > 0 && m.WorstStratumMean > 0) {
+			t.Errorf("%s: comparison ESS %v, worst stratum mean %v", m.Node, m.ComparisonESS, m.WorstStratumMean)
+		}
+		for _, l := range m.Losses {
+			if !(l.OddsCheck > 0) {
+				t.Errorf("%s: odds check %v", m.Node, l.OddsCheck)
+			}
+		}
+	}
+	for _, m := range r.Metrics {
+		sum := m.Residual
+		for _, c := range m.Contributions {
+			sum += c.Value
+			if c.StdError == nil || *c.StdError < 0 {
+				t.Errorf("%s/%s: std error %v", m.Metric, c.Node, c.StdError)
+			}
+		}
+		if math.Abs(sum-m.Gap) > 1e-12 {
+			t.Errorf("%s: Σ contributions + residual = %v, gap %v", m.Metric, sum, m.Gap)
+		}
+		if !(m.EffectiveRecords > 0) {
+			t.Errorf("%s: effective records %v", m.Metric, m.EffectiveRecords)
+		}
+	}
+	js, err := json.Marshal(r)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, key := range []string{`"estimate_from":"both"`, `"clip_ratios":0.9`, `"exact_limit":1`, `"effective_records":`, `"std_error":`, `"odds_check":`,
+		`"extreme_ratio_share":`, `"worst_stratum_mean_ratio":`, `"comparison_ess":`, `"clipped_reference":10`, `"far_hybrid":`, `"worst_hybrid":`, `"comparison_nodes":`} {
+		if !strings.Contains(string(js), key) {
+			t.Errorf("JSON lacks %s", key)
+		}
 	}
 }

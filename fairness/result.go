@@ -5,20 +5,23 @@ package fairness
 // JSON encoding is the tool's machine-readable contract; field names are
 // stable.
 type Result struct {
-	Tool        ToolInfo          `json:"tool"`
-	Groups      GroupInfo         `json:"groups"`
-	Label       string            `json:"label"`
-	Score       string            `json:"score"`
-	Threshold   float64           `json:"threshold"`
-	Seed        uint64            `json:"seed"`
-	Settings    Settings          `json:"settings"`
-	Metrics     []MetricResult    `json:"metrics"`
-	Mechanisms  []MechanismResult `json:"mechanisms"`
-	Warnings    []string          `json:"warnings"`
-	Assumptions []string          `json:"assumptions"`
-	Synthetic   bool              `json:"synthetic,omitempty"` // data is invented (the demo)
-	Inputs      InputInfo         `json:"inputs"`
-	Details     *Details          `json:"details,omitempty"` // per-group descriptions for the report
+	Tool       ToolInfo          `json:"tool"`
+	Groups     GroupInfo         `json:"groups"`
+	Label      string            `json:"label"`
+	Score      string            `json:"score"`
+	Threshold  float64           `json:"threshold"`
+	Seed       uint64            `json:"seed"`
+	Settings   Settings          `json:"settings"`
+	Metrics    []MetricResult    `json:"metrics"`
+	Mechanisms []MechanismResult `json:"mechanisms"`
+	// Weights describes, per side of estimation used, the weights that
+	// emulate the hybrid distributions.
+	Weights     []WeightSide `json:"weights"`
+	Warnings    []string     `json:"warnings"`
+	Assumptions []string     `json:"assumptions"`
+	Synthetic   bool         `json:"synthetic,omitempty"` // data is invented (the demo)
+	Inputs      InputInfo    `json:"inputs"`
+	Details     *Details     `json:"details,omitempty"` // per-group descriptions for the report
 }
 
 // ToolInfo names the program that produced the result.
@@ -42,6 +45,15 @@ type Settings struct {
 	ECEBins     int      `json:"ece_bins"`
 	DropMissing bool     `json:"drop_missing"`
 	Learners    []string `json:"learners"`
+	// EstimateFrom names the records that estimate the hybrid metrics:
+	// reference, comparison or both (see attribution.Side).
+	EstimateFrom string `json:"estimate_from"`
+	// ClipRatios is the central probability kept when clipping log-ratios;
+	// absent when no clipping.
+	ClipRatios float64 `json:"clip_ratios,omitempty"`
+	// ExactLimit: Shapley values are exact up to this many mechanisms and
+	// sampled (with std_error) above.
+	ExactLimit int `json:"exact_limit"`
 }
 
 // GroupInfo describes the two groups compared.
@@ -64,6 +76,10 @@ type MetricResult struct {
 	Gap        float64 `json:"gap"`
 	Estimated  float64 `json:"estimated_gap"` // Σ contributions: the reweighted estimate of the gap
 	Residual   float64 `json:"residual"`
+	// EffectiveRecords is the effective sample size behind the estimate
+	// of the far end of the gap, over the records the metric counts
+	// (attribution.MetricDecomposition.EffectiveRecords).
+	EffectiveRecords float64 `json:"effective_records"`
 	// Intervals are present when the bootstrap ran.
 	ReferenceCI   *Interval      `json:"reference_ci,omitempty"`
 	ComparisonCI  *Interval      `json:"comparison_ci,omitempty"`
@@ -79,6 +95,9 @@ type Contribution struct {
 	// CILow and CIHigh bound Value when the bootstrap ran.
 	CILow  *float64 `json:"ci_low,omitempty"`
 	CIHigh *float64 `json:"ci_high,omitempty"`
+	// StdError is the Monte Carlo standard error of Value when Shapley
+	// values were sampled (more mechanisms than exact_limit).
+	StdError *float64 `json:"std_error,omitempty"`
 	// Alone is the change in the metric if only this mechanism took the
 	// comparison group's form: v({i}).
 	Alone float64 `json:"alone"`
@@ -101,12 +120,51 @@ type MechanismResult struct {
 	ESSShare         float64       `json:"ess_share"` // ESS / n_reference
 	MaxShare         float64       `json:"max_weight_share"`
 	MeanRatio        float64       `json:"mean_ratio"` // ≈ 1 when the ratios are right
+	// ExtremeShare is the share of reference records whose ratio is above
+	// 20 or below 1/20 (attribution.ExtremeLogRatio): poor overlap.
+	ExtremeShare float64 `json:"extreme_ratio_share"`
+	// WorstStratumMean is the mean ratio in the fifth of the reference
+	// records (by the parents' classifier) farthest from 1; ≈ 1 when right.
+	WorstStratumMean float64 `json:"worst_stratum_mean_ratio"`
+	// ComparisonESS is the effective sample size of 1/r over the
+	// comparison records, present when they are used.
+	ComparisonESS float64 `json:"comparison_ess,omitempty"`
+	// ClippedReference and ClippedComparison count the records whose
+	// log-ratio was clipped (clip_ratios) on each side.
+	ClippedReference  int `json:"clipped_reference"`
+	ClippedComparison int `json:"clipped_comparison"`
+}
+
+// WeightSide summarises the importance weights of one side of estimation.
+type WeightSide struct {
+	Side    string `json:"side"`    // reference or comparison
+	Records int    `json:"records"` // records of that group
+	// Far is the hybrid farthest from the side's group: every mechanism in
+	// comparison form (reference side) or none (comparison side).
+	Far HybridWeight `json:"far_hybrid"`
+	// Worst is the hybrid with the smallest effective sample size,
+	// searched over all coalitions when AllCoalitions, else over the
+	// empty, full, single and all-but-one coalitions.
+	Worst         HybridWeight `json:"worst_hybrid"`
+	AllCoalitions bool         `json:"searched_all_coalitions"`
+}
+
+// HybridWeight describes the weights that emulate one hybrid distribution.
+type HybridWeight struct {
+	// ComparisonNodes lists the nodes whose mechanism takes the comparison
+	// group's form, in graph order.
+	ComparisonNodes []string `json:"comparison_nodes"`
+	ESS             float64  `json:"ess"`
+	MaxShare        float64  `json:"max_weight_share"`
 }
 
 // LearnerLoss is one candidate classifier's out-of-fold log loss.
 type LearnerLoss struct {
 	Classifier string  `json:"classifier"`
 	LogLoss    float64 `json:"log_loss"`
+	// OddsCheck is n_ref/n_cmp times the mean out-of-fold odds of the
+	// comparison group over the reference records; ≈ 1 when calibrated.
+	OddsCheck float64 `json:"odds_check"`
 }
 
 // Interval is a percentile bootstrap interval.

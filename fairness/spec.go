@@ -14,6 +14,7 @@ import (
 
 	"gopkg.in/yaml.v3"
 
+	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -39,6 +40,9 @@ import (
 //	folds: 5             # cross-fitting folds, >= 2
 //	classifier: auto     # auto, linear, expanded or boosted
 //	ece_bins: 10         # >= 1
+//	estimate_from: reference  # records that estimate the hybrids: reference, comparison or both
+//	clip_ratios: 0.99    # clip log-ratios to their central 99% interval; omit for none
+//	exact_limit: 16      # exact Shapley values up to this many mechanisms, sampled above
 //	synthetic: false     # the data is invented
 //	title: free text
 type Spec struct {
@@ -60,8 +64,17 @@ type Spec struct {
 	Folds       int
 	Classifier  string
 	ECEBins     int
-	Synthetic   bool
-	Title       string
+	// EstimateFrom is attribution.Side's name: reference, comparison or
+	// both (default attribution.DefaultSide).
+	EstimateFrom string
+	// ClipRatios, if > 0, is the central probability kept when clipping
+	// each mechanism's log-ratios (attribution.ClipAtQuantiles).
+	ClipRatios float64
+	// ExactLimit is attribution.Options.ExactLimit (default
+	// attribution.DefaultExactLimit).
+	ExactLimit int
+	Synthetic  bool
+	Title      string
 
 	lines    map[string]int // line of each top-level key
 	catLines []int          // line of each categorical entry
@@ -260,6 +273,18 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		if err == nil && s.ECEBins < 1 {
 			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "ece_bins must be at least 1, got %d", s.ECEBins)
 		}
+	case "estimate_from":
+		s.EstimateFrom, err = p.oneOf(k.Value, v, attribution.SideReference.String(), attribution.SideComparison.String(), attribution.SideBoth.String())
+	case "clip_ratios":
+		s.ClipRatios, err = p.float(k.Value, v)
+		if err == nil && !(s.ClipRatios > 0 && s.ClipRatios < 1) {
+			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "clip_ratios %s is not strictly between 0 and 1 (e.g. 0.99 keeps the central 99%% of each mechanism's log-ratios)", v.Value)
+		}
+	case "exact_limit":
+		err = p.decode(k.Value, v, &s.ExactLimit, "an integer")
+		if err == nil && (s.ExactLimit < 1 || s.ExactLimit > attribution.MaxExactMechanisms) {
+			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "exact_limit must be between 1 and %d, got %d", attribution.MaxExactMechanisms, s.ExactLimit)
+		}
 	case "synthetic":
 		err = p.decode(k.Value, v, &s.Synthetic, "true or false")
 	case "title":
@@ -294,6 +319,12 @@ func (s *Spec) finish(p *specParser) error {
 	}
 	if s.ECEBins == 0 {
 		s.ECEBins = metrics.DefaultECEBins
+	}
+	if s.EstimateFrom == "" {
+		s.EstimateFrom = attribution.DefaultSide.String()
+	}
+	if s.ExactLimit == 0 {
+		s.ExactLimit = attribution.DefaultExactLimit
 	}
 	s.DataPath = s.Data
 	if !filepath.IsAbs(s.Data) {

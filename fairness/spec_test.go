@@ -7,6 +7,8 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+
+	"github.com/gapwise/gapwise/attribution"
 )
 
 // exampleSpec is the spec format exactly as documented for users.
@@ -45,6 +47,7 @@ func TestParseSpecExample(t *testing.T) {
 			{Node: "labs", Columns: []string{"m1", "m2"}, Parents: []string{"dx", "age"}, Line: 14},
 		},
 		Seed: 1, Missing: MissingError, Folds: DefaultFolds, Classifier: ClassifierAuto, ECEBins: 10,
+		EstimateFrom: attribution.DefaultSide.String(), ExactLimit: 16,
 	}
 	// Compare exported fields only.
 	got := *s
@@ -76,13 +79,17 @@ classifier: expanded
 ece_bins: 15
 synthetic: true
 title: Anaemia screening (synthetic)
+estimate_from: both
+clip_ratios: 0.98
+exact_limit: 12
 `
 	s, err := ParseSpec("/abs/spec.yaml", []byte(strings.Replace(src, "data: cohort.csv", "data: /data/cohort.csv", 1)))
 	if err != nil {
 		t.Fatal(err)
 	}
 	if !s.DropMissing() || s.Folds != 3 || s.Classifier != "expanded" || s.ECEBins != 15 || !s.Synthetic ||
-		s.Title != "Anaemia screening (synthetic)" || !reflect.DeepEqual(s.Categorical, []string{"m2"}) || s.DataPath != "/data/cohort.csv" {
+		s.Title != "Anaemia screening (synthetic)" || !reflect.DeepEqual(s.Categorical, []string{"m2"}) || s.DataPath != "/data/cohort.csv" ||
+		s.EstimateFrom != "both" || s.ClipRatios != 0.98 || s.ExactLimit != 12 {
 		t.Errorf("got %+v", s)
 	}
 }
@@ -129,6 +136,11 @@ func TestParseSpecErrors(t *testing.T) {
 		{"classifier", exampleSpec + "classifier: forest\n", ErrUnknownClassifier, 18, "classifier", `"forest"`},
 		{"ece bins", exampleSpec + "ece_bins: 0\n", ErrBadValue, 18, "ece_bins", "at least 1"},
 		{"synthetic", exampleSpec + "synthetic: maybe\n", ErrBadValue, 18, "synthetic", "true or false"},
+		{"estimate_from", exampleSpec + "estimate_from: left\n", ErrBadValue, 18, "estimate_from", "reference, comparison, both"},
+		{"clip_ratios 1", exampleSpec + "clip_ratios: 1\n", ErrBadValue, 18, "clip_ratios", "strictly between 0 and 1"},
+		{"clip_ratios text", exampleSpec + "clip_ratios: most\n", ErrBadValue, 18, "clip_ratios", `"most"`},
+		{"exact_limit 0", exampleSpec + "exact_limit: 0\n", ErrBadValue, 18, "exact_limit", "between 1 and 26"},
+		{"exact_limit 40", exampleSpec + "exact_limit: 40\n", ErrBadValue, 18, "exact_limit", "got 40"},
 		{"categorical not in graph", exampleSpec + "categorical: [clinic]\n", ErrBadValue, 18, "categorical[0]", "not a column of any graph node"},
 		{"categorical label", exampleSpec + "categorical: [dx]\n", ErrBadValue, 18, "categorical[0]", "label or score"},
 		{"graph not list", exampleSpec[:strings.Index(exampleSpec, "graph:")] + "graph: age\n", ErrBadValue, 10, "graph", "non-empty list"},

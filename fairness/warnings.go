@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"strings"
 )
 
 // Thresholds above which Warnings speaks up.
@@ -26,20 +27,44 @@ const (
 	// WarnAUC: the out-of-fold AUC of a mechanism's group classifier is at
 	// least this, so the groups barely overlap on it.
 	WarnAUC = 0.95
+	// WarnExtremeShare: more than this share of reference records have a
+	// ratio above 20 or below 1/20 for a mechanism.
+	WarnExtremeShare = 0.01
+	// WarnStratumLow/High: the mean ratio in some fifth of the reference
+	// records (grouped by the parents) falls outside this range.
+	WarnStratumLow  = 0.8
+	WarnStratumHigh = 1.25
 )
 
 // Warnings lists, as plain sentences, the problems a reader of r should
 // know about, in a fixed order: dropped rows; then per mechanism in graph
-// order its overlap (AUC), effective sample size, largest weight share and
-// mean ratio; then per metric a large residual.
+// order its overlap (AUC, extreme ratios), effective sample size, largest
+// weight share, mean ratio overall and per stratum of the parents, and
+// clipping; then per side of estimation its worst hybrid; then per metric
+// its effective records and a large residual.
+//
+// Effective sample sizes are judged on the side(s) that estimate the
+// hybrids (Settings.EstimateFrom); with both sides, only when both are low,
+// since the combination leans on the better one.
 func Warnings(r *Result) []string {
 	out := droppedWarnings(r.Groups)
-	nRef := r.Groups.NReference
+	nRef, nCmp := r.Groups.NReference, r.Groups.NComparison
+	side := r.Settings.EstimateFrom
+	low := func(ess float64, n int) bool { return ess < WarnESSShare*float64(n) || ess < WarnESSMin }
 	for _, m := range r.Mechanisms {
 		if m.AUC >= WarnAUC {
 			out = append(out, fmt.Sprintf("the groups are nearly separable on `%s` (out-of-fold AUC %.3f): overlap is poor, so its contribution is unreliable", m.Mechanism, m.AUC))
 		}
-		if m.ESS < WarnESSShare*float64(nRef) || m.ESS < WarnESSMin {
+		if m.ExtremeShare > WarnExtremeShare {
+			out = append(out, fmt.Sprintf("%.1f%% of reference records have extreme ratios (above 20 or below 1/20) for `%s`: the groups barely overlap there", 100*m.ExtremeShare, m.Mechanism))
+		}
+		refLow, cmpLow := low(m.ESS, nRef), low(m.ComparisonESS, nCmp)
+		switch {
+		case side == "comparison" && cmpLow:
+			out = append(out, fmt.Sprintf("the contribution of `%s` rests on %s effective comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp)))
+		case side == "both" && refLow && cmpLow:
+			out = append(out, fmt.Sprintf("the contribution of `%s` rests on %s effective reference records out of %s and %s comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef), thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp)))
+		case side != "comparison" && side != "both" && refLow:
 			out = append(out, fmt.Sprintf("the contribution of `%s` rests on %s effective records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef)))
 		}
 		if m.MaxShare > WarnMaxShare {
@@ -48,8 +73,31 @@ func Warnings(r *Result) []string {
 		if m.MeanRatio < WarnMeanRatioLow || m.MeanRatio > WarnMeanRatioHigh {
 			out = append(out, fmt.Sprintf("the density ratios of `%s` average %.3f over the reference records instead of 1; its classifiers may be miscalibrated", m.Mechanism, m.MeanRatio))
 		}
+		if m.WorstStratumMean < WarnStratumLow || m.WorstStratumMean > WarnStratumHigh {
+			out = append(out, fmt.Sprintf("the density ratios of `%s` average %.3f in one fifth of the reference records (grouped by its parents) instead of 1; its classifiers may misjudge how the parents differ", m.Mechanism, m.WorstStratumMean))
+		}
+		if m.ClippedReference+m.ClippedComparison > 0 {
+			out = append(out, fmt.Sprintf("the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", m.Node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios))
+		}
+	}
+	if side != "both" {
+		for _, w := range r.Weights {
+			if low(w.Worst.ESS, w.Records) {
+				out = append(out, fmt.Sprintf("on the %s records, the hybrid with the comparison group's mechanisms for %s rests on %s effective records out of %s; contributions that use it are unreliable", w.Side, nodeList(w.Worst.ComparisonNodes), thousands(int(math.Round(w.Worst.ESS))), thousands(w.Records)))
+			}
+		}
 	}
 	for _, mr := range r.Metrics {
+		if mr.EffectiveRecords < WarnESSMin {
+			what := "the reweighted comparison group"
+			switch side {
+			case "comparison":
+				what = "the reweighted reference group"
+			case "both":
+				what = "the combined estimate"
+			}
+			out = append(out, fmt.Sprintf("for %s, %s rests on %s effective records; the estimated gap is unreliable", mr.Metric, what, thousands(int(math.Round(mr.EffectiveRecords)))))
+		}
 		if math.Abs(mr.Residual) > WarnResidualShare*math.Abs(mr.Gap) && math.Abs(mr.Residual) > WarnResidualMin {
 			out = append(out, fmt.Sprintf("for %s the contributions add up to %.4f but the observed gap is %.4f; the residual %.4f is large, so part of the gap is not explained by the estimated mechanisms", mr.Metric, mr.Estimated, mr.Gap, mr.Residual))
 		}
@@ -58,6 +106,18 @@ func Warnings(r *Result) []string {
 		out = []string{}
 	}
 	return out
+}
+
+// nodeList renders nodes as "`a`, `b`", or "no node" for none.
+func nodeList(nodes []string) string {
+	if len(nodes) == 0 {
+		return "no node"
+	}
+	q := make([]string, len(nodes))
+	for i, n := range nodes {
+		q[i] = "`" + n + "`"
+	}
+	return strings.Join(q, ", ")
 }
 
 // droppedWarnings reports rows dropped for missing values.

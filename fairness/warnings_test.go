@@ -15,14 +15,18 @@ func TestThousands(t *testing.T) {
 }
 
 // healthy is a mechanism that triggers no warning with 12,000 reference records.
-var healthy = MechanismResult{Node: "age", Mechanism: "age", AUC: 0.6, ESS: 9000, MaxShare: 0.001, MeanRatio: 1.01}
+var healthy = MechanismResult{Node: "age", Mechanism: "age", AUC: 0.6, ESS: 9000, MaxShare: 0.001, MeanRatio: 1.01, WorstStratumMean: 1.05, ComparisonESS: 8000}
 
 func TestWarnings(t *testing.T) {
 	base := func() *Result {
 		return &Result{
 			Groups:     GroupInfo{Reference: "north", Comparison: "south", NReference: 12000, NComparison: 9000},
 			Mechanisms: []MechanismResult{healthy},
-			Metrics:    []MetricResult{{Metric: "fnr", Gap: 0.09, Estimated: 0.08, Residual: 0.01}},
+			Metrics:    []MetricResult{{Metric: "fnr", Gap: 0.09, Estimated: 0.08, Residual: 0.01, EffectiveRecords: 2500}},
+			Settings:   Settings{EstimateFrom: "reference"},
+			Weights: []WeightSide{
+				{Side: "reference", Records: 12000, Worst: HybridWeight{ComparisonNodes: []string{"age"}, ESS: 9000}},
+			},
 		}
 	}
 	tests := []struct {
@@ -42,13 +46,33 @@ func TestWarnings(t *testing.T) {
 		{"auc", func(r *Result) { r.Mechanisms[0].AUC = 0.95 }, []string{"nearly separable on `age` (out-of-fold AUC 0.950)"}},
 		{"residual", func(r *Result) { r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.06, 0.03 }, []string{"for fnr the contributions add up to 0.0600 but the observed gap is 0.0900"}},
 		{"residual tiny", func(r *Result) { r.Metrics[0].Gap, r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.004, 0, 0.004 }, nil},
+		{"extreme", func(r *Result) { r.Mechanisms[0].ExtremeShare = 0.034 }, []string{"3.4% of reference records have extreme ratios (above 20 or below 1/20) for `age`: the groups barely overlap there"}},
+		{"extreme fine", func(r *Result) { r.Mechanisms[0].ExtremeShare = 0.01 }, nil},
+		{"stratum", func(r *Result) { r.Mechanisms[0].WorstStratumMean = 1.4 }, []string{"average 1.400 in one fifth of the reference records"}},
+		{"stratum low", func(r *Result) { r.Mechanisms[0].WorstStratumMean = 0.7 }, []string{"average 0.700 in one fifth"}},
+		{"clipped", func(r *Result) { r.Settings.ClipRatios = 0.99; r.Mechanisms[0].ClippedReference = 120 }, []string{"the ratios of `age` were clipped for 120 reference and 0 comparison records (clip_ratios 0.99)"}},
+		{"worst hybrid", func(r *Result) { r.Weights[0].Worst = HybridWeight{ComparisonNodes: []string{"age", "hb"}, ESS: 23} }, []string{"on the reference records, the hybrid with the comparison group's mechanisms for `age`, `hb` rests on 23 effective records out of 12,000"}},
+		{"worst hybrid both", func(r *Result) {
+			r.Settings.EstimateFrom = "both"
+			r.Weights[0].Worst.ESS = 23
+		}, nil},
+		{"metric records", func(r *Result) { r.Metrics[0].EffectiveRecords = 12.2 }, []string{"for fnr, the reweighted comparison group rests on 12 effective records"}},
+		{"metric records comparison", func(r *Result) { r.Settings.EstimateFrom = "comparison"; r.Metrics[0].EffectiveRecords = 40 }, []string{"for fnr, the reweighted reference group rests on 40"}},
+		{"ess comparison side", func(r *Result) { r.Settings.EstimateFrom = "comparison"; r.Mechanisms[0].ComparisonESS = 50 }, []string{"rests on 50 effective comparison records out of 9,000"}},
+		{"ess comparison side ignores reference", func(r *Result) { r.Settings.EstimateFrom = "comparison"; r.Mechanisms[0].ESS = 5 }, nil},
+		{"ess both one side low", func(r *Result) { r.Settings.EstimateFrom = "both"; r.Mechanisms[0].ESS = 5 }, nil},
+		{"ess both low", func(r *Result) {
+			r.Settings.EstimateFrom = "both"
+			r.Mechanisms[0].ESS, r.Mechanisms[0].ComparisonESS = 5, 60
+		}, []string{"rests on 5 effective reference records out of 12,000 and 60 comparison records out of 9,000"}},
 		{"order", func(r *Result) {
 			r.Groups.DroppedReference = 1
 			bad := healthy
-			bad.Node, bad.Mechanism, bad.AUC, bad.ESS = "hb", "hb | dx", 0.99, 37
+			bad.Node, bad.Mechanism, bad.AUC, bad.ESS, bad.ExtremeShare = "hb", "hb | dx", 0.99, 37, 0.2
 			r.Mechanisms = append(r.Mechanisms, bad)
-			r.Metrics[0].Residual = 0.05
-		}, []string{"dropped", "separable on `hb | dx`", "`hb` rests on 37 effective records", "for fnr"}},
+			r.Weights[0].Worst.ESS = 30
+			r.Metrics[0].Residual, r.Metrics[0].EffectiveRecords = 0.05, 30
+		}, []string{"dropped", "separable on `hb | dx`", "extreme ratios", "`hb` rests on 37 effective records", "the hybrid with", "for fnr, the reweighted", "for fnr the contributions"}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
