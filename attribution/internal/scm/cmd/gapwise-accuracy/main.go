@@ -4,6 +4,7 @@
 // size, and prints a Markdown table.
 //
 //	go run ./attribution/internal/scm/cmd/gapwise-accuracy [-sizes 2000,10000,50000] [-reps 3]
+//	go run ./attribution/internal/scm/cmd/gapwise-accuracy -sides -learners auto
 //
 // Ground truth: every hybrid distribution simulated with common random
 // numbers and split with the Shapley (1953) formula. All data is synthetic.
@@ -30,6 +31,8 @@ type options struct {
 	metrics  []string
 	seed     uint64
 	detail   bool // also print per-metric, per-mechanism error and SD
+	sides    bool // compare estimation sides instead of learners (sides.go)
+	truth    bool // also print the ground-truth decompositions
 }
 
 func main() {
@@ -37,7 +40,11 @@ func main() {
 	if err != nil {
 		os.Exit(2)
 	}
-	if err := run(opt, os.Stdout, os.Stderr); err != nil {
+	study := run
+	if opt.sides {
+		study = runSides
+	}
+	if err := study(opt, os.Stdout, os.Stderr); err != nil {
 		fmt.Fprintln(os.Stderr, "gapwise-accuracy:", err)
 		os.Exit(1)
 	}
@@ -54,10 +61,12 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	metricList := fs.String("metrics", strings.Join([]string{metrics.NameFNR, metrics.NameFPR, metrics.NameCalibrationInTheLarge, metrics.NameBrier}, ","), "comma-separated metrics")
 	seed := fs.Uint64("seed", 1, "seed of the samples and the ground-truth simulation")
 	detail := fs.Bool("detail", false, "also print mean error, RMSE and SD per metric and mechanism")
+	sides := fs.Bool("sides", false, "compare estimation sides (reference, comparison, both) with the first -learners choice instead of comparing learners")
+	truth := fs.Bool("truth", false, "also print the ground-truth gap and contributions of every case")
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
 	}
-	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail}
+	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth}
 	for _, f := range split(*sizes) {
 		n, err := strconv.Atoi(f)
 		if err != nil || n < 100 {
