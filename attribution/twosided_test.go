@@ -120,3 +120,23 @@ func TestSidesObservedEnds(t *testing.T) {
 		}
 	}
 }
+
+func BenchmarkHybridAll(b *testing.B) {
+	ref, cmp := gaussianSides(9, 50_000, [2]float64{0.8, 1.2})
+	names := []string{metrics.NameFPR, metrics.NameFNR}
+	for _, tc := range []struct {
+		name  string
+		sides []*sideEstimate
+	}{{"reference", []*sideEstimate{ref}}, {"comparison", []*sideEstimate{cmp}}, {"both", []*sideEstimate{ref, cmp}}} {
+		b.Run(tc.name+"/k=2/n=50k", func(b *testing.B) {
+			for b.Loop() {
+				for _, e := range tc.sides {
+					e.essAt = nil // measure the effective sample sizes too
+				}
+				if _, err := hybridAll(tc.sides, names, 0.5, EngineOptions{}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
