@@ -28,7 +28,7 @@ func TestMain(m *testing.M) {
 }
 
 // demoDir runs `gapwise demo` once per test binary and returns its folder.
-func demoDir(t *testing.T) string {
+func demoDir(t testing.TB) string {
 	t.Helper()
 	sharedOnce.Do(func() {
 		shared, sharedErr = os.MkdirTemp("", "gapwise-cmd-test-")
