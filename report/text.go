@@ -14,8 +14,9 @@ import (
 // WriteText renders res as a plain-text report for a terminal: the groups
 // and their sizes; per metric the reference and comparison values, the gap,
 // each mechanism's contribution (Shapley value), its effect alone v({i}) and
-// the gap if it alone were equalised v(N∖{i}), and the residual
-// gap − Σ contributions; then per-mechanism diagnostics, warnings and the
+// the gap if it alone were equalised v(N∖{i}) (with the Monte Carlo
+// standard error when the values were sampled), the residual
+// gap − Σ contributions and the effective records behind the estimate; then per-mechanism diagnostics, warnings and the
 // assumptions under which the numbers hold. Columns are aligned; metric
 // values print with four decimals, differences with a sign. NaN prints as
 // "n/a". It returns the first write error.
@@ -70,12 +71,17 @@ func (t *textWriter) metric(m fairness.MetricResult) {
 	vals.write(t.w, "  ")
 	t.line("")
 
-	hasCI := false
+	hasCI, hasSE := false, false
 	for _, c := range m.Contributions {
 		hasCI = hasCI || (c.CILow != nil && c.CIHigh != nil)
+		hasSE = hasSE || c.StdError != nil
 	}
 	head := []string{"mechanism", "contribution", "alone", "gap if equalised"}
 	right := []bool{false, true, true, true}
+	if hasSE {
+		head = append(head, "std error")
+		right = append(right, true)
+	}
 	if hasCI {
 		head = append(head, "95% interval")
 		right = append(right, true)
@@ -83,6 +89,13 @@ func (t *textWriter) metric(m fairness.MetricResult) {
 	tab := textTable{header: head, right: right}
 	for _, c := range m.Contributions {
 		row := []string{c.Mechanism, signed(c.Value), signed(c.Alone), signed(c.IfEqualised)}
+		if hasSE {
+			se := ""
+			if c.StdError != nil {
+				se = fixed(*c.StdError)
+			}
+			row = append(row, se)
+		}
 		if hasCI {
 			ci := ""
 			if c.CILow != nil && c.CIHigh != nil {
@@ -99,6 +112,9 @@ func (t *textWriter) metric(m fairness.MetricResult) {
 	tab.add(sum...)
 	tab.add(res...)
 	tab.write(t.w, "  ")
+	if m.EffectiveRecords > 0 {
+		t.line("  effective records behind the estimated gap: %.1f", m.EffectiveRecords)
+	}
 	t.line("")
 }
 

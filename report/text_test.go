@@ -121,6 +121,27 @@ func TestWriteTextNoIntervalsNoWarnings(t *testing.T) {
 	}
 }
 
+// TestWriteTextSampledShapley: sampled Shapley values show their standard
+// error, and the effective records behind the estimate are printed.
+func TestWriteTextSampledShapley(t *testing.T) {
+	res := handResult()
+	res.Metrics[0].EffectiveRecords = 812.4
+	for j := range res.Metrics[0].Contributions {
+		res.Metrics[0].Contributions[j].StdError = ptr(0.0012 * float64(j+1))
+	}
+	var b bytes.Buffer
+	_ = WriteText(&b, res)
+	out := b.String()
+	for _, want := range []string{"std error", "+0.0610  +0.0580           +0.0200     0.0036", "effective records behind the estimated gap: 812.4"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("missing %q in\n%s", want, out)
+		}
+	}
+	if strings.Count(out, "std error") != 1 {
+		t.Errorf("std error column shown for a metric without sampled values:\n%s", out)
+	}
+}
+
 // textFailWriter fails every write.
 type textFailWriter struct{}
 
