@@ -34,7 +34,8 @@ func (t Term) String() string {
 	}
 }
 
-// columnScale is the weighted location and scale of one column:
+// columnScale is the weighted location and scale of one column (over all
+// rows, weights w_i, nil meaning 1):
 //
 //	mean = Σ w_i x_i / Σ w_i,   sd = sqrt(Σ w_i (x_i − mean)² / Σ w_i)
 //
@@ -45,65 +46,6 @@ type columnScale struct {
 	mean, sd float64
 	constant bool
 	binary   bool // two distinct values over the rows with w_i > 0
-}
-
-// scaleColumn computes the columnScale of the n values v[i*stride], i < n,
-// with optional weights w (nil means all 1) whose sum sw is positive. The
-// binary flag is computed only if checkBinary is set.
-func scaleColumn(v []float64, stride, n int, w []float64, sw float64, checkBinary bool) columnScale {
-	var s columnScale
-	first := true
-	lo, hi := 0.0, 0.0
-	for i := 0; i < n; i++ {
-		wi := 1.0
-		if w != nil {
-			if wi = w[i]; wi == 0 {
-				continue
-			}
-		}
-		x := v[i*stride]
-		if first || x < lo {
-			lo = x
-		}
-		if first || x > hi {
-			hi = x
-		}
-		first = false
-		s.mean += wi * x
-	}
-	s.mean /= sw
-	if lo == hi {
-		s.constant = true
-		s.mean, s.sd = lo, 1
-		return s
-	}
-	var ss float64
-	for i := 0; i < n; i++ {
-		d := v[i*stride] - s.mean
-		if w == nil {
-			ss += d * d
-		} else {
-			ss += w[i] * d * d
-		}
-	}
-	s.sd = math.Sqrt(ss / sw)
-	if !checkBinary {
-		return s
-	}
-	// Binary means two distinct values over the rows with positive weight:
-	// the square of such a column is there an affine function of the column
-	// itself and would duplicate it.
-	s.binary = true
-	for i := 0; i < n; i++ {
-		if w != nil && w[i] == 0 {
-			continue
-		}
-		if x := v[i*stride]; x != lo && x != hi {
-			s.binary = false
-			break
-		}
-	}
-	return s
 }
 
 // design is a term-major design matrix: column k occupies
@@ -127,22 +69,68 @@ type basis struct {
 	termScale []columnScale // nil for the linear basis
 }
 
-// standardiseRaw checks x, w and computes the per-column scales.
-// It returns the indices of the non-constant columns.
-func standardiseRaw(x *mat.Dense, w []float64, sw float64) ([]columnScale, []int) {
+// rawDesign builds the linear design of x: the intercept column and the
+// standardised non-constant raw columns, in column order. It returns the
+// design, the scales of all p raw columns (see columnScale), and the
+// indices of the non-constant ("active") columns.
+func rawDesign(x *mat.Dense, w []float64, sw float64) (*design, []columnScale, []int) {
 	n, p := x.Dims()
-	raw := x.RawMatrix()
-	scales := make([]columnScale, p)
-	var active []int
-	forEachIndex(p, func(c int) {
-		scales[c] = scaleColumn(raw.Data[c:], raw.Stride, n, w, sw, true)
+	rm := x.RawMatrix()
+	cols := make([]float64, (1+p)*n)
+	// Transpose in row blocks (each block writes its own rows of every
+	// column), then scale each column on its own.
+	logisticBlocks(n, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			for c, v := range rm.Data[i*rm.Stride : i*rm.Stride+p] {
+				cols[(1+c)*n+i] = v
+			}
+		}
 	})
+	scales := make([]columnScale, p)
+	forEachIndex(p, func(c int) {
+		col := cols[(1+c)*n : (2+c)*n]
+		binary := twoValued(col, w)
+		scales[c] = standardiseInPlace(col, w, sw)
+		scales[c].binary = binary && !scales[c].constant
+	})
+	var active []int
 	for c := 0; c < p; c++ {
-		if !scales[c].constant {
-			active = append(active, c)
+		if scales[c].constant {
+			continue
+		}
+		if a := 1 + len(active); a != 1+c {
+			copy(cols[a*n:(a+1)*n], cols[(1+c)*n:(2+c)*n])
+		}
+		active = append(active, c)
+	}
+	z := &design{n: n, d: 1 + len(active), cols: cols[:(1+len(active))*n]}
+	ones := z.col(0)
+	for i := range ones {
+		ones[i] = 1
+	}
+	return z, scales, active
+}
+
+// twoValued reports whether v takes at most two distinct values over the
+// rows with positive weight (w nil means all 1).
+func twoValued(v, w []float64) bool {
+	var a, b float64
+	k := 0
+	for i, x := range v {
+		if w != nil && w[i] == 0 {
+			continue
+		}
+		switch {
+		case k > 0 && x == a, k > 1 && x == b:
+		case k == 0:
+			a, k = x, 1
+		case k == 1:
+			b, k = x, 2
+		default:
+			return false
 		}
 	}
-	return scales, active
+	return true
 }
 
 // interactionSet returns the raw columns whose squares and pairwise
@@ -155,18 +143,14 @@ func interactionSet(z *design, active []int, y, w []float64, k int) []int {
 	if len(active) <= k {
 		return active
 	}
+	wy := y
+	if w != nil {
+		wy = make([]float64, len(y))
+		floats.MulTo(wy, w, y)
+	}
 	score := make([]float64, len(active))
 	for a := range active {
-		col := z.col(1 + a)
-		var s float64
-		for i, v := range col {
-			wi := 1.0
-			if w != nil {
-				wi = w[i]
-			}
-			s += wi * v * y[i]
-		}
-		score[a] = math.Abs(s)
+		score[a] = math.Abs(floats.Dot(z.col(1+a), wy))
 	}
 	order := make([]int, len(active))
 	for a := range order {
@@ -180,26 +164,6 @@ func interactionSet(z *design, active []int, y, w []float64, k int) []int {
 		out[i] = active[a]
 	}
 	return out
-}
-
-// linearDesign builds the intercept and the standardised active columns.
-func linearDesign(x *mat.Dense, raw []columnScale, active []int) *design {
-	n, _ := x.Dims()
-	rm := x.RawMatrix()
-	z := &design{n: n, d: 1 + len(active), cols: make([]float64, (1+len(active))*n)}
-	ones := z.col(0)
-	for i := range ones {
-		ones[i] = 1
-	}
-	forEachIndex(len(active), func(a int) {
-		c := active[a]
-		col := z.col(1 + a)
-		m, s := raw[c].mean, raw[c].sd
-		for i := range col {
-			col[i] = (rm.Data[i*rm.Stride+c] - m) / s
-		}
-	})
-	return z
 }
 
 // expandTerms lists the expanded terms in design order: originals of the
@@ -307,11 +271,10 @@ func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w 
 	return z, kept, keptScales
 }
 
-// standardiseInPlace replaces v by (v − mean)/sd with the weighted mean and
-// population sd of scaleColumn, and returns them. A column constant over
-// the rows with positive weight is left as is and reported constant. It is
-// the contiguous fast path of scaleColumn for the expanded terms (same
-// formulas, vectorised: two passes over v instead of four).
+// standardiseInPlace replaces v by (v − mean)·(1/sd) with the weighted
+// mean and population sd of columnScale, and returns them. A column
+// constant over the rows with positive weight is left as is and reported
+// constant (binary is not set here).
 func standardiseInPlace(v, w []float64, sw float64) columnScale {
 	var s columnScale
 	ref, found, varying := 0.0, false, false

@@ -23,10 +23,10 @@ func TestTermString(t *testing.T) {
 	}
 }
 
-// TestScaleColumn: weighted mean and population sd by hand (analytic):
-// values 1, 2, 4 with weights 1, 1, 2 have mean 11/4 and variance
-// (1.75² + 0.75² + 2·1.25²)/4 = 1.6875.
-func TestScaleColumn(t *testing.T) {
+// TestStandardiseInPlace: weighted mean and population sd by hand
+// (analytic): values 1, 2, 4 with weights 1, 1, 2 have mean 11/4 and
+// variance (1.75² + 0.75² + 2·1.25²)/4 = 1.6875.
+func TestStandardiseInPlace(t *testing.T) {
 	for _, tc := range []struct {
 		name     string
 		v, w     []float64
@@ -37,7 +37,7 @@ func TestScaleColumn(t *testing.T) {
 		{"weighted", []float64{1, 2, 4}, []float64{1, 1, 2}, 2.75, math.Sqrt(1.6875), false, false},
 		{"binary", []float64{0, 1, 1, 0}, nil, 0.5, 0.5, false, true},
 		{"binary on weighted rows", []float64{0, 1, 7, 0}, []float64{1, 1, 0, 1}, 1.0 / 3, math.Sqrt(2.0 / 9), false, true},
-		{"constant on weighted rows", []float64{3, 3, 9}, []float64{1, 2, 0}, 3, 1, true, false},
+		{"constant on weighted rows", []float64{3, 3, 9}, []float64{1, 2, 0}, 3, 1, true, true},
 	} {
 		var sw float64
 		for i := range tc.v {
@@ -47,9 +47,19 @@ func TestScaleColumn(t *testing.T) {
 				sw += tc.w[i]
 			}
 		}
-		s := scaleColumn(tc.v, 1, len(tc.v), tc.w, sw, true)
-		if math.Abs(s.mean-tc.mean) > 1e-15 || math.Abs(s.sd-tc.sd) > 1e-15 || s.constant != tc.constant || s.binary != tc.binary {
-			t.Errorf("%s: got %+v, want mean %v sd %v constant %v binary %v", tc.name, s, tc.mean, tc.sd, tc.constant, tc.binary)
+		v := append([]float64(nil), tc.v...)
+		binary := twoValued(v, tc.w)
+		s := standardiseInPlace(v, tc.w, sw)
+		if math.Abs(s.mean-tc.mean) > 1e-15 || math.Abs(s.sd-tc.sd) > 1e-15 || s.constant != tc.constant || binary != tc.binary {
+			t.Errorf("%s: got %+v binary %v, want mean %v sd %v constant %v binary %v", tc.name, s, binary, tc.mean, tc.sd, tc.constant, tc.binary)
+		}
+		if s.constant {
+			continue
+		}
+		for i, x := range v {
+			if want := (tc.v[i] - tc.mean) / tc.sd; math.Abs(x-want) > 1e-14 {
+				t.Errorf("%s: row %d standardised to %v, want %v", tc.name, i, x, want)
+			}
 		}
 	}
 }
@@ -78,8 +88,7 @@ func TestExpandTermsOneHot(t *testing.T) {
 		1.2, 0, 1,
 	})
 	y := []float64{0, 1, 0, 1, 0, 1}
-	raw, active := standardiseRaw(x, nil, 6)
-	lin := linearDesign(x, raw, active)
+	lin, raw, active := rawDesign(x, nil, 6)
 	inter := interactionSet(lin, active, y, nil, 8)
 	_, terms, _ := expandDesign(lin, raw, active, expandTerms(raw, active, inter), nil, 6)
 	want := []Term{{0, -1}, {1, -1}, {2, -1}, {0, 0}, {0, 1}, {0, 2}}
@@ -98,8 +107,7 @@ func TestInteractionSetRanking(t *testing.T) {
 		1, 0, 0.5,
 	})
 	y := []float64{0, 1, 0, 1} // equals column 0; column 1 = 1 − y; column 2 weaker
-	raw, active := standardiseRaw(x, nil, 4)
-	lin := linearDesign(x, raw, active)
+	lin, _, active := rawDesign(x, nil, 4)
 	if got := interactionSet(lin, active, y, nil, 2); !reflect.DeepEqual(got, []int{0, 1}) {
 		t.Errorf("interaction set %v, want [0 1]", got)
 	}

@@ -73,8 +73,7 @@ func (l Linear) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	if err != nil {
 		return nil, err
 	}
-	raw, active := standardiseRaw(x, w, sw)
-	z := linearDesign(x, raw, active)
+	z, raw, active := rawDesign(x, w, sw)
 	terms := make([]Term, len(active))
 	for a, c := range active {
 		terms[a] = Term{c, -1}
@@ -136,8 +135,7 @@ func (e Expanded) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) 
 	if e.MaxInteract < 1 {
 		return nil, fmt.Errorf("classify: expanded: MaxInteract must be ≥ 1, got %d: %w", e.MaxInteract, ErrBadInput)
 	}
-	raw, active := standardiseRaw(x, w, sw)
-	lin := linearDesign(x, raw, active)
+	lin, raw, active := rawDesign(x, w, sw)
 	inter := interactionSet(lin, active, y, w, e.MaxInteract)
 	z, terms, scales := expandDesign(lin, raw, active, expandTerms(raw, active, inter), w, sw)
 	b := &basis{p: x.RawMatrix().Cols, raw: raw, terms: terms, termScale: scales}
@@ -173,9 +171,17 @@ func checkLogisticInput(name string, lambda float64, x *mat.Dense, y, w []float6
 		if y[i] != 0 && y[i] != 1 {
 			return 0, fmt.Errorf("classify: %s: row %d: target %v is not 0 or 1: %w", name, i, y[i], ErrBadInput)
 		}
-		for c, v := range raw.Data[i*raw.Stride : i*raw.Stride+p] {
-			if math.IsNaN(v) || math.IsInf(v, 0) {
-				return 0, fmt.Errorf("classify: %s: row %d, column %d: feature %v is not finite: %w", name, i, c, v, ErrBadInput)
+		// v·0 is 0 for finite v and NaN for ±Inf and NaN: one multiply-add
+		// per value; the offending value is located only on failure.
+		var nonFinite float64
+		for _, v := range raw.Data[i*raw.Stride : i*raw.Stride+p] {
+			nonFinite += v * 0
+		}
+		if nonFinite != 0 {
+			for c, v := range raw.Data[i*raw.Stride : i*raw.Stride+p] {
+				if math.IsNaN(v) || math.IsInf(v, 0) {
+					return 0, fmt.Errorf("classify: %s: row %d, column %d: feature %v is not finite: %w", name, i, c, v, ErrBadInput)
+				}
 			}
 		}
 		sw += wi
@@ -196,24 +202,41 @@ func checkLogisticInput(name string, lambda float64, x *mat.Dense, y, w []float6
 // every-s-th-row subsample (s = ⌊n/logisticWarmRows⌋, penalty λ/s so the
 // objective keeps its scale) to a loose tolerance, and the full-data Newton
 // iteration starts from there: this saves about half of the full-data
-// iterations. The returned minimiser and the stopping test are those of the
+// iterations. For wide designs (≥ lagHessianMinCols columns) the full-data
+// iteration also takes its Hessian from that subsample, scaled by s
+// (subsampled Newton; Byrd, Chin, Neveitt & Nocedal 2011, "On the use of
+// stochastic Hessian information in optimization methods for machine
+// learning", cited from memory), as d(d+1)/2 products per row then cost
+// more than the extra iterations. Function values and gradients are always
+// exact, so the returned minimiser and the stopping test are those of the
 // full objective.
 func fitLogistic(name string, b *basis, z *design, y, w []float64, sw, lambda float64) (*LogisticModel, error) {
 	theta := make([]float64, z.d)
 	theta[0] = math.Log(weightedSum(y, w) / (sw - weightedSum(y, w)))
 	iters := 0
+	var hsub *logisticObjective
 	if s := z.n / logisticWarmRows; s >= 4 {
 		sz, sy, sws := subsampleRows(z, y, w, s)
 		ssw := weightedSum(nil, sws)
 		if sy1 := weightedSum(sy, sws); sy1 > 0 && sy1 < ssw {
-			th, it, err := newtonMinimise(sz, sy, sws, lambda/float64(s), theta, logisticWarmTol*ssw)
+			sub := newLogisticObjective(sz, sy, sws, lambda/float64(s))
+			th, it, err := newtonMinimise(sub, theta, logisticWarmTol*ssw)
 			iters += it
 			if err == nil {
 				theta = th
+				if z.d >= lagHessianMinCols {
+					hsub = sub
+					hsub.hscale = float64(s)
+				}
 			}
 		}
 	}
-	theta, it, err := newtonMinimise(z, y, w, lambda, theta, logisticGradTol*sw)
+	full := newLogisticObjective(z, y, w, lambda)
+	full.hsub = hsub
+	if hsub != nil {
+		full.hscale = hsub.hscale
+	}
+	theta, it, err := newtonMinimise(full, theta, logisticGradTol*sw)
 	iters += it
 	if err != nil {
 		return nil, fmt.Errorf("classify: %s: %w", name, err)
@@ -265,8 +288,8 @@ func subsampleRows(z *design, y, w []float64, s int) (*design, []float64, []floa
 // theta0 until ‖∇L‖_∞ < gtol. Near the optimum the line search may stop on
 // rounding noise in L before the gradient test fires; such a point is
 // accepted when ‖∇L‖_∞ < gtol·logisticGradFloor/logisticGradTol.
-func newtonMinimise(z *design, y, w []float64, lambda float64, theta0 []float64, gtol float64) ([]float64, int, error) {
-	obj := newLogisticObjective(z, y, w, lambda)
+func newtonMinimise(obj *logisticObjective, theta0 []float64, gtol float64) ([]float64, int, error) {
+	z := obj.z
 	obj.gtol = gtol
 	prob := optimize.Problem{Func: obj.Func, Grad: obj.Grad, Hess: obj.Hess}
 	settings := &optimize.Settings{

@@ -96,6 +96,12 @@ type logisticObjective struct {
 	// previous point where the Hessian was requested.
 	lastHess  []float64
 	prevGnorm float64
+	// hsub, if set, supplies the data Hessian from a row subsample,
+	// scaled by hscale (see fitLogistic). It is computed once and kept
+	// while each step at least halves ‖∇L‖_∞; otherwise Hess falls back
+	// to the full data for good.
+	hsub   *logisticObjective
+	hscale float64
 }
 
 func newLogisticObjective(z *design, y, w []float64, lambda float64) *logisticObjective {
@@ -246,7 +252,16 @@ func (o *logisticObjective) Hess(hess *mat.SymDense, theta []float64) {
 	}
 	// Reuse the last data Hessian while the previous step still cut the
 	// gradient at least tenfold (see the type comment).
-	if o.lastHess == nil || d < lagHessianMinCols || !(o.gnorm < 0.1*o.prevGnorm) {
+	switch {
+	case o.lastHess == nil && o.hsub != nil:
+		o.hsub.update(theta)
+		o.lastHess = o.hsub.dataHessian()
+		floats.Scale(o.hscale, o.lastHess)
+	case o.hsub != nil && o.gnorm < 0.5*o.prevGnorm:
+		// Keep the subsample Hessian: its error is sampling noise, which
+		// recomputing on the same rows would not reduce.
+	case o.lastHess == nil || d < lagHessianMinCols || !(o.gnorm < 0.1*o.prevGnorm):
+		o.hsub = nil
 		o.lastHess = o.dataHessian()
 	}
 	o.prevGnorm = o.gnorm
