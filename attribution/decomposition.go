@@ -15,6 +15,9 @@ type Options struct {
 	// values are computed exactly over all 2^k coalitions; above it they
 	// are estimated by permutation sampling. 0 means DefaultExactLimit.
 	ExactLimit int
+	// MaxFitRows caps the training records of each classifier fit; see
+	// RatioOptions.MaxFitRows.
+	MaxFitRows int
 	// Sampling tunes the permutation sampling used above ExactLimit; its
 	// Seed is ignored (Options.Seed is used).
 	Sampling SamplingOptions

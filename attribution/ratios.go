@@ -3,11 +3,10 @@ package attribution
 import (
 	"fmt"
 	"math"
-	"runtime"
+	"math/rand/v2"
 	"sort"
 	"strconv"
 	"strings"
-	"sync"
 
 	"github.com/gapwise/gapwise/attribution/classify"
 	"gonum.org/v1/gonum/mat"
@@ -19,6 +18,9 @@ type RatioOptions struct {
 	Seed     uint64             // drives fold assignment and learners
 	Learners []classify.Learner // candidates, chosen per column set by out-of-fold log loss
 	Workers  int                // goroutines; 0 means GOMAXPROCS
+	// MaxFitRows caps the training records of each fit (a stratified
+	// subsample); 0 means DefaultMaxFitRows, negative means no cap.
+	MaxFitRows int
 }
 
 // MechanismRatio is the estimated density ratio of one mechanism.
@@ -29,7 +31,7 @@ type MechanismRatio struct {
 	LogRatio      []float64
 	Learner       string        // chosen for (node, parents)
 	ParentLearner string        // chosen for parents; "prior" for a root
-	Losses        []LearnerLoss // out-of-fold log loss of each candidate on (node, parents)
+	Losses        []LearnerLoss // held-out log loss of each candidate on (node, parents): fold 0 when there was a choice, all folds otherwise
 	JointLogOdds  []float64     // out-of-fold logit P(cmp | node, parents) of the chosen learner
 
 	jointKey, parentKey string // column-set keys, for reusing the learner choice
@@ -160,20 +162,19 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen map[s
 	return out, nil
 }
 
-// fitAll fits every (column set, learner, fold) in parallel and fills the
-// out-of-fold log-odds and losses. Each job writes only its own fold's rows,
-// so the result does not depend on scheduling.
+// fitAll fits the classifiers of every column set and fills the
+// out-of-fold log-odds of the chosen learner. With several candidate
+// learners, each is first fitted on the training part of fold 0 and scored
+// on fold 0's held-out records (log loss and odds self-check); the chosen
+// one is then fitted on the remaining folds. Every fit sees at most
+// opt.MaxFitRows training records, a subsample stratified by group and
+// shared by all column sets of a fold, so that the joint and parent
+// classifiers share one class prior. Jobs run in parallel; each writes only
+// its own slots and is seeded by its (set, learner, fold), so the result
+// does not depend on scheduling.
 func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt RatioOptions) error {
 	nl := len(opt.Learners)
 	n := len(y)
-	for _, f := range sets {
-		f.logOdds = make([][]float64, nl)
-		for l := range f.logOdds {
-			f.logOdds[l] = make([]float64, n)
-		}
-		f.losses = make([]float64, nl)
-	}
-	// Row lists per fold.
 	test := make([][]int, k)
 	train := make([][]int, k)
 	for r, fo := range folds {
@@ -185,80 +186,140 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 			}
 		}
 	}
-	type job struct{ set, learner, fold int }
-	var jobs []job
-	for si := range sets {
-		for l := 0; l < nl; l++ {
-			if sets[si].only >= 0 && sets[si].only != l {
-				continue
-			}
-			for fo := 0; fo < k; fo++ {
-				jobs = append(jobs, job{si, l, fo})
-			}
-		}
+	limit := opt.MaxFitRows
+	if limit == 0 {
+		limit = DefaultMaxFitRows
 	}
-	errs := make([]error, len(jobs))
-	workers := opt.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
-	var wg sync.WaitGroup
-	next := make(chan int)
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for ji := range next {
-				jb := jobs[ji]
-				f := sets[jb.set]
-				xtr := subMatrix(x, train[jb.fold], f.cols)
-				ytr := make([]float64, len(train[jb.fold]))
-				for a, r := range train[jb.fold] {
-					ytr[a] = y[r]
-				}
-				seed := opt.Seed*1000003 + uint64(ji)
-				model, err := opt.Learners[jb.learner].Fit(xtr, ytr, nil, seed)
-				if err != nil {
-					errs[ji] = fmt.Errorf("attribution: fitting %s on columns %v, fold %d: %w", opt.Learners[jb.learner].Name(), f.cols, jb.fold, err)
-					continue
-				}
-				xte := subMatrix(x, test[jb.fold], f.cols)
-				dst := make([]float64, len(test[jb.fold]))
-				model.LogOdds(xte, dst)
-				for a, r := range test[jb.fold] {
-					f.logOdds[jb.learner][r] = dst[a]
-				}
-			}
-		}()
-	}
-	for ji := range jobs {
-		next <- ji
-	}
-	close(next)
-	wg.Wait()
-	for _, err := range errs {
-		if err != nil {
-			return err
-		}
+	for fo := range train {
+		train[fo] = stratifiedSubsample(train[fo], y, limit, opt.Seed, fo)
 	}
 	for _, f := range sets {
+		f.logOdds = make([][]float64, nl)
+		f.losses = make([]float64, nl)
 		f.oddsMean = make([]float64, nl)
 		for l := range f.losses {
-			if f.only >= 0 && f.only != l {
-				f.losses[l] = math.NaN()
-				f.oddsMean[l] = math.NaN()
-				continue
+			f.losses[l], f.oddsMean[l] = math.NaN(), math.NaN()
+		}
+	}
+	type job struct{ set, learner, fold int }
+	run := func(jobs []job) error {
+		errs := make([]error, len(jobs))
+		parallelFor(opt.Workers, len(jobs), func(_, ji int) {
+			jb := jobs[ji]
+			f := sets[jb.set]
+			tr := train[jb.fold]
+			xtr := subMatrix(x, tr, f.cols)
+			ytr := pick(y, tr)
+			seed := opt.Seed*1000003 + uint64((jb.set*nl+jb.learner)*k+jb.fold)
+			model, err := opt.Learners[jb.learner].Fit(xtr, ytr, nil, seed)
+			if err != nil {
+				errs[ji] = fmt.Errorf("attribution: fitting %s on columns %v, fold %d: %w", opt.Learners[jb.learner].Name(), f.cols, jb.fold, err)
+				return
 			}
-			f.losses[l] = meanLogLoss(y, f.logOdds[l])
-			f.oddsMean[l] = oddsCalibration(y, f.logOdds[l])
+			dst := make([]float64, len(test[jb.fold]))
+			model.LogOdds(subMatrix(x, test[jb.fold], f.cols), dst)
+			lo := f.logOdds[jb.learner]
+			for a, r := range test[jb.fold] {
+				lo[r] = dst[a]
+			}
+		})
+		for _, err := range errs {
+			if err != nil {
+				return err
+			}
 		}
-		best := f.only
-		if best < 0 {
-			best = selectLearner(f.losses, f.oddsMean)
+		return nil
+	}
+
+	// Phase 1: model selection on fold 0 where there is a choice.
+	var jobs []job
+	for si, f := range sets {
+		if f.only < 0 && nl > 1 {
+			for l := 0; l < nl; l++ {
+				f.logOdds[l] = make([]float64, n)
+				jobs = append(jobs, job{si, l, 0})
+			}
 		}
-		f.best = best
+	}
+	if err := run(jobs); err != nil {
+		return err
+	}
+	y0 := pick(y, test[0])
+	for _, f := range sets {
+		switch {
+		case f.only >= 0:
+			f.best = f.only
+		case nl == 1:
+			f.best = 0
+		default:
+			for l := 0; l < nl; l++ {
+				z0 := pick(f.logOdds[l], test[0])
+				f.losses[l] = meanLogLoss(y0, z0)
+				f.oddsMean[l] = oddsCalibration(y0, z0)
+			}
+			f.best = selectLearner(f.losses, f.oddsMean)
+		}
+	}
+	// Phase 2: the chosen learner on the folds it has not covered yet.
+	jobs = jobs[:0]
+	for si, f := range sets {
+		from := 0
+		if f.logOdds[f.best] != nil {
+			from = 1 // fold 0 done in phase 1
+		} else {
+			f.logOdds[f.best] = make([]float64, n)
+		}
+		for fo := from; fo < k; fo++ {
+			jobs = append(jobs, job{si, f.best, fo})
+		}
+	}
+	if err := run(jobs); err != nil {
+		return err
+	}
+	for _, f := range sets {
+		if math.IsNaN(f.losses[f.best]) {
+			f.losses[f.best] = meanLogLoss(y, f.logOdds[f.best])
+			f.oddsMean[f.best] = oddsCalibration(y, f.logOdds[f.best])
+		}
+		for l := range f.logOdds {
+			if l != f.best {
+				f.logOdds[l] = nil
+			}
+		}
 	}
 	return nil
+}
+
+// DefaultMaxFitRows is the default RatioOptions.MaxFitRows.
+const DefaultMaxFitRows = 50_000
+
+// stratifiedSubsample returns rows unchanged when there are at most limit of
+// them; otherwise a subset of limit rows that keeps each class's share
+// (rounded), drawn without replacement by a PCG stream seeded by (seed,
+// fold), in ascending row order.
+func stratifiedSubsample(rows []int, y []float64, limit int, seed uint64, fold int) []int {
+	if limit <= 0 || len(rows) <= limit {
+		return rows
+	}
+	var byClass [2][]int
+	for _, r := range rows {
+		c := 0
+		if y[r] == 1 {
+			c = 1
+		}
+		byClass[c] = append(byClass[c], r)
+	}
+	rng := rand.New(rand.NewPCG(seed, 0x5eed0000+uint64(fold)))
+	want1 := int(math.Round(float64(limit) * float64(len(byClass[1])) / float64(len(rows))))
+	want := [2]int{limit - want1, want1}
+	var out []int
+	for c := range byClass {
+		idx := byClass[c]
+		rng.Shuffle(len(idx), func(a, b int) { idx[a], idx[b] = idx[b], idx[a] })
+		out = append(out, idx[:want[c]]...)
+	}
+	sort.Ints(out)
+	return out
 }
 
 // meanLogLoss is the mean of log(1+exp(−z)) for y=1 and log(1+exp(z)) for
