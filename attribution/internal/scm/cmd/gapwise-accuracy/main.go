@@ -32,6 +32,7 @@ type options struct {
 	seed     uint64
 	detail   bool // also print per-metric, per-mechanism error and SD
 	sides    bool // compare estimation sides instead of learners (sides.go)
+	truth    bool // also print the ground-truth decompositions
 }
 
 func main() {
@@ -61,10 +62,11 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	seed := fs.Uint64("seed", 1, "seed of the samples and the ground-truth simulation")
 	detail := fs.Bool("detail", false, "also print mean error, RMSE and SD per metric and mechanism")
 	sides := fs.Bool("sides", false, "compare estimation sides (reference, comparison, both) with the first -learners choice instead of comparing learners")
+	truth := fs.Bool("truth", false, "also print the ground-truth gap and contributions of every case")
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
 	}
-	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides}
+	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth}
 	for _, f := range split(*sizes) {
 		n, err := strconv.Atoi(f)
 		if err != nil || n < 100 {

@@ -8,7 +8,7 @@ import (
 )
 
 func TestRunWritesTable(t *testing.T) {
-	opt, err := parseFlags([]string{"-sizes", "400,800", "-reps", "1", "-truth-n", "8192", "-cases", "prevalence", "-learners", "linear,linear+expanded", "-detail"}, io.Discard)
+	opt, err := parseFlags([]string{"-sizes", "400,800", "-reps", "1", "-truth-n", "8192", "-cases", "prevalence", "-learners", "linear,linear+expanded", "-detail", "-truth"}, io.Discard)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -17,14 +17,14 @@ func TestRunWritesTable(t *testing.T) {
 		t.Fatal(err)
 	}
 	text := out.String()
-	for _, want := range []string{"| case | learner | n = 400 | n = 800 |", "| prevalence | linear |", "| prevalence | linear+expanded |", "| prevalence | linear | 400 | fnr | disease |"} {
+	for _, want := range []string{"| case | learner | n = 400 | n = 800 |", "| prevalence | linear |", "| prevalence | linear+expanded |", "| prevalence | linear | 400 | fnr | disease |", "| case | metric | gap | age | site | disease |"} {
 		if !strings.Contains(text, want) {
 			t.Errorf("output lacks %q:\n%s", want, text)
 		}
 	}
-	// 2 summary rows + 2 learners × 2 sizes × 4 metrics × (6 mechanisms +
-	// residual) detail rows.
-	if got, want := strings.Count(text, "\n| prevalence |"), 2+2*2*4*7; got != want {
+	// 2 summary rows + 4 truth rows + 2 learners × 2 sizes × 4 metrics ×
+	// (6 mechanisms + residual) detail rows.
+	if got, want := strings.Count(text, "\n| prevalence |"), 2+4+2*2*4*7; got != want {
 		t.Errorf("%d table rows, want %d", got, want)
 	}
 }

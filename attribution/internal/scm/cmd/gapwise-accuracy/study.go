@@ -33,11 +33,13 @@ func run(opt options, stdout, stderr io.Writer) error {
 		return err
 	}
 	var cells []cell
+	truths := make([][]scm.Truth, len(cases))
 	for ci, c := range cases {
 		truth, err := scm.GroundTruth(c.Model, opt.metrics, opt.truthN, opt.seed^0x7275746800000000, scm.ScreeningThreshold, metrics.DefaultECEBins)
 		if err != nil {
 			return err
 		}
+		truths[ci] = truth
 		for _, choice := range opt.learners {
 			learners, err := learnerSet(choice)
 			if err != nil {
@@ -80,6 +82,9 @@ func run(opt options, stdout, stderr io.Writer) error {
 		}
 	}
 	writeSummary(stdout, opt, cells)
+	if opt.truth {
+		writeTruth(stdout, opt, cases, truths)
+	}
 	if opt.detail {
 		writeDetail(stdout, opt, cases, cells)
 	}

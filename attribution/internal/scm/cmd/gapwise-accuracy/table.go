@@ -74,3 +74,28 @@ func moments(e []float64) (mean, rms, sd float64) {
 	}
 	return mean, math.Sqrt(ms), sd
 }
+
+// writeTruth prints each case's simulated gap and Shapley values with their
+// largest Monte Carlo standard error.
+func writeTruth(w io.Writer, opt options, cases []scm.Case, truths [][]scm.Truth) {
+	fmt.Fprint(w, "\nGround truth (simulated, common random numbers; φ per mechanism):\n\n| case | metric | gap |")
+	for _, n := range cases[0].Model.Nodes {
+		fmt.Fprintf(w, " %s |", n.Name)
+	}
+	fmt.Fprint(w, " max MC SE |\n|---|---|---|")
+	for range cases[0].Model.Nodes {
+		fmt.Fprint(w, "---|")
+	}
+	fmt.Fprint(w, "---|\n")
+	for ci, c := range cases {
+		for _, t := range truths[ci] {
+			fmt.Fprintf(w, "| %s | %s | %+.4f |", c.Name, t.Metric, t.Gap)
+			se := t.GapSE
+			for i, phi := range t.Shapley {
+				fmt.Fprintf(w, " %+.4f |", phi)
+				se = math.Max(se, t.SE[i])
+			}
+			fmt.Fprintf(w, " %.5f |\n", se)
+		}
+	}
+}
