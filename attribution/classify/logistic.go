@@ -46,7 +46,11 @@ const DefaultMaxInteract = 8
 //
 // The minimiser is found with Newton's method (gonum optimize.Newton with
 // the analytic gradient and Hessian) from β₀ = logit(ȳ_w), β = 0, and
-// stops when ‖∇L‖_∞ < 1e-9·Σ_i w_i. Under perfect separation λ > 0 keeps
+// stops when ‖∇L‖_∞ < 1e-9·Σ_i w_i. On large or wide inputs a subsample
+// warm start and a reused or subsampled Hessian save work; the gradient
+// and the stopping test are always exact. Work is split over goroutines in
+// fixed row blocks reduced in a fixed order, so the result does not depend
+// on GOMAXPROCS. Under perfect separation λ > 0 keeps
 // the minimiser finite. With λ = 0 separable data have no minimiser: the
 // gradient decays as the coefficients grow, and the iteration stops at
 // arbitrarily large ones (hundreds, on standardised columns); use λ > 0.
