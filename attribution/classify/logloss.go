@@ -56,10 +56,7 @@ func softplus(z float64) float64 {
 //	∇²L  = Zᵀ diag(h) Z + λ Ĩ, h_i = w_i p_i (1 − p_i),
 //
 // where θ̃ and Ĩ zero the intercept entry. p_i(1−p_i) is computed as
-// e^{−|η|}/(1+e^{−|η|})², accurate in both tails. Here log(1+e^{−|η|}) is
-// evaluated as math.Log(1+a), not Log1p: its absolute error stays below a
-// few ulp of 1, which is all a sum of n terms can resolve, and it is
-// several times faster (assembly on amd64). Work is split in fixed row
+// e^{−|η|}/(1+e^{−|η|})², accurate in both tails. Work is split in fixed row
 // blocks (logisticBlocks) and reduced in block order, so results do not
 // depend on GOMAXPROCS. The per-row quantities of the last θ are cached,
 // because optimize evaluates Func, Grad and Hess at the same point in turn.
@@ -159,7 +156,7 @@ func (o *logisticObjective) update(theta []float64) {
 					p = a / (1 + a)
 				}
 				yi := o.y[g]
-				l := math.Log(1+a) - yi*et
+				l := math.Log1p(a) - yi*et
 				if et > 0 {
 					l += et
 				}
