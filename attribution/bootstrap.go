@@ -70,11 +70,11 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		}
 	}
 	g := splitGroups(s)
-	var logrRef [][]float64
+	var logRatio [][]float64
 	if bopt.KeepRatios {
-		logrRef = make([][]float64, len(ratios))
+		logRatio = make([][]float64, len(ratios))
 		for i, mr := range ratios {
-			logrRef[i] = pick(mr.LogRatio, g.refIdx)
+			logRatio[i] = mr.LogRatio
 		}
 	}
 
@@ -101,7 +101,7 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 				var md []MetricDecomposition
 				var err error
 				if bopt.KeepRatios {
-					md, err = replicateKeep(s, ri, ci, logrRef, g.refIdx, metricNames, inner)
+					md, err = replicateKeep(s, ri, ci, logRatio, metricNames, inner)
 				} else {
 					md, err = replicateRefit(s, mechs, ri, ci, metricNames, inner, chosen, uint64(b))
 				}
@@ -166,14 +166,11 @@ func resample(idx []int, rng *rand.Rand) []int {
 	return out
 }
 
-// replicateKeep recomputes a replicate from resampled records and their
-// fitted log-ratios. refPos maps Sample indices of reference records to
-// their position in logrRef.
-func replicateKeep(s *Sample, ri, ci []int, logrRef [][]float64, refIdx []int, metricNames []string, opt Options) ([]MetricDecomposition, error) {
-	pos := make(map[int]int, len(refIdx))
-	for p, i := range refIdx {
-		pos[i] = p
-	}
+// replicateKeep recomputes a replicate from resampled records (ri, ci:
+// Sample indices) and their already-fitted log-ratios (logRatio[i][r] for
+// every record r of the Sample), estimating from the side(s) opt.Side
+// selects with the same clipping as the point estimate.
+func replicateKeep(s *Sample, ri, ci []int, logRatio [][]float64, metricNames []string, opt Options) ([]MetricDecomposition, error) {
 	g := groupSplit{refIdx: ri, cmpIdx: ci}
 	g.refY, g.refS = pick(s.Labels, ri), pick(s.Scores, ri)
 	g.cmpY, g.cmpS = pick(s.Labels, ci), pick(s.Scores, ci)
@@ -181,14 +178,32 @@ func replicateKeep(s *Sample, ri, ci []int, logrRef [][]float64, refIdx []int, m
 	if err != nil {
 		return nil, err
 	}
-	logr := make([][]float64, len(logrRef))
-	for i := range logr {
-		logr[i] = make([]float64, len(ri))
-		for a, r := range ri {
-			logr[i][a] = logrRef[i][pos[r]]
+	side := opt.Side.resolve()
+	var sides []*sideEstimate
+	for _, sd := range []struct {
+		use  bool
+		side Side
+		idx  []int
+		y, s []float64
+	}{
+		{side != SideComparison, SideReference, ri, g.refY, g.refS},
+		{side != SideReference, SideComparison, ci, g.cmpY, g.cmpS},
+	} {
+		if !sd.use {
+			continue
 		}
+		logr := make([][]float64, len(logRatio))
+		for i := range logr {
+			logr[i] = pick(logRatio[i], sd.idx)
+			if opt.ClipQuantile != 0 {
+				if logr[i], _, err = ClipAtQuantiles(logr[i], opt.ClipQuantile); err != nil {
+					return nil, err
+				}
+			}
+		}
+		sides = append(sides, newSideEstimate(sd.side, sd.y, sd.s, logr))
 	}
-	if err := splitGaps(md, g.refY, g.refS, logr, opt); err != nil {
+	if err := splitGapsSides(md, sides, opt); err != nil {
 		return nil, err
 	}
 	return md, nil
