@@ -85,6 +85,9 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		return nil, decomposeError(spec, err)
 	}
 	r := buildResult(spec, d, dec, learners, opt)
+	if boot != nil {
+		r.Settings.Intervals = &IntervalSettings{Replicates: boot.Replicates, Level: boot.Level, KeepRatios: boot.KeepRatios, Failed: boot.Failed}
+	}
 	r.Details = Describe(d, spec.Threshold, spec.ECEBins)
 	r.Warnings = Warnings(r)
 	if boot != nil && boot.Failed > 0 {
@@ -125,6 +128,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 	groups := groupInfo(spec, d)
 	r := &Result{
 		Tool:      ToolInfo{Name: ToolName, Version: opt.Version},
+		Title:     spec.Title,
 		Groups:    groups,
 		Label:     spec.Label,
 		Score:     spec.Score,

@@ -192,6 +192,9 @@ func TestRunSumsAndObserved(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	if r.Settings.Intervals != nil || r.Title != "" {
+		t.Errorf("no bootstrap and no title asked for, got intervals %+v, title %q", r.Settings.Intervals, r.Title)
+	}
 	d, err := LoadData(spec)
 	if err != nil {
 		t.Fatal(err)
@@ -282,10 +285,16 @@ func TestRunDeterministic(t *testing.T) {
 // mechanism (one out-of-fold loss per candidate) and that bootstrap
 // intervals reach the result: an interval for every quantity, Low ≤ High.
 func TestRunAutoAndBootstrap(t *testing.T) {
-	spec := writeAudit(t, strings.Replace(smallSpec, "classifier: linear", "classifier: auto", 1), smallData(160))
-	r, err := Run(spec, RunOptions{Workers: 2, Bootstrap: 20, BootstrapKeepRatios: true})
+	spec := writeAudit(t, strings.Replace(smallSpec, "classifier: linear", "classifier: auto", 1)+"title: Small audit\n", smallData(160))
+	r, err := Run(spec, RunOptions{Workers: 2, Bootstrap: 20, BootstrapLevel: 0.9, BootstrapKeepRatios: true})
 	if err != nil {
 		t.Fatal(err)
+	}
+	if r.Title != "Small audit" {
+		t.Errorf("title %q", r.Title)
+	}
+	if got, want := r.Settings.Intervals, (IntervalSettings{Replicates: 20, Level: 0.9, KeepRatios: true}); got == nil || *got != want {
+		t.Errorf("settings.intervals %+v, want %+v", got, want)
 	}
 	want := strings.Join(r.Settings.Learners, ",")
 	if want != "linear,expanded,boosted" {

@@ -5,7 +5,9 @@ package fairness
 // JSON encoding is the tool's machine-readable contract; field names are
 // stable.
 type Result struct {
-	Tool       ToolInfo          `json:"tool"`
+	Tool ToolInfo `json:"tool"`
+	// Title is the spec's free-text title, shown by the reports.
+	Title      string            `json:"title,omitempty"`
 	Groups     GroupInfo         `json:"groups"`
 	Label      string            `json:"label"`
 	Score      string            `json:"score"`
@@ -54,6 +56,22 @@ type Settings struct {
 	// ExactLimit: Shapley values are exact up to this many mechanisms and
 	// sampled (with std_error) above.
 	ExactLimit int `json:"exact_limit"`
+	// Intervals describes the bootstrap behind the intervals; absent when
+	// no bootstrap ran.
+	Intervals *IntervalSettings `json:"intervals,omitempty"`
+}
+
+// IntervalSettings records how the percentile bootstrap intervals were
+// made (attribution.BootstrapSummary).
+type IntervalSettings struct {
+	Replicates int     `json:"replicates"` // resamples requested
+	Level      float64 `json:"level"`      // e.g. 0.95
+	// KeepRatios is true when replicates reused the fitted density ratios
+	// instead of refitting the classifiers (fast mode, narrower intervals).
+	KeepRatios bool `json:"keep_ratios"`
+	// Failed counts replicates that could not be computed; the intervals
+	// rest on the others.
+	Failed int `json:"failed"`
 }
 
 // GroupInfo describes the two groups compared.

@@ -43,6 +43,10 @@ import (
 //	estimate_from: reference  # records that estimate the hybrids: reference, comparison or both
 //	clip_ratios: 0.99    # clip log-ratios to their central 99% interval; omit for none
 //	exact_limit: 16      # exact Shapley values up to this many mechanisms, sampled above
+//	intervals:           # percentile bootstrap intervals; omit for none
+//	  replicates: 200    # resamples, 0 (none) or at least 2
+//	  level: 0.95        # interval level, in (0, 1); default 0.95
+//	  keep_ratios: false # true: reuse the fitted ratios (fast mode)
 //	synthetic: false     # the data is invented
 //	title: free text
 type Spec struct {
@@ -73,8 +77,11 @@ type Spec struct {
 	// ExactLimit is attribution.Options.ExactLimit (default
 	// attribution.DefaultExactLimit).
 	ExactLimit int
-	Synthetic  bool
-	Title      string
+	// Intervals holds the intervals key. Run does not read it: callers
+	// pass it on in RunOptions (the CLI does, letting flags override it).
+	Intervals IntervalSpec
+	Synthetic bool
+	Title     string
 
 	lines    map[string]int // line of each top-level key
 	catLines []int          // line of each categorical entry
@@ -86,6 +93,18 @@ type GroupSpec struct {
 	Reference  string
 	Comparison string
 }
+
+// IntervalSpec is the bootstrap asked for by the spec's intervals key.
+// Replicates 0 means no intervals.
+type IntervalSpec struct {
+	Replicates int
+	Level      float64 // default DefaultIntervalLevel
+	KeepRatios bool
+}
+
+// DefaultIntervalLevel is the interval level when intervals.level is not
+// given.
+const DefaultIntervalLevel = 0.95
 
 // NodeSpec is one node of the causal graph.
 type NodeSpec struct {
@@ -285,6 +304,8 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		if err == nil && (s.ExactLimit < 1 || s.ExactLimit > attribution.MaxExactMechanisms) {
 			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "exact_limit must be between 1 and %d, got %d", attribution.MaxExactMechanisms, s.ExactLimit)
 		}
+	case "intervals":
+		err = p.intervals(s, v)
 	case "synthetic":
 		err = p.decode(k.Value, v, &s.Synthetic, "true or false")
 	case "title":
@@ -325,6 +346,9 @@ func (s *Spec) finish(p *specParser) error {
 	}
 	if s.ExactLimit == 0 {
 		s.ExactLimit = attribution.DefaultExactLimit
+	}
+	if s.Intervals.Level == 0 {
+		s.Intervals.Level = DefaultIntervalLevel
 	}
 	s.DataPath = s.Data
 	if !filepath.IsAbs(s.Data) {
@@ -425,6 +449,43 @@ func (p *specParser) groups(s *Spec, v *yaml.Node) error {
 	}
 	if s.Groups.Reference == s.Groups.Comparison {
 		return specErr(p.file, v.Line, "groups", ErrBadValue, "reference and comparison are both %q", s.Groups.Reference)
+	}
+	return nil
+}
+
+// intervals decodes the intervals mapping: replicates, level, keep_ratios.
+func (p *specParser) intervals(s *Spec, v *yaml.Node) error {
+	if v.Kind != yaml.MappingNode {
+		return specErr(p.file, v.Line, "intervals", ErrBadValue, "intervals must be a mapping such as {replicates: 200, level: 0.95, keep_ratios: false}")
+	}
+	seen := map[string]bool{}
+	for i := 0; i+1 < len(v.Content); i += 2 {
+		k, val := resolve(v.Content[i]), resolve(v.Content[i+1])
+		key := "intervals." + k.Value
+		if seen[k.Value] {
+			return specErr(p.file, k.Line, key, ErrDuplicateKey, "key given twice")
+		}
+		seen[k.Value] = true
+		var err error
+		switch k.Value {
+		case "replicates":
+			err = p.decode(key, val, &s.Intervals.Replicates, "an integer")
+			if err == nil && (s.Intervals.Replicates < 0 || s.Intervals.Replicates == 1) {
+				err = specErr(p.file, val.Line, key, ErrBadValue, "%s must be 0 (no intervals) or at least 2, got %d", key, s.Intervals.Replicates)
+			}
+		case "level":
+			s.Intervals.Level, err = p.float(key, val)
+			if err == nil && !(s.Intervals.Level > 0 && s.Intervals.Level < 1) {
+				err = specErr(p.file, val.Line, key, ErrBadValue, "%s %s is not strictly between 0 and 1 (e.g. 0.95)", key, val.Value)
+			}
+		case "keep_ratios":
+			err = p.decode(key, val, &s.Intervals.KeepRatios, "true or false")
+		default:
+			err = specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
+		}
+		if err != nil {
+			return err
+		}
 	}
 	return nil
 }

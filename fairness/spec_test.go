@@ -47,7 +47,7 @@ func TestParseSpecExample(t *testing.T) {
 			{Node: "labs", Columns: []string{"m1", "m2"}, Parents: []string{"dx", "age"}, Line: 14},
 		},
 		Seed: 1, Missing: MissingError, Folds: DefaultFolds, Classifier: ClassifierAuto, ECEBins: 10,
-		EstimateFrom: attribution.DefaultSide.String(), ExactLimit: 16,
+		EstimateFrom: attribution.DefaultSide.String(), ExactLimit: 16, Intervals: IntervalSpec{Level: DefaultIntervalLevel},
 	}
 	// Compare exported fields only.
 	got := *s
@@ -82,6 +82,7 @@ title: Anaemia screening (synthetic)
 estimate_from: both
 clip_ratios: 0.98
 exact_limit: 12
+intervals: {replicates: 50, level: 0.9, keep_ratios: true}
 `
 	s, err := ParseSpec("/abs/spec.yaml", []byte(strings.Replace(src, "data: cohort.csv", "data: /data/cohort.csv", 1)))
 	if err != nil {
@@ -89,7 +90,8 @@ exact_limit: 12
 	}
 	if !s.DropMissing() || s.Folds != 3 || s.Classifier != "expanded" || s.ECEBins != 15 || !s.Synthetic ||
 		s.Title != "Anaemia screening (synthetic)" || !reflect.DeepEqual(s.Categorical, []string{"m2"}) || s.DataPath != "/data/cohort.csv" ||
-		s.EstimateFrom != "both" || s.ClipRatios != 0.98 || s.ExactLimit != 12 {
+		s.EstimateFrom != "both" || s.ClipRatios != 0.98 || s.ExactLimit != 12 ||
+		s.Intervals != (IntervalSpec{Replicates: 50, Level: 0.9, KeepRatios: true}) {
 		t.Errorf("got %+v", s)
 	}
 }
@@ -141,6 +143,12 @@ func TestParseSpecErrors(t *testing.T) {
 		{"clip_ratios text", exampleSpec + "clip_ratios: most\n", ErrBadValue, 18, "clip_ratios", `"most"`},
 		{"exact_limit 0", exampleSpec + "exact_limit: 0\n", ErrBadValue, 18, "exact_limit", "between 1 and 26"},
 		{"exact_limit 40", exampleSpec + "exact_limit: 40\n", ErrBadValue, 18, "exact_limit", "got 40"},
+		{"intervals not mapping", exampleSpec + "intervals: 200\n", ErrBadValue, 18, "intervals", "must be a mapping"},
+		{"intervals 1 replicate", exampleSpec + "intervals:\n  replicates: 1\n", ErrBadValue, 19, "intervals.replicates", "0 (no intervals) or at least 2"},
+		{"intervals level 95", exampleSpec + "intervals:\n  replicates: 20\n  level: 95\n", ErrBadValue, 20, "intervals.level", "strictly between 0 and 1"},
+		{"intervals keep text", exampleSpec + "intervals: {keep_ratios: sometimes}\n", ErrBadValue, 18, "intervals.keep_ratios", "true or false"},
+		{"intervals unknown key", exampleSpec + "intervals:\n  reps: 20\n", ErrUnknownKey, 19, "intervals.reps", `unknown key "reps"`},
+		{"intervals duplicate", exampleSpec + "intervals: {level: 0.9, level: 0.8}\n", ErrDuplicateKey, 18, "intervals.level", "twice"},
 		{"categorical not in graph", exampleSpec + "categorical: [clinic]\n", ErrBadValue, 18, "categorical[0]", "not a column of any graph node"},
 		{"categorical label", exampleSpec + "categorical: [dx]\n", ErrBadValue, 18, "categorical[0]", "label or score"},
 		{"graph not list", exampleSpec[:strings.Index(exampleSpec, "graph:")] + "graph: age\n", ErrBadValue, 10, "graph", "non-empty list"},
