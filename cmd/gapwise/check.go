@@ -66,6 +66,15 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	fmt.Fprintf(b, "  metrics     %s\n", strings.Join(p.Metrics, ", "))
 	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, seed %d\n", p.Classifier, strings.Join(p.Learners, ", "), p.Folds, spec.Seed)
 	fmt.Fprintf(b, "  features    %d encoded columns\n", p.Features)
+	if iv := spec.Intervals; iv.Replicates > 0 {
+		mode := "refitting the classifiers"
+		if iv.KeepRatios {
+			mode = "keeping the fitted ratios"
+		}
+		fmt.Fprintf(b, "  intervals   %d bootstrap replicates at level %v, %s\n", iv.Replicates, iv.Level, mode)
+	} else {
+		fmt.Fprintf(b, "  intervals   none (spec key intervals or decompose --intervals N)\n")
+	}
 
 	fmt.Fprintf(b, "\n%d mechanisms:\n", len(p.Nodes))
 	wMech, wCols := len("mechanism"), len("columns")

@@ -5,10 +5,8 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
-	"os"
 
 	"github.com/spf13/cobra"
-	"golang.org/x/term"
 
 	"github.com/gapwise/gapwise/fairness"
 	"github.com/gapwise/gapwise/report"
@@ -34,6 +32,8 @@ type decomposeOptions struct {
 	format  string
 	workers int
 	force   bool
+
+	intervals intervalOptions
 }
 
 func newDecomposeCmd(stdout, stderr io.Writer) *cobra.Command {
@@ -47,9 +47,15 @@ graph's mechanisms, with diagnostics, warnings and assumptions.
 
 With --out DIR it also writes result.json (the machine-readable result) and
 report.html (a standalone page) into DIR. DIR appears only when both files are
-complete; an existing non-empty DIR is refused unless --force is given.`,
+complete; an existing non-empty DIR is refused unless --force is given.
+
+--intervals N adds percentile bootstrap intervals from N replicates (default
+0: none, which keeps decompose fast) at --level (default 0.95); each replicate
+refits the classifiers unless --fast-intervals keeps the fitted ratios. The
+flags override the spec's intervals key.`,
 		Args: cobra.NoArgs,
-		RunE: func(*cobra.Command, []string) error {
+		RunE: func(cmd *cobra.Command, _ []string) error {
+			o.intervals.markSet(cmd)
 			return wrapRun(runDecompose(o, stdout, stderr))
 		},
 	}
@@ -59,6 +65,7 @@ complete; an existing non-empty DIR is refused unless --force is given.`,
 	f.StringVar(&o.format, "format", formatText, "output on stdout: text, json or markdown")
 	f.IntVar(&o.workers, "workers", 0, "goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty --out folder, replacing result.json and report.html")
+	bindIntervalFlags(cmd, &o.intervals, 0, false)
 	_ = cmd.MarkFlagRequired("spec")
 	return cmd
 }
@@ -72,6 +79,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if o.workers < 0 {
 		return &usageError{fmt.Sprintf("--workers must be 0 or more, got %d", o.workers)}
 	}
+	if err := o.intervals.check(); err != nil {
+		return err
+	}
 	if o.out != "" {
 		if err := checkOutDir(o.out, o.force); err != nil {
 			return err
@@ -81,8 +91,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	progress(stderr, "gapwise: estimating %d mechanisms for %d metrics ...\n", len(spec.Graph), len(spec.Metrics))
-	res, err := fairness.Run(spec, fairness.RunOptions{Workers: o.workers, Version: version})
+	line := newProgressLine(stderr)
+	defer line.clear()
+	res, err := audit(spec, o.workers, o.intervals, line)
 	if err != nil {
 		return err
 	}
@@ -154,9 +165,11 @@ func outputFiles(res *fairness.Result) ([]outFile, error) {
 	return []outFile{{resultFile, js}, {reportFile, html.Bytes()}}, nil
 }
 
-// progress prints a progress message to stderr only when it is a terminal.
-func progress(stderr io.Writer, format string, args ...any) {
-	if f, ok := stderr.(*os.File); ok && term.IsTerminal(int(f.Fd())) {
-		fmt.Fprintf(stderr, format, args...)
-	}
+// audit runs fairness.Run on spec with the bootstrap settings of the spec
+// and the flags, showing progress on line.
+func audit(spec *fairness.Spec, workers int, iv intervalOptions, line *progressLine) (*fairness.Result, error) {
+	ro := fairness.RunOptions{Workers: workers, Version: version, Progress: line.bootstrap()}
+	iv.apply(spec, &ro)
+	line.show("gapwise: estimating %d mechanisms for %d metrics ...", len(spec.Graph), len(spec.Metrics))
+	return fairness.Run(spec, ro)
 }

@@ -11,12 +11,18 @@ import (
 	"github.com/gapwise/gapwise/fairness"
 )
 
-// decompose runs `gapwise decompose` through its run function.
+// decompose runs `gapwise decompose` through its run function with stderr
+// a regular file (not a terminal), and checks that nothing, in particular
+// no progress line, was written to it.
 func decompose(t *testing.T, o decomposeOptions) string {
 	t.Helper()
-	var stdout, stderr bytes.Buffer
-	if err := runDecompose(o, &stdout, &stderr); err != nil {
+	var stdout bytes.Buffer
+	stderr := nonTerminal(t)
+	if err := runDecompose(o, &stdout, stderr); err != nil {
 		t.Fatalf("decompose %+v: %v", o, err)
+	}
+	if got := readFile(t, stderr.Name()); got != "" {
+		t.Errorf("decompose wrote to a non-terminal stderr: %q", got)
 	}
 	return stdout.String()
 }
@@ -48,13 +54,13 @@ func TestDecomposeFormats(t *testing.T) {
 // parses and honours Σ contributions + residual = gap.
 func TestDecomposeDeterministic(t *testing.T) {
 	spec := filepath.Join(demoDir(t), demoSpec)
-	one := decompose(t, decomposeOptions{spec: spec, format: formatJSON, workers: 1})
-	two := decompose(t, decomposeOptions{spec: spec, format: formatJSON, workers: 2})
+	one := decompose(t, decomposeOptions{spec: spec, format: formatJSON, workers: 1, intervals: testIntervals})
+	two := decompose(t, decomposeOptions{spec: spec, format: formatJSON, workers: 2, intervals: testIntervals})
 	if one != two {
 		t.Error("JSON differs between 1 and 2 workers")
 	}
 	// The demo's result.json came from an earlier run (GOMAXPROCS workers)
-	// on the same spec and data.
+	// on the same spec and data, with the same bootstrap.
 	if file := readFile(t, filepath.Join(demoDir(t), resultFile)); file != one {
 		t.Error("demo's result.json differs from decompose --format json")
 	}
@@ -63,6 +69,14 @@ func TestDecomposeDeterministic(t *testing.T) {
 		t.Fatalf("JSON output does not parse: %v", err)
 	}
 	checkSums(t, &res)
+	if iv := res.Settings.Intervals; iv == nil || iv.Replicates != testIntervals.replicates || iv.Level != 0.95 || !iv.KeepRatios {
+		t.Errorf("settings.intervals %+v, want %d fast replicates at 0.95", iv, testIntervals.replicates)
+	}
+	for _, m := range res.Metrics {
+		if m.GapCI == nil || m.GapCI.Low > m.GapCI.High {
+			t.Errorf("%s: gap interval %+v", m.Metric, m.GapCI)
+		}
+	}
 }
 
 func TestDecomposeOut(t *testing.T) {
@@ -122,7 +136,7 @@ func TestCheckDemo(t *testing.T) {
 	if err := runCheck(checkOptions{spec: filepath.Join(demoDir(t), demoSpec)}, &stdout, &stderr); err != nil {
 		t.Fatal(err)
 	}
-	for _, want := range []string{"spec and data are valid", "SYNTHETIC", "panel | anaemia", "mcv, rdw", "5 mechanisms", "fnr, fpr, ppv"} {
+	for _, want := range []string{"spec and data are valid", "SYNTHETIC", "panel | anaemia", "mcv, rdw", "5 mechanisms", "fnr, fpr, ppv", "intervals   none"} {
 		if !strings.Contains(stdout.String(), want) {
 			t.Errorf("check output lacks %q:\n%s", want, stdout.String())
 		}

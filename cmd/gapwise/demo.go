@@ -22,6 +22,10 @@ const (
 	demoSpec = "spec.yaml"
 )
 
+// demoIntervals is the demo's default number of bootstrap replicates (fast
+// mode): enough for the report to show intervals.
+const demoIntervals = 100
+
 // demoOptions are the flags of `gapwise demo`.
 type demoOptions struct {
 	out     string
@@ -29,6 +33,8 @@ type demoOptions struct {
 	seed    uint64
 	workers int
 	force   bool
+
+	intervals intervalOptions
 }
 
 func newDemoCmd(stdout, stderr io.Writer) *cobra.Command {
@@ -41,7 +47,11 @@ with a spec (spec.yaml) comparing women with men, into the output folder, then
 runs decompose on them, writing result.json and report.html beside them.
 
 The data are SYNTHETIC: generated from hand-picked mechanisms, they describe no
-real patients and must not be used for anything but trying gapwise out.`,
+real patients and must not be used for anything but trying gapwise out.
+
+By default the audit adds 95% intervals from 100 fast bootstrap replicates
+(which reuse the fitted density ratios); --intervals 0 turns them off and
+--fast-intervals=false refits the classifiers in every replicate (slower).`,
 		Args: cobra.NoArgs,
 		RunE: func(*cobra.Command, []string) error {
 			return wrapRun(runDemo(o, stdout, stderr))
@@ -53,6 +63,7 @@ real patients and must not be used for anything but trying gapwise out.`,
 	f.Uint64Var(&o.seed, "seed", 1, "seed of the cohort generator")
 	f.IntVar(&o.workers, "workers", 0, "goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty folder, replacing the demo's files")
+	bindIntervalFlags(cmd, &o.intervals, demoIntervals, true)
 	return cmd
 }
 
@@ -63,10 +74,17 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if o.rows < 100 {
 		return &usageError{fmt.Sprintf("--rows must be at least 100, got %d", o.rows)}
 	}
+	// The demo's spec has no intervals key: the flags decide.
+	o.intervals = o.intervals.allSet()
+	if err := o.intervals.check(); err != nil {
+		return err
+	}
 	if err := checkOutDir(o.out, o.force); err != nil {
 		return err
 	}
-	progress(stderr, "gapwise: generating %d synthetic records ...\n", o.rows)
+	line := newProgressLine(stderr)
+	defer line.clear()
+	line.show("gapwise: generating %d synthetic records ...", o.rows)
 	var csv bytes.Buffer
 	recs := synth.DefaultScenario().Generate(o.rows, o.seed)
 	if err := synth.AnaemiaTable(recs).WriteCSV(&csv); err != nil {
@@ -88,8 +106,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	progress(stderr, "gapwise: estimating %d mechanisms for %d metrics ...\n", len(spec.Graph), len(spec.Metrics))
-	res, err := fairness.Run(spec, fairness.RunOptions{Workers: o.workers, Version: version})
+	res, err := audit(spec, o.workers, o.intervals, line)
 	if err != nil {
 		return err
 	}

@@ -55,6 +55,9 @@ func TestDemoWritesEverything(t *testing.T) {
 			t.Errorf("%s: missing or empty (%v)", f, err)
 		}
 	}
+	if sharedErrOut != "" {
+		t.Errorf("demo wrote to a non-terminal stderr: %q", sharedErrOut)
+	}
 	res := loadResult(t, filepath.Join(dir, resultFile))
 	if !res.Synthetic {
 		t.Error("demo result is not marked synthetic")

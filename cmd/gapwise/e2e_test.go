@@ -2,12 +2,15 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"errors"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
 )
 
 // TestBinary builds gapwise with a version stamped in by -ldflags and runs
@@ -61,7 +64,30 @@ func TestBinary(t *testing.T) {
 			t.Error(err)
 		}
 	}
-	if res := loadResult(t, filepath.Join(demo, resultFile)); res.Tool.Version != "v9.9.9-test" {
+	res := loadResult(t, filepath.Join(demo, resultFile))
+	if res.Tool.Version != "v9.9.9-test" {
 		t.Errorf("result records version %q", res.Tool.Version)
+	}
+	// The demo's default bootstrap: demoIntervals fast replicates at 0.95.
+	if iv := res.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Replicates: demoIntervals, Level: 0.95, KeepRatios: true}) {
+		t.Errorf("demo settings.intervals %+v", iv)
+	}
+
+	// The spec's intervals key is read, and a flag overrides one setting.
+	specPath := filepath.Join(demo, demoSpec)
+	src := readFile(t, specPath) + "intervals: {replicates: 4, level: 0.8, keep_ratios: true}\n"
+	if err := os.WriteFile(specPath, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out, errOut, code = run("decompose", "--spec", specPath, "--level", "0.9", "--format", "json")
+	if code != 0 || errOut != "" {
+		t.Fatalf("decompose: exit %d, stderr %q", code, errOut)
+	}
+	var got fairness.Result
+	if err := json.Unmarshal([]byte(out), &got); err != nil {
+		t.Fatal(err)
+	}
+	if iv := got.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Replicates: 4, Level: 0.9, KeepRatios: true}) {
+		t.Errorf("spec intervals with --level 0.9: settings.intervals %+v", iv)
 	}
 }

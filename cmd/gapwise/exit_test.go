@@ -32,6 +32,11 @@ func TestExitCodes(t *testing.T) {
 		{"check spec not found", []string{"check", "--spec", filepath.Join(dir, "nope.yaml")}, exitInput, "spec file not found"},
 		{"out is a file", []string{"decompose", "--spec", "x.yaml", "--out", notDir}, exitInput, "exists and is not a folder"},
 		{"out under a file", []string{"decompose", "--spec", "x.yaml", "--out", filepath.Join(notDir, "sub")}, exitFailure, "not a directory"},
+		{"one replicate", []string{"decompose", "--spec", "x.yaml", "--intervals", "1"}, exitInput, "--intervals must be 0 (no intervals) or at least 2, got 1"},
+		{"negative replicates", []string{"decompose", "--spec", "x.yaml", "--intervals", "-5"}, exitInput, "--intervals must be 0"},
+		{"level above 1", []string{"decompose", "--spec", "x.yaml", "--intervals", "50", "--level", "95"}, exitInput, "--level must be strictly between 0 and 1"},
+		{"level not a number", []string{"decompose", "--spec", "x.yaml", "--level", "high"}, exitInput, `invalid argument "high"`},
+		{"demo level 0", []string{"demo", "--level", "0", "--out", filepath.Join(dir, "d")}, exitInput, "--level must be strictly between 0 and 1"},
 		{"demo too few rows", []string{"demo", "--rows", "5", "--out", filepath.Join(dir, "d")}, exitInput, "--rows must be at least 100"},
 	}
 	for _, c := range cases {

@@ -12,11 +12,16 @@ import (
 // the estimates to be meaningful, small enough to keep `go test` quick.
 const testRows = 12000
 
+// testIntervals are the bootstrap settings of the shared demo run: a few
+// fast replicates, enough for every output to carry intervals.
+var testIntervals = intervalOptions{replicates: 20, level: 0.95, fast: true}.allSet()
+
 var (
-	shared     string // folder holding the shared demo, removed by TestMain
-	sharedOnce sync.Once
-	sharedErr  error
-	sharedOut  string
+	shared       string // folder holding the shared demo, removed by TestMain
+	sharedOnce   sync.Once
+	sharedErr    error
+	sharedOut    string
+	sharedErrOut string // what the shared demo wrote to its (non-terminal) stderr
 )
 
 func TestMain(m *testing.M) {
@@ -35,10 +40,17 @@ func demoDir(t testing.TB) string {
 		if sharedErr != nil {
 			return
 		}
-		var stdout, stderr bytes.Buffer
+		var stdout bytes.Buffer
+		var stderr *os.File
+		if stderr, sharedErr = os.Create(filepath.Join(shared, "stderr.txt")); sharedErr != nil {
+			return
+		}
+		defer stderr.Close()
 		dir := filepath.Join(shared, "demo")
-		sharedErr = runDemo(demoOptions{out: dir, rows: testRows, seed: 1}, &stdout, &stderr)
+		sharedErr = runDemo(demoOptions{out: dir, rows: testRows, seed: 1, intervals: testIntervals}, &stdout, stderr)
 		sharedOut = stdout.String()
+		b, _ := os.ReadFile(stderr.Name())
+		sharedErrOut = string(b)
 	})
 	if sharedErr != nil {
 		t.Fatalf("demo: %v", sharedErr)

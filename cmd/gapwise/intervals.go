@@ -1,0 +1,80 @@
+package main
+
+import (
+	"fmt"
+
+	"github.com/spf13/cobra"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// Flag names of the bootstrap settings.
+const (
+	flagIntervals     = "intervals"
+	flagLevel         = "level"
+	flagFastIntervals = "fast-intervals"
+)
+
+// intervalOptions are the bootstrap flags shared by decompose and demo. A
+// flag that was given overrides the spec's intervals key; one left at its
+// default gives way to the spec (the *Set fields say which were given).
+type intervalOptions struct {
+	replicates int     // --intervals: bootstrap replicates, 0 for none
+	level      float64 // --level
+	fast       bool    // --fast-intervals: keep the fitted ratios
+
+	replicatesSet, levelSet, fastSet bool
+}
+
+// bindIntervalFlags adds --intervals, --level and --fast-intervals to cmd
+// with the given defaults.
+func bindIntervalFlags(cmd *cobra.Command, o *intervalOptions, replicates int, fast bool) {
+	f := cmd.Flags()
+	f.IntVar(&o.replicates, flagIntervals, replicates, "bootstrap replicates for percentile intervals (0: no intervals)")
+	f.Float64Var(&o.level, flagLevel, fairness.DefaultIntervalLevel, "level of the bootstrap intervals, strictly between 0 and 1")
+	f.BoolVar(&o.fast, flagFastIntervals, fast, "bootstrap with the fitted density ratios instead of refitting the classifiers (faster, narrower intervals)")
+}
+
+// markSet records which bootstrap flags were given on the command line.
+func (o *intervalOptions) markSet(cmd *cobra.Command) {
+	f := cmd.Flags()
+	o.replicatesSet = f.Changed(flagIntervals)
+	o.levelSet = f.Changed(flagLevel)
+	o.fastSet = f.Changed(flagFastIntervals)
+}
+
+// check rejects flag values the bootstrap cannot use.
+func (o intervalOptions) check() error {
+	if o.replicatesSet && (o.replicates < 0 || o.replicates == 1) {
+		return &usageError{fmt.Sprintf("--%s must be 0 (no intervals) or at least 2, got %d", flagIntervals, o.replicates)}
+	}
+	if o.levelSet && !(o.level > 0 && o.level < 1) {
+		return &usageError{fmt.Sprintf("--%s must be strictly between 0 and 1 (e.g. 0.95), got %v", flagLevel, o.level)}
+	}
+	return nil
+}
+
+// apply sets the bootstrap fields of ro from the spec's intervals key,
+// each overridden by its flag when that was given.
+func (o intervalOptions) apply(spec *fairness.Spec, ro *fairness.RunOptions) {
+	iv := spec.Intervals
+	if o.replicatesSet {
+		iv.Replicates = o.replicates
+	}
+	if o.levelSet {
+		iv.Level = o.level
+	}
+	if o.fastSet {
+		iv.KeepRatios = o.fast
+	}
+	ro.Bootstrap = iv.Replicates
+	ro.BootstrapLevel = iv.Level
+	ro.BootstrapKeepRatios = iv.KeepRatios
+}
+
+// allSet treats every bootstrap flag as given, for commands (demo) whose
+// spec never asks for intervals itself.
+func (o intervalOptions) allSet() intervalOptions {
+	o.replicatesSet, o.levelSet, o.fastSet = true, true, true
+	return o
+}
