@@ -157,9 +157,11 @@ func TestLinearMissesInteraction(t *testing.T) {
 	// The linear learner's error must lie outside what sampling error
 	// explains (above the tolerance) and be at least 5 × the expanded
 	// learner's: a real misattribution, not noise. Measured with this
-	// test's seeds at 20 000 records per group: truth +0.2143, linear
-	// +0.0454 (|err| 0.1689), expanded +0.2230 (|err| 0.0087); with -short
-	// (5 000 per group): linear |err| 0.1714, expanded 0.0027.
+	// test's seeds at 20 000 records per group (classify at commit 5ca20c3;
+	// the estimates move slightly as the learners evolve): truth +0.2143,
+	// linear +0.0509 (|err| 0.1634), expanded +0.2201 (|err| 0.0058). The
+	// accuracy study shows the linear error does not shrink with n: max
+	// |err| 0.192, 0.174, 0.168 at 2 000, 10 000, 50 000 records per group.
 	if errLin <= bound || errLin < 5*errExp {
 		t.Errorf("linear |err| %.4f is not measurably worse: tolerance %.4f, expanded |err| %.4f", errLin, bound, errExp)
 	}
