@@ -39,7 +39,8 @@ const (
 	NodeUnread
 )
 
-// Screening threshold: a record is flagged when its score is at least 0.5.
+// ScreeningThreshold is the decision threshold of the Screening model: a
+// record is flagged when its score is at least 0.5.
 const ScreeningThreshold = 0.5
 
 // Screening returns a synthetic screening model with six nodes (topological

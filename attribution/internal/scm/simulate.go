@@ -9,11 +9,13 @@ import (
 // Group selects one of the two groups' distributions.
 type Group int
 
+// The two groups.
 const (
 	Reference Group = iota
 	Comparison
 )
 
+// String returns "reference" or "comparison".
 func (g Group) String() string {
 	if g == Comparison {
 		return "comparison"
