@@ -12,14 +12,20 @@ import (
 // WriteMarkdown writes a compact Markdown report of res to w, for pasting
 // into a pull request or an issue: a title, the plain-language summary of
 // every metric, a table of the two groups' metric values and one table per
-// metric with its decomposition (contributions, intervals when the
-// bootstrap ran, the residual). Numbers are formatted exactly as in the
+// metric with its decomposition (contributions, intervals as "[low, high]"
+// when the bootstrap ran, the residual). The spec's title, when given, is
+// the heading. Numbers are formatted exactly as in the
 // HTML report. It returns the first write error.
 func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 	bw := bufio.NewWriter(w)
 	p := func(format string, args ...any) { fmt.Fprintf(bw, format, args...) }
 
-	p("## Gap audit: `%s` for %s vs %s\n\n", mdText(res.Score), mdText(res.Groups.Comparison), mdText(res.Groups.Reference))
+	if res.Title != "" {
+		p("## %s\n\n", mdText(res.Title))
+		p("Gap audit of `%s` for %s vs %s.\n\n", mdText(res.Score), mdText(res.Groups.Comparison), mdText(res.Groups.Reference))
+	} else {
+		p("## Gap audit: `%s` for %s vs %s\n\n", mdText(res.Score), mdText(res.Groups.Comparison), mdText(res.Groups.Reference))
+	}
 	if res.Synthetic {
 		p("> **Synthetic data.** These numbers come from an invented cohort and describe no real patients.\n\n")
 	}
@@ -28,6 +34,9 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 		mdText(res.Groups.Comparison), res.Groups.NComparison, mdText(res.Label), formatThreshold(res.Threshold))
 	for _, m := range res.Metrics {
 		p("%s\n\n", Summary(res, m))
+	}
+	if iv := intervalSetting(res); iv != "" {
+		p("Intervals in brackets: %s.\n\n", iv)
 	}
 
 	p("### Metrics by group\n\n")
@@ -44,7 +53,7 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 	flags := unreliable(res)
 	for _, m := range res.Metrics {
 		p("### Decomposition of the %s gap\n\n", mdText(MetricTitle(m.Metric)))
-		p("| Mechanism | Contribution | 95%% interval | Alone | Gap if equalised |\n")
+		p("| Mechanism | Contribution | %s | Alone | Gap if equalised |\n", intervalName(res))
 		p("| --- | ---: | ---: | ---: | ---: |\n")
 		for _, c := range m.Contributions {
 			name := "`" + mdCell(c.Mechanism) + "`"
@@ -77,12 +86,13 @@ func formatThreshold(t float64) string {
 	return s
 }
 
-// withInterval appends a bracketed interval to a value when there is one.
+// withInterval appends an interval ("[low, high]") to a value when there
+// is one.
 func withInterval(v, ci string) string {
 	if ci == "" {
 		return v
 	}
-	return v + " (" + ci + ")"
+	return v + " " + ci
 }
 
 func orDash(s string) string {

@@ -103,21 +103,21 @@ func formatSigned(metric string, v float64) string {
 }
 
 // formatValueInterval prints a bootstrap interval of a metric value, e.g.
-// "10.9% to 13.2%"; a nil interval prints as "".
+// "[10.9%, 13.2%]"; a nil interval prints as "".
 func formatValueInterval(metric string, ci *fairness.Interval) string {
 	if ci == nil {
 		return ""
 	}
-	return formatValue(metric, ci.Low) + " to " + formatValue(metric, ci.High)
+	return "[" + formatValue(metric, ci.Low) + ", " + formatValue(metric, ci.High) + "]"
 }
 
 // formatDeltaInterval prints a bootstrap interval of a difference, e.g.
-// "4.8 to 7.3 pts"; it prints "" unless both bounds are present.
+// "[4.8, 7.3] pts"; it prints "" unless both bounds are present.
 func formatDeltaInterval(metric string, lo, hi *float64) string {
 	if lo == nil || hi == nil {
 		return ""
 	}
-	s := formatSigned(metric, *lo) + " to " + formatSigned(metric, *hi)
+	s := "[" + formatSigned(metric, *lo) + ", " + formatSigned(metric, *hi) + "]"
 	if isProportion(metric) {
 		s += " pts"
 	}
@@ -271,7 +271,7 @@ func Summary(res *fairness.Result, m fairness.MetricResult) string {
 	if isZeroText(formatMagnitude(m.Metric, m.Gap)) {
 		fmt.Fprintf(&b, "The two groups do not differ at the precision shown")
 		if ci := formatGapInterval(m); ci != "" {
-			fmt.Fprintf(&b, " (95%% interval of the gap %s)", ci)
+			fmt.Fprintf(&b, " (%s of the gap %s)", intervalName(res), ci)
 		}
 		b.WriteString(".")
 		return b.String()
@@ -282,7 +282,7 @@ func Summary(res *fairness.Result, m fairness.MetricResult) string {
 	}
 	fmt.Fprintf(&b, "Of the %s (%s for %s", gapWord, higher, cmp)
 	if ci := formatGapInterval(m); ci != "" {
-		fmt.Fprintf(&b, "; 95%% interval %s", ci)
+		fmt.Fprintf(&b, "; %s %s", intervalName(res), ci)
 	}
 	b.WriteString("), ")
 
@@ -306,7 +306,7 @@ func Summary(res *fairness.Result, m fairness.MetricResult) string {
 		}
 		ci := ""
 		if s := formatDeltaInterval(m.Metric, c.CILow, c.CIHigh); s != "" {
-			ci = " (95% interval " + s + ")"
+			ci = " (" + intervalName(res) + " " + s + ")"
 		}
 		caution := ""
 		if why, ok := flags[c.Node]; ok {

@@ -20,7 +20,7 @@ func TestFormat(t *testing.T) {
 		{"delta negative", formatDelta("fnr", -0.012), "−1.2 pts"},
 		{"delta zero has no sign", formatDelta("fnr", -0.0002), "0.0 pts"},
 		{"delta score", formatDelta("brier", -0.0067), "−0.007"},
-		{"interval", formatDeltaInterval("fnr", ptr(-0.02), ptr(-0.004)), "−2.0 to −0.4 pts"},
+		{"interval", formatDeltaInterval("fnr", ptr(-0.02), ptr(-0.004)), "[−2.0, −0.4] pts"},
 		{"interval absent", formatDeltaInterval("fnr", nil, ptr(1)), ""},
 		{"count", formatCount(12), "12"},
 		{"weighted count", formatCount(12.25), "12.2"},
@@ -39,10 +39,10 @@ func TestSummary(t *testing.T) {
 	// Each fragment is the fixture's numbers rounded by hand.
 	for _, want := range []string{
 		"The false-negative rate is 21.0% for women and 12.0% for men (reference group).",
-		"Of the 9.0-point gap (higher for women; 95% interval 6.1 to 11.8 pts), ",
-		"6.1 points (95% interval 4.8 to 7.3 pts) come from how `hb` presents given `anaemia`; ",
+		"Of the 9.0-point gap (higher for women; 95% interval [6.1, 11.8] pts), ",
+		"6.1 points (95% interval [4.8, 7.3] pts) come from how `hb` presents given `anaemia`; ",
 		"3.0 points come from how often `anaemia` occurs given `age`",
-		"the mix of `age` narrows it by 1.2 points (95% interval −2.0 to −0.4 pts)",
+		"the mix of `age` narrows it by 1.2 points (95% interval [−2.0, −0.4] pts)",
 		"The other 1 mechanism together contribute 0.0 pts.",
 		"add up to +7.9 pts; the remaining +1.1 pts (residual)",
 	} {

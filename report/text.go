@@ -6,7 +6,6 @@ import (
 	"io"
 	"math"
 	"strings"
-	"unicode/utf8"
 
 	"github.com/gapwise/gapwise/fairness"
 )
@@ -26,7 +25,7 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 	tw.header(res)
 	tw.groups(res)
 	for _, m := range res.Metrics {
-		tw.metric(m)
+		tw.metric(res, m)
 	}
 	tw.diagnostics(res)
 	tw.list("Warnings", res.Warnings, "none")
@@ -43,6 +42,9 @@ func (t *textWriter) line(format string, args ...any) {
 }
 
 func (t *textWriter) header(res *fairness.Result) {
+	if res.Title != "" {
+		t.line("%s", strings.Join(strings.Fields(res.Title), " "))
+	}
 	t.line("%s %s: audit of %q against label %q, positive when score >= %s",
 		res.Tool.Name, res.Tool.Version, res.Score, res.Label, trimFloat(res.Threshold))
 	if res.Synthetic {
@@ -61,9 +63,9 @@ func (t *textWriter) groups(res *fairness.Result) {
 	t.line("")
 }
 
-func (t *textWriter) metric(m fairness.MetricResult) {
+func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	t.line("%s (%s)", m.Metric, MetricTitle(m.Metric))
-	vals := textTable{header: []string{"", "value", "95% interval"}, right: []bool{false, true, true}}
+	vals := textTable{header: []string{"", "value", intervalName(res)}, right: []bool{false, true, true}}
 	vals.add("reference", fixed(m.Reference), interval(m.ReferenceCI, fixed))
 	vals.add("comparison", fixed(m.Comparison), interval(m.ComparisonCI, fixed))
 	vals.add("gap (comparison - reference)", signed(m.Gap), interval(m.GapCI, signed))
@@ -83,7 +85,7 @@ func (t *textWriter) metric(m fairness.MetricResult) {
 		right = append(right, true)
 	}
 	if hasCI {
-		head = append(head, "95% interval")
+		head = append(head, intervalName(res))
 		right = append(right, true)
 	}
 	tab := textTable{header: head, right: right}
@@ -99,7 +101,7 @@ func (t *textWriter) metric(m fairness.MetricResult) {
 		if hasCI {
 			ci := ""
 			if c.CILow != nil && c.CIHigh != nil {
-				ci = signed(*c.CILow) + " to " + signed(*c.CIHigh)
+				ci = "[" + signed(*c.CILow) + ", " + signed(*c.CIHigh) + "]"
 			}
 			row = append(row, ci)
 		}
@@ -107,31 +109,14 @@ func (t *textWriter) metric(m fairness.MetricResult) {
 	}
 	sum := make([]string, len(head))
 	sum[0], sum[1] = "sum of contributions", signed(m.Estimated)
-	res := make([]string, len(head))
-	res[0], res[1] = "residual (gap - sum)", signed(m.Residual)
+	resid := make([]string, len(head))
+	resid[0], resid[1] = "residual (gap - sum)", signed(m.Residual)
 	tab.add(sum...)
-	tab.add(res...)
+	tab.add(resid...)
 	tab.write(t.w, "  ")
 	if m.EffectiveRecords > 0 {
 		t.line("  effective records behind the estimated gap: %.1f", m.EffectiveRecords)
 	}
-	t.line("")
-}
-
-func (t *textWriter) diagnostics(res *fairness.Result) {
-	if len(res.Mechanisms) == 0 {
-		return
-	}
-	t.line("Mechanism diagnostics (reference records reweighted by one mechanism's ratio)")
-	tab := textTable{
-		header: []string{"mechanism", "classifier", "parents by", "oof AUC", "ESS", "ESS share", "max weight share", "mean ratio"},
-		right:  []bool{false, false, false, true, true, true, true, true},
-	}
-	for _, m := range res.Mechanisms {
-		tab.add(m.Mechanism, m.Classifier, m.ParentClassifier, fixed(m.AUC), fmt.Sprintf("%.1f", m.ESS), fixed(m.ESSShare), fixed(m.MaxShare), fixed(m.MeanRatio))
-	}
-	tab.write(t.w, "  ")
-	t.line("  oof AUC: out-of-fold AUC of the group classifier on (node, parents); mean ratio should be near 1.")
 	t.line("")
 }
 
@@ -174,6 +159,18 @@ func (t *textWriter) inputs(res *fairness.Result) {
 	if s.ECEBins > 0 {
 		tab.add("ece bins", fmt.Sprint(s.ECEBins))
 	}
+	if s.EstimateFrom != "" {
+		tab.add("estimated from", s.EstimateFrom+" records")
+	}
+	if s.ClipRatios > 0 {
+		tab.add("log-ratios clipped", fmt.Sprintf("to their central %s", trimPercent(s.ClipRatios)))
+	}
+	if s.ExactLimit > 0 {
+		tab.add("exact Shapley up to", fmt.Sprintf("%d mechanisms", s.ExactLimit))
+	}
+	if iv := intervalSetting(res); iv != "" {
+		tab.add("intervals", iv)
+	}
 	tab.add("missing values", map[bool]string{true: "rows dropped", false: "an error"}[s.DropMissing])
 	t.line("Inputs and settings")
 	tab.write(t.w, "  ")
@@ -204,86 +201,15 @@ func zeroSign(s string) string {
 	return s
 }
 
-// interval prints "low to high" with f, or "" for a nil interval.
+// interval prints "[low, high]" with f, or "" for a nil interval.
 func interval(ci *fairness.Interval, f func(float64) string) string {
 	if ci == nil {
 		return ""
 	}
-	return f(ci.Low) + " to " + f(ci.High)
+	return "[" + f(ci.Low) + ", " + f(ci.High) + "]"
 }
 
 // trimFloat prints v in the shortest form that reads back exactly.
 func trimFloat(v float64) string {
 	return fmt.Sprint(v)
-}
-
-// textTable is a block of aligned columns. right[i] right-aligns column i.
-type textTable struct {
-	header   []string
-	right    []bool
-	rows     [][]string
-	noHeader bool
-}
-
-func (t *textTable) add(cells ...string) {
-	t.rows = append(t.rows, cells)
-}
-
-// dropEmpty removes columns that are empty in every row.
-func (t *textTable) dropEmpty() {
-	for c := len(t.header) - 1; c >= 0; c-- {
-		empty := true
-		for _, r := range t.rows {
-			empty = empty && (c >= len(r) || r[c] == "")
-		}
-		if !empty {
-			continue
-		}
-		t.header = append(t.header[:c:c], t.header[c+1:]...)
-		if c < len(t.right) {
-			t.right = append(t.right[:c:c], t.right[c+1:]...)
-		}
-		for i, r := range t.rows {
-			if c < len(r) {
-				t.rows[i] = append(r[:c:c], r[c+1:]...)
-			}
-		}
-	}
-}
-
-// write prints the table with each line prefixed by indent, columns
-// separated by two spaces and trailing blanks trimmed.
-func (t *textTable) write(w io.Writer, indent string) {
-	all := t.rows
-	if !t.noHeader {
-		all = append([][]string{t.header}, t.rows...)
-	}
-	width := make([]int, len(t.header))
-	for _, r := range all {
-		for i, c := range r {
-			if i < len(width) {
-				width[i] = max(width[i], utf8.RuneCountInString(c))
-			}
-		}
-	}
-	for _, r := range all {
-		var b strings.Builder
-		b.WriteString(indent)
-		for i := range width {
-			c := ""
-			if i < len(r) {
-				c = r[i]
-			}
-			pad := strings.Repeat(" ", width[i]-utf8.RuneCountInString(c))
-			if i > 0 {
-				b.WriteString("  ")
-			}
-			if i < len(t.right) && t.right[i] {
-				b.WriteString(pad + c)
-			} else {
-				b.WriteString(c + pad)
-			}
-		}
-		fmt.Fprintln(w, strings.TrimRight(b.String(), " "))
-	}
 }

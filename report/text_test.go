@@ -27,13 +27,13 @@ func TestWriteTextContent(t *testing.T) {
 		"fnr (false-negative rate)",
 		"0.1200",                      // reference FNR
 		"0.2100",                      // comparison FNR
-		"+0.0900  +0.0610 to +0.1180", // gap and its interval
-		"0.1010 to 0.1390",            // reference interval
+		"+0.0900  [+0.0610, +0.1180]", // gap and its interval
+		"[0.1010, 0.1390]",            // reference interval
 		"residual (gap - sum)",        // residual row
 		"+0.0110",                     // FNR residual
 		"+0.0790",                     // Σ contributions
 		"-0.0120  -0.0100",            // age: contribution, alone
-		"-0.0200 to -0.0040",          // age interval
+		"[-0.0200, -0.0040]",          // age interval
 		"-0.0007",                     // Brier residual
 		"ferritin | anaemia, hb",      // mechanism label
 		"mechanism ferritin: largest weight carries 11% of the total",
@@ -111,7 +111,7 @@ func TestWriteTextNoIntervalsNoWarnings(t *testing.T) {
 	var b bytes.Buffer
 	_ = WriteText(&b, res)
 	out := b.String()
-	for _, bad := range []string{"SYNTHETIC", "interval", " to "} {
+	for _, bad := range []string{"SYNTHETIC", "interval", "[", "]"} {
 		if strings.Contains(out, bad) {
 			t.Errorf("unexpected %q in\n%s", bad, out)
 		}

@@ -1,0 +1,96 @@
+package report
+
+import (
+	"bytes"
+	"strings"
+	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// withDiagnostics adds to handResult the settings and weight diagnostics
+// that the reports show: a title, two-sided estimation with clipping, a
+// 90% fast bootstrap with two failed replicates, per-mechanism overlap
+// checks, candidate odds checks, hybrid weights and effective records. The
+// numbers are invented; expected strings are their rounding by hand.
+func withDiagnostics(r *fairness.Result) {
+	r.Title = "Anaemia screening, spring audit"
+	r.Settings.EstimateFrom = "both"
+	r.Settings.ClipRatios = 0.99
+	r.Settings.ExactLimit = 16
+	r.Settings.Intervals = &fairness.IntervalSettings{Replicates: 100, Level: 0.9, KeepRatios: true, Failed: 2}
+	for i := range r.Mechanisms {
+		m := &r.Mechanisms[i]
+		m.ExtremeShare = 0.001 * float64(i)
+		m.WorstStratumMean = 1 + 0.05*float64(i)
+		m.ComparisonESS = 900 - 100*float64(i)
+		m.ClippedReference, m.ClippedComparison = 12+i, 11+i
+		for j := range m.Losses {
+			m.Losses[j].OddsCheck = 1.02 + 0.01*float64(j)
+		}
+	}
+	r.Weights = []fairness.WeightSide{
+		{Side: "reference", Records: 1200, AllCoalitions: true,
+			Far:   fairness.HybridWeight{ComparisonNodes: []string{"age", "anaemia", "hb", "ferritin"}, ESS: 300, MaxShare: 0.031},
+			Worst: fairness.HybridWeight{ComparisonNodes: []string{"hb", "ferritin"}, ESS: 240, MaxShare: 0.045}},
+		{Side: "comparison", Records: 1100, AllCoalitions: false,
+			Far:   fairness.HybridWeight{ComparisonNodes: []string{}, ESS: 500, MaxShare: 0.012},
+			Worst: fairness.HybridWeight{ComparisonNodes: []string{"age"}, ESS: 450, MaxShare: 0.013}},
+	}
+	r.Metrics[0].EffectiveRecords = 812.44
+	r.Metrics[1].EffectiveRecords = 1503
+}
+
+func TestWriteTextDiagnostics(t *testing.T) {
+	res := handResult()
+	withDiagnostics(res)
+	var b bytes.Buffer
+	if err := WriteText(&b, res); err != nil {
+		t.Fatal(err)
+	}
+	out := b.String()
+	for _, want := range []string{
+		"Anaemia screening, spring audit\ngapwise 0.1.0-test:", // title above the tool line
+		"90% interval",                      // the level of settings.intervals, not a fixed 95%
+		"[0.1010, 0.1390]",                  // reference interval
+		"worst-fifth mean ratio",            // column headings
+		"extreme ratios", "comparison ESS", "clipped ref", "clipped cmp",
+		"hb | anaemia            quadratic   linear       0.8100   400.0     0.3330            0.0200      1.0120                  1.1000          0.0020           700.0           14           13",
+		"ferritin | anaemia, hb  linear           0.6890      1.0200", // candidate, log loss, odds check
+		"ferritin | anaemia, hb  quadratic        0.6910      1.0300",
+		"odds check: n_ref/n_cmp",
+		"reference      1200  farthest  age, anaemia, hb, ferritin  300.0     0.2500            0.0310", // ESS share 300/1200
+		"comparison     1100  farthest  none",
+		"searched among the empty, full, single and all-but-one coalitions only", // comparison side was not searched fully
+		"fnr                 812.4",
+		"brier              1503.0",
+		"estimated from       both records",
+		"log-ratios clipped   to their central 99%",
+		"exact Shapley up to  16 mechanisms",
+		"intervals            100 bootstrap replicates, fitted density ratios kept (fast mode: narrower), level 90%; 2 could not be computed",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("missing %q in\n%s", want, out)
+		}
+	}
+}
+
+func TestWriteMarkdownTitleAndLevel(t *testing.T) {
+	res := handResult()
+	withDiagnostics(res)
+	var b bytes.Buffer
+	if err := WriteMarkdown(&b, res); err != nil {
+		t.Fatal(err)
+	}
+	out := b.String()
+	for _, want := range []string{
+		"## Anaemia screening, spring audit\n\nGap audit of `risk` for women vs men.",
+		"| Mechanism | Contribution | 90% interval | Alone | Gap if equalised |",
+		"Intervals in brackets: 100 bootstrap replicates",
+		"(higher for women; 90% interval [6.1, 11.8] pts)",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("missing %q in\n%s", want, out)
+		}
+	}
+}

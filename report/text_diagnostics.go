@@ -1,0 +1,136 @@
+package report
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// diagnostics prints the estimation diagnostics: per mechanism the chosen
+// classifiers and the weights of its ratio, each candidate classifier's
+// out-of-fold fit, the weights of the hybrids farthest from each side and
+// of the worst hybrid, and the effective records behind each metric's
+// estimated gap, each table followed by one sentence per column that
+// needs explaining.
+func (t *textWriter) diagnostics(res *fairness.Result) {
+	if len(res.Mechanisms) > 0 {
+		t.mechanismWeights(res)
+		t.candidates(res)
+	}
+	t.hybridWeights(res)
+	t.effectiveRecords(res)
+}
+
+func (t *textWriter) mechanismWeights(res *fairness.Result) {
+	hasCmp, clipped := false, res.Settings.ClipRatios > 0
+	for _, m := range res.Mechanisms {
+		hasCmp = hasCmp || m.ComparisonESS > 0
+		clipped = clipped || m.ClippedReference > 0 || m.ClippedComparison > 0
+	}
+	t.line("Mechanism diagnostics (reference records reweighted by one mechanism's ratio)")
+	head := []string{"mechanism", "classifier", "parents by", "oof AUC", "ESS", "ESS share", "max weight share", "mean ratio", "worst-fifth mean ratio", "extreme ratios"}
+	right := []bool{false, false, false, true, true, true, true, true, true, true}
+	if hasCmp {
+		head, right = append(head, "comparison ESS"), append(right, true)
+	}
+	if clipped {
+		head, right = append(head, "clipped ref", "clipped cmp"), append(right, true, true)
+	}
+	tab := textTable{header: head, right: right}
+	for _, m := range res.Mechanisms {
+		row := []string{m.Mechanism, m.Classifier, m.ParentClassifier, fixed(m.AUC), fmt.Sprintf("%.1f", m.ESS), fixed(m.ESSShare),
+			fixed(m.MaxShare), fixed(m.MeanRatio), fixed(m.WorstStratumMean), fixed(m.ExtremeShare)}
+		if hasCmp {
+			row = append(row, fmt.Sprintf("%.1f", m.ComparisonESS))
+		}
+		if clipped {
+			row = append(row, fmt.Sprint(m.ClippedReference), fmt.Sprint(m.ClippedComparison))
+		}
+		tab.add(row...)
+	}
+	tab.write(t.w, "  ")
+	t.line("  oof AUC: out-of-fold AUC of the group classifier on (node, parents); near 0.5 the groups barely differ on this mechanism.")
+	t.line("  ESS: effective sample size (sum w)^2 / sum w^2 of the reweighted reference records; ESS share divides it by their number.")
+	t.line("  max weight share: the largest single record's share of the total weight.")
+	t.line("  mean ratio: average ratio over the reference records, near 1 when the ratios are right.")
+	t.line("  worst-fifth mean ratio: the same average in the fifth of the records (ranked by the parents' classifier) farthest from 1; near 1 when right.")
+	t.line("  extreme ratios: share of reference records whose ratio is above 20 or below 1/20, a sign of poor overlap.")
+	if hasCmp {
+		t.line("  comparison ESS: effective sample size of the inverse ratios over the comparison records, which estimate the hybrids too.")
+	}
+	if clipped {
+		t.line("  clipped ref / cmp: records whose log-ratio was clipped (clip_ratios) in the reference / comparison group.")
+	}
+	t.line("")
+}
+
+func (t *textWriter) candidates(res *fairness.Result) {
+	tab := textTable{header: []string{"mechanism", "candidate", "oof log loss", "odds check"}, right: []bool{false, false, true, true}}
+	for _, m := range res.Mechanisms {
+		for _, l := range m.Losses {
+			tab.add(m.Mechanism, l.Classifier, fixed(l.LogLoss), fixed(l.OddsCheck))
+		}
+	}
+	if len(tab.rows) == 0 {
+		return
+	}
+	t.line("Classifier candidates (out of fold; the lowest log loss is chosen)")
+	tab.write(t.w, "  ")
+	t.line("  odds check: n_ref/n_cmp times the mean out-of-fold odds of the comparison group over the reference records; near 1 when the classifier is calibrated.")
+	t.line("")
+}
+
+func (t *textWriter) hybridWeights(res *fairness.Result) {
+	if len(res.Weights) == 0 {
+		return
+	}
+	t.line("Hybrid weights (the weights that emulate a mix of the two groups' mechanisms)")
+	tab := textTable{header: []string{"side", "records", "hybrid", "comparison mechanisms", "ESS", "ESS share", "max weight share"},
+		right: []bool{false, true, false, false, true, true, true}}
+	partial := false
+	for _, w := range res.Weights {
+		for _, h := range []struct {
+			name string
+			hw   fairness.HybridWeight
+		}{{"farthest", w.Far}, {"worst", w.Worst}} {
+			share := "n/a"
+			if w.Records > 0 {
+				share = fixed(h.hw.ESS / float64(w.Records))
+			}
+			tab.add(w.Side, fmt.Sprint(w.Records), h.name, nodeList(h.hw.ComparisonNodes), fmt.Sprintf("%.1f", h.hw.ESS), share, fixed(h.hw.MaxShare))
+		}
+		partial = partial || !w.AllCoalitions
+	}
+	tab.write(t.w, "  ")
+	t.line("  farthest: the hybrid farthest from the side's own group (all mechanisms in comparison form for the reference side, none for the comparison side).")
+	t.line("  worst: the hybrid whose weights have the smallest effective sample size; comparison mechanisms lists the nodes in comparison form.")
+	if partial {
+		t.line("  With many mechanisms the worst hybrid was searched among the empty, full, single and all-but-one coalitions only.")
+	}
+	t.line("")
+}
+
+func (t *textWriter) effectiveRecords(res *fairness.Result) {
+	tab := textTable{header: []string{"metric", "effective records"}, right: []bool{false, true}}
+	for _, m := range res.Metrics {
+		if m.EffectiveRecords > 0 {
+			tab.add(m.Metric, fmt.Sprintf("%.1f", m.EffectiveRecords))
+		}
+	}
+	if len(tab.rows) == 0 {
+		return
+	}
+	t.line("Effective records behind each estimated gap")
+	tab.write(t.w, "  ")
+	t.line("  effective records: effective sample size of the weights behind the far end of the gap, over the records the metric counts.")
+	t.line("")
+}
+
+// nodeList prints node names separated by commas, or "none".
+func nodeList(nodes []string) string {
+	if len(nodes) == 0 {
+		return "none"
+	}
+	return strings.Join(nodes, ", ")
+}
