@@ -92,6 +92,7 @@ func TestBrowserRendersReport(t *testing.T) {
 	dir := t.TempDir()
 	res := handResult()
 	res.Details = handDetails()
+	withDiagnostics(res) // title, intervals settings and every diagnostics table
 	var buf bytes.Buffer
 	if err := WriteHTML(&buf, res); err != nil {
 		t.Fatal(err)

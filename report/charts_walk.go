@@ -103,7 +103,7 @@ func walkChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			}
 			tip := []string{s.Label, "contribution " + formatDelta(m.Metric, amount)}
 			if s.Low != nil {
-				tip = append(tip, "95% interval "+formatDeltaInterval(m.Metric, ptrFloat(*s.Low-s.Start), ptrFloat(*s.High-s.Start)))
+				tip = append(tip, intervalName(res)+" "+formatDeltaInterval(m.Metric, ptrFloat(*s.Low-s.Start), ptrFloat(*s.High-s.Start)))
 			}
 			if s.Kind == "residual" {
 				tip = append(tip, "observed gap minus the sum of contributions")

@@ -51,9 +51,9 @@ func TestWriteTextDiagnostics(t *testing.T) {
 	out := b.String()
 	for _, want := range []string{
 		"Anaemia screening, spring audit\ngapwise 0.1.0-test:", // title above the tool line
-		"90% interval",                      // the level of settings.intervals, not a fixed 95%
-		"[0.1010, 0.1390]",                  // reference interval
-		"worst-fifth mean ratio",            // column headings
+		"90% interval",           // the level of settings.intervals, not a fixed 95%
+		"[0.1010, 0.1390]",       // reference interval
+		"worst-fifth mean ratio", // column headings
 		"extreme ratios", "comparison ESS", "clipped ref", "clipped cmp",
 		"hb | anaemia            quadratic   linear       0.8100   400.0     0.3330            0.0200      1.0120                  1.1000          0.0020           700.0           14           13",
 		"ferritin | anaemia, hb  linear           0.6890      1.0200", // candidate, log loss, odds check

@@ -80,6 +80,11 @@ type page struct {
 	LowESSShare  string
 	HasIntervals bool
 	DrillNodes   int
+
+	IntervalName    string // e.g. "95% interval"
+	IntervalSetting string // how the intervals were made, or ""
+	HasStdError     bool   // some contribution has a sampling standard error
+	Diagnostics     diagnosticsView
 }
 
 type keyValue struct{ Key, Value string }
@@ -98,6 +103,7 @@ type metricView struct {
 
 type contributionRow struct {
 	Node, Mechanism, Value, CI, Alone, IfEqualised string
+	StdError                                       string // "" unless sampled
 	Direction                                      string // "up", "down" or "zero"
 	Unreliable                                     string // reason, or ""
 }
@@ -105,10 +111,12 @@ type contributionRow struct {
 type mechanismView struct {
 	Node, Mechanism, Parents, Columns string
 	Classifier, ParentClassifier      string
-	Losses                            string
 	AUC, ESS, ESSShare, MaxShare      string
 	MeanRatio                         string
 	Unreliable                        string
+
+	WorstStratum, Extreme, ComparisonESS string
+	ClippedReference, ClippedComparison  string
 }
 
 type confusionView struct {
@@ -148,19 +156,25 @@ type chartData struct {
 // newPage formats res for the template and builds the chart options.
 func newPage(res *fairness.Result) (*page, error) {
 	p := &page{
-		Res:         res,
-		Title:       fmt.Sprintf("Gap audit: %s for %s vs %s", res.Score, res.Groups.Comparison, res.Groups.Reference),
-		Cohort:      filepath.Base(res.Inputs.DataFile), // the footer has the full path
-		Threshold:   formatThreshold(res.Threshold),
-		Assumptions: res.Assumptions,
-		EChartsJS:   template.JS(echartsJS),
-		ReportJS:    template.JS(reportJS),
-		CSS:         template.CSS(reportCSS),
-		LowESSShare: fmt.Sprintf("%.0f%%", 100*LowESSShare),
-		DrillNodes:  drillNodes,
+		Res:             res,
+		Title:           fmt.Sprintf("Gap audit: %s for %s vs %s", res.Score, res.Groups.Comparison, res.Groups.Reference),
+		IntervalName:    intervalName(res),
+		IntervalSetting: intervalSetting(res),
+		Diagnostics:     diagnostics(res),
+		Cohort:          filepath.Base(res.Inputs.DataFile), // the footer has the full path
+		Threshold:       formatThreshold(res.Threshold),
+		Assumptions:     res.Assumptions,
+		EChartsJS:       template.JS(echartsJS),
+		ReportJS:        template.JS(reportJS),
+		CSS:             template.CSS(reportCSS),
+		LowESSShare:     fmt.Sprintf("%.0f%%", 100*LowESSShare),
+		DrillNodes:      drillNodes,
 	}
 	if res.Inputs.DataFile == "" {
 		p.Cohort = "the audited records"
+	}
+	if res.Title != "" {
+		p.Title = res.Title
 	}
 	for _, s := range []string{echartsJS, reportJS} {
 		if strings.Contains(strings.ToLower(s), "</script") {
@@ -196,9 +210,17 @@ func newPage(res *fairness.Result) (*page, error) {
 			if ci != "" {
 				p.HasIntervals = true
 			}
-			mv.Rows = append(mv.Rows, contributionRow{Node: c.Node, Mechanism: c.Mechanism, Value: formatDelta(m.Metric, c.Value),
+			row := contributionRow{Node: c.Node, Mechanism: c.Mechanism, Value: formatDelta(m.Metric, c.Value),
 				CI: ci, Alone: formatDelta(m.Metric, c.Alone), IfEqualised: formatDelta(m.Metric, c.IfEqualised),
-				Direction: dir, Unreliable: flags[c.Node]})
+				Direction: dir, Unreliable: flags[c.Node]}
+			if c.StdError != nil {
+				row.StdError = formatMagnitude(m.Metric, *c.StdError)
+				if isProportion(m.Metric) {
+					row.StdError += " pts"
+				}
+				p.HasStdError = true
+			}
+			mv.Rows = append(mv.Rows, row)
 		}
 		if m.ReferenceCI != nil || m.ComparisonCI != nil || m.GapCI != nil {
 			p.HasIntervals = true
@@ -214,15 +236,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		data.Metric = res.Metrics[0].Metric
 	}
 	for _, m := range res.Mechanisms {
-		var losses []string
-		for _, l := range m.Losses {
-			losses = append(losses, fmt.Sprintf("%s %.4f", l.Classifier, l.LogLoss))
-		}
-		p.Mechanisms = append(p.Mechanisms, mechanismView{Node: m.Node, Mechanism: m.Mechanism,
-			Parents: strings.Join(m.Parents, ", "), Columns: strings.Join(m.Columns, ", "),
-			Classifier: m.Classifier, ParentClassifier: m.ParentClassifier, Losses: strings.Join(losses, "; "),
-			AUC: formatDiag(m.AUC), ESS: formatCount(math.Round(m.ESS)), ESSShare: fmt.Sprintf("%.1f%%", 100*m.ESSShare),
-			MaxShare: fmt.Sprintf("%.2f%%", 100*m.MaxShare), MeanRatio: formatDiag(m.MeanRatio), Unreliable: flags[m.Node]})
+		p.Mechanisms = append(p.Mechanisms, mechanismDiagnostics(m, flags[m.Node]))
 	}
 	for _, w := range res.Warnings {
 		p.Warnings = append(p.Warnings, codeSpans(w))
@@ -257,6 +271,8 @@ func newPage(res *fairness.Result) (*page, error) {
 		{"Cross-fitting folds", fmt.Sprint(res.Settings.Folds)}, {"Classifier setting", res.Settings.Classifier},
 		{"Candidate learners", strings.Join(res.Settings.Learners, ", ")},
 		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Rows with missing values dropped", fmt.Sprint(res.Settings.DropMissing)},
+		{"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},
+		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", p.IntervalSetting},
 	}
 	js, err := encodeOptions(data)
 	if err != nil {
@@ -264,6 +280,23 @@ func newPage(res *fairness.Result) (*page, error) {
 	}
 	p.DataJSON = template.JS(js)
 	return p, nil
+}
+
+// clipSetting describes clip_ratios: "central 99% of each mechanism's
+// log-ratios", or "no clipping".
+func clipSetting(p float64) string {
+	if p <= 0 {
+		return "no clipping"
+	}
+	return "central " + trimPercent(p) + " of each mechanism's log-ratios"
+}
+
+// exactSetting describes exact_limit, or "" when it is not recorded.
+func exactSetting(k int) string {
+	if k <= 0 {
+		return ""
+	}
+	return fmt.Sprintf("%d mechanisms (sampled above)", k)
 }
 
 // topNodes returns the nodes of a metric's drillNodes largest |φ|.

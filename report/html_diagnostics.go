@@ -1,0 +1,80 @@
+package report
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// candidateRow is one candidate classifier's out-of-fold fit.
+type candidateRow struct {
+	Mechanism, Classifier, LogLoss, OddsCheck string
+	Chosen                                    bool
+}
+
+// hybridRow describes the weights of one hybrid on one side.
+type hybridRow struct {
+	Side, Records, Which, Nodes, ESS, ESSShare, MaxShare string
+}
+
+// diagnosticsView holds the HTML diagnostics beyond the per-mechanism
+// table: which optional columns to show, candidate fits, hybrid weights
+// and effective records.
+type diagnosticsView struct {
+	HasComparisonESS bool // some mechanism has comparison_ess
+	Clipped          bool // clipping was asked for or happened
+	Candidates       []candidateRow
+	Hybrids          []hybridRow
+	HybridPartial    bool // some side's worst hybrid was not searched over all coalitions
+	Effective        []keyValue
+}
+
+// mechanismDiagnostics formats one mechanism's row of the diagnostics
+// table.
+func mechanismDiagnostics(m fairness.MechanismResult, flag string) mechanismView {
+	v := mechanismView{Node: m.Node, Mechanism: m.Mechanism,
+		Parents: strings.Join(m.Parents, ", "), Columns: strings.Join(m.Columns, ", "),
+		Classifier: m.Classifier, ParentClassifier: m.ParentClassifier,
+		AUC: formatDiag(m.AUC), ESS: formatCount(math.Round(m.ESS)), ESSShare: fmt.Sprintf("%.1f%%", 100*m.ESSShare),
+		MaxShare: fmt.Sprintf("%.2f%%", 100*m.MaxShare), MeanRatio: formatDiag(m.MeanRatio), Unreliable: flag,
+		WorstStratum: formatDiag(m.WorstStratumMean), Extreme: fmt.Sprintf("%.1f%%", 100*m.ExtremeShare),
+		ComparisonESS:    formatCount(math.Round(m.ComparisonESS)),
+		ClippedReference: fmt.Sprint(m.ClippedReference), ClippedComparison: fmt.Sprint(m.ClippedComparison)}
+	return v
+}
+
+// diagnostics builds the diagnostics view of res.
+func diagnostics(res *fairness.Result) diagnosticsView {
+	d := diagnosticsView{Clipped: res.Settings.ClipRatios > 0}
+	for _, m := range res.Mechanisms {
+		d.HasComparisonESS = d.HasComparisonESS || m.ComparisonESS > 0
+		d.Clipped = d.Clipped || m.ClippedReference > 0 || m.ClippedComparison > 0
+		for _, l := range m.Losses {
+			d.Candidates = append(d.Candidates, candidateRow{Mechanism: m.Mechanism, Classifier: l.Classifier,
+				LogLoss: fmt.Sprintf("%.4f", l.LogLoss), OddsCheck: formatDiag(l.OddsCheck), Chosen: l.Classifier == m.Classifier})
+		}
+	}
+	for _, w := range res.Weights {
+		for _, h := range []struct {
+			which string
+			hw    fairness.HybridWeight
+		}{{"farthest", w.Far}, {"worst", w.Worst}} {
+			share := "n/a"
+			if w.Records > 0 {
+				share = fmt.Sprintf("%.1f%%", 100*h.hw.ESS/float64(w.Records))
+			}
+			d.Hybrids = append(d.Hybrids, hybridRow{Side: w.Side, Records: fmt.Sprint(w.Records), Which: h.which,
+				Nodes: nodeList(h.hw.ComparisonNodes), ESS: formatCount(math.Round(h.hw.ESS)), ESSShare: share,
+				MaxShare: fmt.Sprintf("%.2f%%", 100*h.hw.MaxShare)})
+		}
+		d.HybridPartial = d.HybridPartial || !w.AllCoalitions
+	}
+	for _, m := range res.Metrics {
+		if m.EffectiveRecords > 0 {
+			d.Effective = append(d.Effective, keyValue{MetricTitle(m.Metric), formatCount(math.Round(m.EffectiveRecords))})
+		}
+	}
+	return d
+}

@@ -1,0 +1,160 @@
+package report
+
+import (
+	"encoding/json"
+	"strings"
+	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// pageData decodes the chart data embedded in a rendered page.
+func pageData(t *testing.T, page string) map[string]any {
+	t.Helper()
+	const open = "window.gapwiseData = "
+	i := strings.Index(page, open)
+	if i < 0 {
+		t.Fatal("page has no chart data")
+	}
+	rest := page[i+len(open):]
+	var data map[string]any
+	if err := json.NewDecoder(strings.NewReader(rest)).Decode(&data); err != nil {
+		t.Fatalf("chart data does not decode: %v", err)
+	}
+	return data
+}
+
+// whiskers returns the items of the walk chart's interval series for a
+// metric, or nil when the chart has none.
+func whiskers(t *testing.T, data map[string]any, metric string) []any {
+	t.Helper()
+	walk, ok := data["walk"].(map[string]any)[metric].(map[string]any)
+	if !ok {
+		t.Fatalf("no walk chart for %s", metric)
+	}
+	for _, s := range walk["series"].([]any) {
+		if sm := s.(map[string]any); sm["id"] == "gw-whiskers" {
+			items, _ := sm["data"].([]any)
+			return items
+		}
+	}
+	return nil
+}
+
+// TestWriteHTMLIntervals: when the Result has bootstrap intervals, the
+// walk chart draws one whisker per interval at the right place, and the
+// tables print them with the level of settings.intervals; without them
+// there is no whisker series. handResult's FNR has intervals for the
+// reference value and for two contributions (age, hb); Brier has none.
+func TestWriteHTMLIntervals(t *testing.T) {
+	page := renderHTML(t, true, func(r *fairness.Result) {
+		r.Settings.Intervals = &fairness.IntervalSettings{Replicates: 200, Level: 0.9}
+	})
+	data := pageData(t, page)
+	w := whiskers(t, data, "fnr")
+	if len(w) != 3 {
+		t.Fatalf("%d FNR whiskers, want 3 (reference value, age, hb)", len(w))
+	}
+	// Rows: 0 reference, then contributions by size: hb (row 1), anaemia,
+	// age (row 3). The reference whisker spans its interval in percent;
+	// hb's spans reference + [4.8, 7.3] points = [16.8, 19.3]% (hand
+	// arithmetic: 12.0 + 4.8 and 12.0 + 7.3).
+	want := map[float64][2]float64{0: {10.1, 13.9}, 1: {16.8, 19.3}}
+	for _, item := range w {
+		v := item.(map[string]any)["value"].([]any)
+		row := v[2].(float64)
+		if span, ok := want[row]; ok && (!near(v[0].(float64), span[0]) || !near(v[1].(float64), span[1])) {
+			t.Errorf("whisker on row %v spans %v–%v, want %v", row, v[0], v[1], span)
+		}
+	}
+	if w := whiskers(t, data, "brier"); w != nil {
+		t.Errorf("Brier walk has whiskers %v but no intervals", w)
+	}
+	for _, want := range []string{
+		`<th class="num">90% interval</th>`,
+		"its 90% interval from the bootstrap (200 bootstrap replicates, classifiers refitted in each, level 90%)",
+		`<span class="gw-ci">[10.1%, 13.9%]</span>`,
+		"<dt>Intervals</dt><dd>200 bootstrap replicates",
+	} {
+		if !strings.Contains(page, want) {
+			t.Errorf("page lacks %q", want)
+		}
+	}
+
+	none := renderHTML(t, true, func(r *fairness.Result) {
+		for i := range r.Metrics {
+			r.Metrics[i].ReferenceCI, r.Metrics[i].GapCI = nil, nil
+			for j := range r.Metrics[i].Contributions {
+				r.Metrics[i].Contributions[j].CILow, r.Metrics[i].Contributions[j].CIHigh = nil, nil
+			}
+		}
+	})
+	noData := pageData(t, none)
+	for _, m := range []string{"fnr", "brier"} {
+		if w := whiskers(t, noData, m); w != nil {
+			t.Errorf("%s: whiskers without intervals: %v", m, w)
+		}
+	}
+}
+
+func near(a, b float64) bool { return a-b < 1e-6 && b-a < 1e-6 }
+
+// TestWriteHTMLDiagnostics: the title heads the page, and the weight
+// diagnostics of the Result appear in the diagnostics tables (numbers from
+// withDiagnostics, rounded by hand).
+func TestWriteHTMLDiagnostics(t *testing.T) {
+	page := renderHTML(t, true, withDiagnostics)
+	for _, want := range []string{
+		"<title>Anaemia screening, spring audit</title>",
+		`<dd id="audit-title">Anaemia screening, spring audit</dd>`,
+		"<dt>Hybrids estimated from</dt><dd>both</dd>",
+		"<dt>Log-ratios clipped to</dt><dd>central 99% of each mechanism&#39;s log-ratios</dd>",
+		"<dt>Exact Shapley values up to</dt><dd>16 mechanisms (sampled above)</dd>",
+		"searched here only among the empty, full, single and all-but-one coalitions",
+	} {
+		if !strings.Contains(page, want) {
+			t.Errorf("page lacks %q", want)
+		}
+	}
+	if strings.Contains(page, "<dt>Cohort</dt>") {
+		t.Error("the header shows the data file although the Result has a title")
+	}
+	cases := []struct {
+		table string
+		row   int
+		want  []string
+	}{
+		{"diagnostics-table", 2, []string{"hb | anaemia", "hb", "quadratic", "linear", "0.810", "400", "33.3%", "2.00%", "1.012", "1.100", "0.2%", "700", "14", "13"}},
+		{"candidates-table", 0, []string{"ferritin | anaemia, hb", "linear", "0.6890", "1.020", "yes"}},
+		{"candidates-table", 1, []string{"ferritin | anaemia, hb", "quadratic", "0.6910", "1.030", ""}},
+		{"hybrids-table", 0, []string{"reference", "1200", "farthest", "age, anaemia, hb, ferritin", "300", "25.0%", "3.10%"}},
+		{"hybrids-table", 2, []string{"comparison", "1100", "farthest", "none", "500", "45.5%", "1.20%"}},
+		{"effective-table", 0, []string{"false-negative rate", "812"}},
+		{"effective-table", 1, []string{"Brier score", "1503"}},
+	}
+	for _, c := range cases {
+		rows := tableRows(t, page, c.table)
+		if c.row >= len(rows) || strings.Join(rows[c.row], " ‖ ") != strings.Join(c.want, " ‖ ") {
+			got := []string{}
+			if c.row < len(rows) {
+				got = rows[c.row]
+			}
+			t.Errorf("%s row %d:\n got %s\nwant %s", c.table, c.row, strings.Join(got, " ‖ "), strings.Join(c.want, " ‖ "))
+		}
+	}
+}
+
+// TestWriteHTMLStdError: sampled Shapley values add a standard error
+// column to the decomposition table.
+func TestWriteHTMLStdError(t *testing.T) {
+	page := renderHTML(t, false, func(r *fairness.Result) {
+		r.Metrics[0].Contributions[2].StdError = ptr(0.0036)
+	})
+	rows := tableRows(t, page, "decomp-fnr")
+	if got := strings.Join(rows[2], " ‖ "); got != "hb | anaemia ‖ +6.1 pts ‖ 0.4 pts ‖ [4.8, 7.3] pts ‖ +5.8 pts ‖ +2.0 pts" {
+		t.Errorf("hb row: %s", got)
+	}
+	if !strings.Contains(page, "Monte Carlo standard error") {
+		t.Error("no explanation of the standard error")
+	}
+}
