@@ -135,6 +135,9 @@ func writeDemoSummary(w io.Writer, res *fairness.Result, dir string) {
 	}
 	for _, m := range res.Metrics {
 		line := fmt.Sprintf("  %-*s  %s %.4f  %s %.4f  gap %+.4f", name, m.Metric, g.Reference, m.Reference, g.Comparison, m.Comparison, m.Gap)
+		if m.GapCI != nil {
+			line += fmt.Sprintf(" [%+.4f, %+.4f]", m.GapCI.Low, m.GapCI.High)
+		}
 		if top, ok := largest(m.Contributions); ok {
 			line += fmt.Sprintf("  largest: %s %+.4f", top.Mechanism, top.Value)
 		}

@@ -76,7 +76,12 @@ func TestDemoWritesEverything(t *testing.T) {
 		t.Errorf("metrics %v, want %v", names, want)
 	}
 	checkSums(t, res)
-	for _, want := range []string{"SYNTHETIC", "fpr", "largest: hb | anaemia, age", reportFile} {
+	fpr := res.Metrics[1] // the gap's interval follows it as [low, high]
+	if fpr.GapCI == nil {
+		t.Fatal("demo with intervals has no FPR gap interval")
+	}
+	gapCI := fmt.Sprintf("gap %+.4f [%+.4f, %+.4f]", fpr.Gap, fpr.GapCI.Low, fpr.GapCI.High)
+	for _, want := range []string{"SYNTHETIC", "fpr", "largest: hb | anaemia, age", reportFile, gapCI} {
 		if !strings.Contains(sharedOut, want) {
 			t.Errorf("summary lacks %q:\n%s", want, sharedOut)
 		}
