@@ -111,13 +111,20 @@ func axisUnit(metric string) string {
 // niceRange widens [lo, hi] by a margin and rounds it outwards to a
 // multiple of a 1-2-5 step, so that axis ends fall on readable numbers.
 func niceRange(lo, hi float64) (float64, float64) {
+	lo, hi, _ = niceAxis(lo, hi)
+	return lo, hi
+}
+
+// niceAxis is niceRange that also returns the 1-2-5 step, so that a chart
+// can put its ticks on multiples of it (both ends then carry a label).
+func niceAxis(lo, hi float64) (float64, float64, float64) {
 	span := hi - lo
 	if !(span > 0) {
 		span = math.Max(math.Abs(hi), 1) * 0.1
 	}
 	lo, hi = lo-0.08*span, hi+0.08*span
 	step := niceStep((hi - lo) / 5)
-	return math.Floor(lo/step) * step, math.Ceil(hi/step) * step
+	return math.Floor(lo/step) * step, math.Ceil(hi/step) * step, step
 }
 
 // niceStep returns the smallest number of the form {1, 2, 5}·10^k at least x.

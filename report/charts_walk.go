@@ -78,7 +78,7 @@ func walkChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			lo, hi = math.Min(lo, *s.Low), math.Max(hi, *s.High)
 		}
 	}
-	amin, amax := niceRange(k*lo, k*hi)
+	amin, amax, step := niceAxis(k*lo, k*hi)
 
 	var labels []string
 	var bars, whiskers []opts.CustomData
@@ -142,6 +142,13 @@ func walkChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 		}))
 	}
 	o := optionOf(c)
+	// Ticks on multiples of the range's step, so that the two ends are
+	// labelled like the rest (ECharts would otherwise pick its own step).
+	if xs, ok := o["xAxis"].([]any); ok && len(xs) > 0 {
+		if x, ok := xs[0].(map[string]any); ok {
+			x["interval"] = round6(step)
+		}
+	}
 	// Long row labels are cut with an ellipsis rather than pushed out of
 	// the chart; the table beside the chart has them in full.
 	if ys, ok := o["yAxis"].([]any); ok && len(ys) > 0 {

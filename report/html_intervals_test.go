@@ -2,6 +2,7 @@ package report
 
 import (
 	"encoding/json"
+	"math"
 	"strings"
 	"testing"
 
@@ -66,6 +67,12 @@ func TestWriteHTMLIntervals(t *testing.T) {
 		if span, ok := want[row]; ok && (!near(v[0].(float64), span[0]) || !near(v[1].(float64), span[1])) {
 			t.Errorf("whisker on row %v spans %v–%v, want %v", row, v[0], v[1], span)
 		}
+	}
+	// The axis ticks fall on multiples of the step, both ends included.
+	x := data["walk"].(map[string]any)["fnr"].(map[string]any)["xAxis"].([]any)[0].(map[string]any)
+	lo, hi, step := x["min"].(float64), x["max"].(float64), x["interval"].(float64)
+	if n := (hi - lo) / step; step <= 0 || math.Abs(n-math.Round(n)) > 1e-9 || math.Abs(lo/step-math.Round(lo/step)) > 1e-9 {
+		t.Errorf("walk axis [%v, %v] is not a whole number of steps %v", lo, hi, step)
 	}
 	if w := whiskers(t, data, "brier"); w != nil {
 		t.Errorf("Brier walk has whiskers %v but no intervals", w)

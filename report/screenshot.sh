@@ -16,6 +16,6 @@ mkdir -p docs
 "$chromium" --headless --no-sandbox --disable-gpu --disable-background-networking \
   --no-first-run --disable-component-update --disable-sync --disable-extensions \
   --host-resolver-rules='MAP * ~NOTFOUND' --user-data-dir="$tmp/profile" \
-  --virtual-time-budget=5000 --hide-scrollbars --window-size=1280,2300 \
+  --virtual-time-budget=5000 --hide-scrollbars --window-size=1280,2750 \
   --screenshot="$PWD/docs/demo-report.png" "file://$tmp/demo/report.html" 2>/dev/null
 echo "wrote docs/demo-report.png"
