@@ -30,31 +30,37 @@ const (
 // gtTolerance is the allowed |φ̂ − φ| per metric at gtRecords records per
 // group, before adding the ground truth's own Monte Carlo error: Other for
 // every mechanism but the unread covariate, Unread for that one (its 1 SD
-// mean shift gives weights with an effective sample size near n/e, so its
-// contribution is the noisiest), Residual for Gap − Σφ̂. Each value is
-// 4 × the largest root-mean-square error against ground truth over the
-// strict cases (interaction, spread-narrow, prevalence, case-mix, combined),
-// measured over 10 replicate samples of 20 000 records per group with
-// Linear+Expanded candidates (ground truth from 2^20 records, MC SE ≤ 0.0008):
+// mean shift gives weights with an effective sample size near n/e),
+// Residual for Gap − Σφ̂. Each value is 5 × the largest root-mean-square
+// error against ground truth over the strict cases (interaction,
+// spread-narrow, prevalence, case-mix, combined), measured over 10 replicate
+// samples of 20 000 records per group with Linear+Expanded candidates and
+// the default options (two-sided estimation, SideBoth, the default since
+// commit 13a9165; ground truth from 2^20 records, MC SE ≤ 0.0009):
 //
 //	go run ./attribution/internal/scm/cmd/gapwise-accuracy -sizes 20000 -reps 10 \
 //	    -learners linear+expanded -cases interaction,spread-narrow,prevalence,case-mix,combined -detail
 //
-// Measured largest RMSE (case/mechanism): fnr 0.0101 (interaction/marker_a),
-// unread 0.0169 (combined), residual 0.0218 (interaction); fpr 0.0024
-// (case-mix/age), unread 0.0041, residual 0.0074; calibration_in_the_large
-// 0.0029 (prevalence/disease), unread 0.0050, residual 0.0071; brier 0.0020
-// (interaction/marker_a), unread 0.0028, residual 0.0045. The RMSE folds the
-// estimator's bias into its sampling spread, so 4 × RMSE bounds one draw's
-// error unless the draw is a > 4 SD outlier (probability < 1e-4 per check
-// under normality).
+// Measured largest RMSE (case/mechanism):
+//
+//	fnr                      0.0047 (interaction/marker_a), unread 0.0067, residual 0.0071
+//	fpr                      0.0023 (combined/marker_b),    unread 0.0023, residual 0.0021
+//	calibration_in_the_large 0.0029 (interaction/disease),  unread 0.0016, residual 0.0013
+//	brier                    0.0015 (combined/marker_b),    unread 0.0012, residual 0.0012
+//
+// The RMSE folds the estimator's bias into its sampling spread. The factor
+// 5 is 4 standard deviations (a single draw falls outside with probability
+// < 1e-4 under normality) times 1.25 for the uncertainty of an RMSE
+// estimated from 10 replicates (relative standard error ≈ 1/√(2·10) ≈ 22 %;
+// common practice). If the engine's defaults change, rerun the command above
+// and update these numbers.
 type gtBound struct{ Other, Unread, Residual float64 }
 
 var gtTolerance = map[string]gtBound{
-	metrics.NameFNR:                   {Other: 4 * 0.0101, Unread: 4 * 0.0169, Residual: 4 * 0.0218},
-	metrics.NameFPR:                   {Other: 4 * 0.0024, Unread: 4 * 0.0041, Residual: 4 * 0.0074},
-	metrics.NameCalibrationInTheLarge: {Other: 4 * 0.0029, Unread: 4 * 0.0050, Residual: 4 * 0.0071},
-	metrics.NameBrier:                 {Other: 4 * 0.0020, Unread: 4 * 0.0028, Residual: 4 * 0.0045},
+	metrics.NameFNR:                   {Other: 5 * 0.0047, Unread: 5 * 0.0067, Residual: 5 * 0.0071},
+	metrics.NameFPR:                   {Other: 5 * 0.0023, Unread: 5 * 0.0023, Residual: 5 * 0.0021},
+	metrics.NameCalibrationInTheLarge: {Other: 5 * 0.0029, Unread: 5 * 0.0016, Residual: 5 * 0.0013},
+	metrics.NameBrier:                 {Other: 5 * 0.0015, Unread: 5 * 0.0012, Residual: 5 * 0.0012},
 }
 
 // gtSizes returns records per group and per hybrid distribution, and the
@@ -107,6 +113,7 @@ func TestDecomposeMatchesGroundTruth(t *testing.T) {
 		t.Run(name, func(t *testing.T) {
 			c := gtCase(t, name)
 			truth, d := gtRun(t, c, []classify.Learner{classify.NewLinear(), classify.NewExpanded()})
+			worst := 0.0 // largest |err| / tolerance, logged to show the margin
 			null := map[int]bool{}
 			for _, i := range c.Null {
 				null[i] = true
@@ -124,14 +131,18 @@ func TestDecomposeMatchesGroundTruth(t *testing.T) {
 					if null[i] && want != 0 {
 						t.Fatalf("%s: null mechanism %s has simulated truth %g, want exactly 0", md.Metric, d.Mechanisms[i].Mechanism.Node, want)
 					}
+					worst = math.Max(worst, math.Abs(got-want)/tol)
 					if math.Abs(got-want) > tol {
 						t.Errorf("%s φ(%s) = %+.4f, ground truth %+.4f ± %.4f (null: %v)", md.Metric, d.Mechanisms[i].Mechanism.Node, got, want, tol, null[i])
 					}
 				}
-				if tol := scale * gtTolerance[md.Metric].Residual; math.Abs(md.Residual) > tol {
+				tol := scale * gtTolerance[md.Metric].Residual
+				worst = math.Max(worst, math.Abs(md.Residual)/tol)
+				if math.Abs(md.Residual) > tol {
 					t.Errorf("%s residual %+.4f, want within ±%.4f", md.Metric, md.Residual, tol)
 				}
 			}
+			t.Logf("largest |error| / tolerance: %.2f", worst)
 		})
 	}
 }
