@@ -40,7 +40,7 @@ import (
 //	folds: 5             # cross-fitting folds, >= 2
 //	classifier: auto     # auto, linear, expanded or boosted
 //	ece_bins: 10         # >= 1
-//	estimate_from: reference  # records that estimate the hybrids: reference, comparison or both
+//	estimate_from: both       # records that estimate the hybrids: reference, comparison or both
 //	clip_ratios: 0.99    # clip log-ratios to their central 99% interval; omit for none
 //	exact_limit: 16      # exact Shapley values up to this many mechanisms, sampled above
 //	intervals:           # percentile bootstrap intervals; omit for none
