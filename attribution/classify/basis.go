@@ -3,10 +3,7 @@ package classify
 import (
 	"fmt"
 	"math"
-	"runtime"
 	"sort"
-	"sync"
-	"sync/atomic"
 
 	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
@@ -72,14 +69,15 @@ type basis struct {
 // rawDesign builds the linear design of x: the intercept column and the
 // standardised non-constant raw columns, in column order. It returns the
 // design, the scales of all p raw columns (see columnScale), and the
-// indices of the non-constant ("active") columns.
-func rawDesign(x *mat.Dense, w []float64, sw float64) (*design, []columnScale, []int) {
+// indices of the non-constant ("active") columns. Work is spread over up
+// to threads goroutines (0 means GOMAXPROCS).
+func rawDesign(x *mat.Dense, w []float64, sw float64, threads int) (*design, []columnScale, []int) {
 	n, p := x.Dims()
 	rm := x.RawMatrix()
 	cols := make([]float64, (1+p)*n)
 	// Transpose in row blocks (each block writes its own rows of every
 	// column), then scale each column on its own.
-	logisticBlocks(n, func(_, lo, hi int) {
+	logisticBlocks(threads, n, func(_, lo, hi int) {
 		for i := lo; i < hi; i++ {
 			for c, v := range rm.Data[i*rm.Stride : i*rm.Stride+p] {
 				cols[(1+c)*n+i] = v
@@ -87,7 +85,7 @@ func rawDesign(x *mat.Dense, w []float64, sw float64) (*design, []columnScale, [
 		}
 	})
 	scales := make([]columnScale, p)
-	forEachIndex(p, func(c int) {
+	parallelIndex(threads, p, func(c int) {
 		col := cols[(1+c)*n : (2+c)*n]
 		binary := twoValued(col, w)
 		scales[c] = standardiseInPlace(col, w, sw)
@@ -223,7 +221,8 @@ func allFourCells(a, b, w []float64) bool {
 // on the training weights. Products of two binary columns that do not take
 // all four value combinations, and terms constant on the weighted rows, are
 // dropped; the kept terms and their scales are returned with the design.
-func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w []float64, sw float64) (*design, []Term, []columnScale) {
+// Terms are built on up to threads goroutines (0 means GOMAXPROCS).
+func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w []float64, sw float64, threads int) (*design, []Term, []columnScale) {
 	n := lin.n
 	pos := make(map[int]int, len(active)) // raw column → design column
 	for a, c := range active {
@@ -234,7 +233,7 @@ func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w 
 	scales := make([]columnScale, len(terms))
 	// Terms are independent: build them in parallel, each into its own
 	// slot (k+1); no floating-point result depends on the scheduling.
-	forEachIndex(len(terms), func(k int) {
+	parallelIndex(threads, len(terms), func(k int) {
 		t := terms[k]
 		a, buf := lin.col(pos[t.I]), z.col(k+1)
 		if t.J > t.I && raw[t.I].binary && raw[t.J].binary && !allFourCells(a, lin.col(pos[t.J]), w) {
@@ -309,28 +308,6 @@ func standardiseInPlace(v, w []float64, sw float64) columnScale {
 	s.sd = math.Sqrt(ss / sw)
 	floats.Scale(1/s.sd, v)
 	return s
-}
-
-// forEachIndex calls fn(k) for k in [0, m) on up to GOMAXPROCS goroutines.
-// fn must only write state owned by index k.
-func forEachIndex(m int, fn func(k int)) {
-	workers := min(runtime.GOMAXPROCS(0), m)
-	if workers <= 1 {
-		for k := 0; k < m; k++ {
-			fn(k)
-		}
-		return
-	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for range workers {
-		wg.Go(func() {
-			for k := int(next.Add(1) - 1); k < m; k = int(next.Add(1) - 1) {
-				fn(k)
-			}
-		})
-	}
-	wg.Wait()
 }
 
 // rowTerms evaluates the design row (without the intercept) for the raw

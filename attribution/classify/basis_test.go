@@ -88,9 +88,9 @@ func TestExpandTermsOneHot(t *testing.T) {
 		1.2, 0, 1,
 	})
 	y := []float64{0, 1, 0, 1, 0, 1}
-	lin, raw, active := rawDesign(x, nil, 6)
+	lin, raw, active := rawDesign(x, nil, 6, 0)
 	inter := interactionSet(lin, active, y, nil, 8)
-	_, terms, _ := expandDesign(lin, raw, active, expandTerms(raw, active, inter), nil, 6)
+	_, terms, _ := expandDesign(lin, raw, active, expandTerms(raw, active, inter), nil, 6, 0)
 	want := []Term{{0, -1}, {1, -1}, {2, -1}, {0, 0}, {0, 1}, {0, 2}}
 	if !reflect.DeepEqual(terms, want) {
 		t.Errorf("terms %v, want %v", terms, want)
@@ -107,7 +107,7 @@ func TestInteractionSetRanking(t *testing.T) {
 		1, 0, 0.5,
 	})
 	y := []float64{0, 1, 0, 1} // equals column 0; column 1 = 1 − y; column 2 weaker
-	lin, _, active := rawDesign(x, nil, 4)
+	lin, _, active := rawDesign(x, nil, 4, 0)
 	if got := interactionSet(lin, active, y, nil, 2); !reflect.DeepEqual(got, []int{0, 1}) {
 		t.Errorf("interaction set %v, want [0 1]", got)
 	}

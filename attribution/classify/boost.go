@@ -5,9 +5,6 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"runtime"
-	"sync"
-	"sync/atomic"
 
 	"gonum.org/v1/gonum/mat"
 )
@@ -59,6 +56,9 @@ type Boosted struct {
 	ValidationFraction float64 // share of rows held out for early stopping; 0 disables it
 	Patience           int     // rounds without validation improvement before stopping
 	Calibrate          bool    // Platt-scale the log-odds on the validation split
+	// Threads bounds the goroutines of Fit and of the fitted model's
+	// LogOdds; 0 means GOMAXPROCS. Results do not depend on it.
+	Threads int
 }
 
 // NewBoosted returns a Boosted learner with the default settings: up to 200
@@ -83,6 +83,12 @@ func NewBoosted() Boosted {
 // Name returns "boosted".
 func (b Boosted) Name() string { return "boosted" }
 
+// WithThreads returns a copy of b with Threads = n (see Threaded).
+func (b Boosted) WithThreads(n int) Learner {
+	b.Threads = n
+	return b
+}
+
 // Fit trains the boosted trees on the rows of x with 0/1 targets y and
 // optional non-negative weights w (nil means all 1). It panics if y or w do
 // not have x.Rows() entries. It returns an error when the settings are out of
@@ -106,9 +112,10 @@ func (b Boosted) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	}
 
 	train, valid := b.splitRows(y, wn, seed)
-	binning := newBoostBinning(x, train, b.MaxBins, seed)
-	trainBins := binning.binRows(x, train)
-	validBins := binning.binRows(x, valid)
+	threads := threadCount(b.Threads)
+	binning := newBoostBinning(x, train, b.MaxBins, seed, threads)
+	trainBins := binning.binRows(x, train, threads)
+	validBins := binning.binRows(x, valid, threads)
 
 	yv, wv := boostGather(y, valid), boostGather(wn, valid)
 	z := make([]float64, len(train))
@@ -131,7 +138,7 @@ func (b Boosted) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	grower := newBoostGrower(trainBins, binning, z, sw, boostTreeConfig{
 		maxLeaves: b.MaxLeaves, maxDepth: b.MaxDepth,
 		minRows: b.MinLeafRows, minHessian: b.MinLeafHessian,
-		l2: b.L2, rate: b.LearningRate,
+		l2: b.L2, rate: b.LearningRate, threads: threads,
 	})
 	words := boostWords(p)
 	rawV := make([]float64, len(valid))
@@ -162,6 +169,7 @@ func (b Boosted) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	trees = trees[:bestRounds]
 
 	m := newBoostedModel(base, trees, p)
+	m.threads = b.Threads
 	m.validLoss = bestLoss
 	if b.Calibrate && len(valid) > 0 {
 		// Recompute the kept rounds' validation log-odds.
@@ -314,33 +322,6 @@ func boostLogLoss(z, y, w []float64) float64 {
 	return num / den
 }
 
-// boostParallel calls fn(i) for i = 0 … n−1 on up to GOMAXPROCS goroutines.
-// Each call must write only to state owned by its index, so the outcome does
-// not depend on scheduling.
-func boostParallel(n int, fn func(i int)) {
-	workers := min(n, runtime.GOMAXPROCS(0))
-	if workers <= 1 {
-		for i := range n {
-			fn(i)
-		}
-		return
-	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for range workers {
-		wg.Go(func() {
-			for {
-				i := int(next.Add(1) - 1)
-				if i >= n {
-					return
-				}
-				fn(i)
-			}
-		})
-	}
-	wg.Wait()
-}
-
 // BoostedModel is a fitted Boosted classifier. Its log-odds are
 //
 //	slope·(z₀ + Σ_t f_t(x)) + intercept,
@@ -355,6 +336,7 @@ type BoostedModel struct {
 	slope     float64
 	intercept float64
 	validLoss float64
+	threads   int // goroutines of LogOdds; 0 means GOMAXPROCS
 }
 
 // boostPredNode is the compact prediction form of a boostNode; its children
@@ -399,7 +381,8 @@ func (m *BoostedModel) ValidationLoss() float64 { return m.validLoss }
 const boostPredictBlock = 256
 
 // LogOdds writes the model's log-odds for every row of x into dst. Rows are
-// processed in parallel blocks; each row's sum runs over the trees in order,
+// processed in parallel blocks (on at most the learner's Threads
+// goroutines); each row's sum runs over the trees in order,
 // so the result does not depend on GOMAXPROCS. A NaN feature follows the
 // "≤ threshold" branch. It panics if len(dst) != x.Rows() or x has a
 // different number of columns than the training data.
@@ -412,7 +395,7 @@ func (m *BoostedModel) LogOdds(x *mat.Dense, dst []float64) {
 		panic(fmt.Sprintf("classify: boosted: LogOdds got %d columns, model was fitted on %d", p, m.p))
 	}
 	raw := x.RawMatrix()
-	boostParallel((n+boostPredictBlock-1)/boostPredictBlock, func(k int) {
+	parallelIndex(m.threads, (n+boostPredictBlock-1)/boostPredictBlock, func(k int) {
 		lo, hi := k*boostPredictBlock, min(n, (k+1)*boostPredictBlock)
 		m.predictBlock(raw.Data[lo*raw.Stride:], raw.Stride, dst[lo:hi])
 	})

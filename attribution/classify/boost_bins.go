@@ -25,8 +25,9 @@ type boostBinning struct {
 }
 
 // newBoostBinning places the bin edges of every column of x from the given
-// rows (all of them, or a seeded subsample of boostBinSample rows).
-func newBoostBinning(x *mat.Dense, rows []int32, maxBins int, seed uint64) *boostBinning {
+// rows (all of them, or a seeded subsample of boostBinSample rows), sorting
+// the columns on up to threads goroutines.
+func newBoostBinning(x *mat.Dense, rows []int32, maxBins int, seed uint64, threads int) *boostBinning {
 	_, p := x.Dims()
 	sample := rows
 	if len(rows) > boostBinSample {
@@ -42,7 +43,7 @@ func newBoostBinning(x *mat.Dense, rows []int32, maxBins int, seed uint64) *boos
 	}
 	b := &boostBinning{edges: make([][]float64, p), offsets: make([]int, p+1)}
 	raw := x.RawMatrix()
-	boostParallel(p, func(f int) {
+	parallelIndex(threads, p, func(f int) {
 		vals := make([]float64, len(sample))
 		for i, r := range sample {
 			vals[i] = raw.Data[int(r)*raw.Stride+f]
@@ -105,14 +106,15 @@ func boostWords(p int) int { return (p + 7) / 8 }
 // binRows returns the bins of the given rows of x, packed row-major: row i
 // occupies words i·W … i·W+W−1 (W = boostWords(p)), and the bin of feature f
 // is byte f mod 8 (little-endian) of word i·W + f/8. Packing lets a row's
-// bins move as whole words when rows are partitioned.
-func (b *boostBinning) binRows(x *mat.Dense, rows []int32) []uint64 {
+// bins move as whole words when rows are partitioned. Blocks of rows are
+// binned on up to threads goroutines.
+func (b *boostBinning) binRows(x *mat.Dense, rows []int32, threads int) []uint64 {
 	p := len(b.edges)
 	words := boostWords(p)
 	out := make([]uint64, len(rows)*words)
 	raw := x.RawMatrix()
 	const block = 8192
-	boostParallel((len(rows)+block-1)/block, func(k int) {
+	parallelIndex(threads, (len(rows)+block-1)/block, func(k int) {
 		lo, hi := k*block, min(len(rows), (k+1)*block)
 		for i := lo; i < hi; i++ {
 			src := raw.Data[int(rows[i])*raw.Stride:]

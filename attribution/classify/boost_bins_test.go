@@ -99,8 +99,8 @@ func TestBoostBinningPacksRows(t *testing.T) {
 	for i := range rows {
 		rows[i] = int32(i)
 	}
-	b := newBoostBinning(x, rows, 255, 1)
-	packed := b.binRows(x, rows)
+	b := newBoostBinning(x, rows, 255, 1, 0)
+	packed := b.binRows(x, rows, 0)
 	W := boostWords(p)
 	for i := range n {
 		for f := range p {
@@ -128,7 +128,7 @@ func BenchmarkBoostBinRows(b *testing.B) {
 		rows[i] = int32(i)
 	}
 	for b.Loop() {
-		bn := newBoostBinning(x, rows, 255, 1)
-		bn.binRows(x, rows)
+		bn := newBoostBinning(x, rows, 255, 1, 0)
+		bn.binRows(x, rows, 0)
 	}
 }

@@ -55,3 +55,46 @@ func TestBoostedOneRoundNewtonStep(t *testing.T) {
 		})
 	}
 }
+
+// TestBoostExpNeg compares boostExpNeg with math.Exp(−x) over [0, 700):
+// the relative error must stay below 1e-8 (the bound in its doc comment,
+// well below the single-precision rounding of the gradients).
+func TestBoostExpNeg(t *testing.T) {
+	worst := 0.0
+	for i := 0; i <= 2_000_000; i++ {
+		x := 700 * float64(i) / 2_000_001
+		want := math.Exp(-x)
+		got := boostExpNeg(x)
+		if rel := math.Abs(got-want) / want; rel > worst {
+			worst = rel
+		}
+	}
+	if worst > 1e-8 {
+		t.Errorf("boostExpNeg: worst relative error %.3g over [0, 700), want < 1e-8", worst)
+	}
+	for _, x := range []float64{700, 1e4, math.Inf(1)} {
+		if got := boostExpNeg(x); got != 0 {
+			t.Errorf("boostExpNeg(%g) = %g, want 0", x, got)
+		}
+	}
+}
+
+// BenchmarkBoostGradients times one gradient pass over 160 000 rows.
+func BenchmarkBoostGradients(b *testing.B) {
+	x, y := boostBenchData(160_000, 6, 7)
+	rows := make([]int32, len(y))
+	for i := range rows {
+		rows[i] = int32(i)
+	}
+	bn := newBoostBinning(x, rows, 255, 1, 1)
+	z := make([]float64, len(y))
+	sw := make([]float64, len(y))
+	for i := range y {
+		z[i] = 0.01 * float64(i%400-200)
+		sw[i] = 2*y[i] - 1
+	}
+	gr := newBoostGrower(bn.binRows(x, rows, 1), bn, z, sw, boostTreeConfig{threads: 1})
+	for b.Loop() {
+		gr.gradients()
+	}
+}

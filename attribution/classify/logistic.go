@@ -4,9 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"runtime"
-	"sync"
-	"sync/atomic"
 
 	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
@@ -58,6 +55,9 @@ type Linear struct {
 	// Lambda is the L2 penalty λ ≥ 0 on the coefficients of the
 	// standardised columns (scikit-learn's C = 1/λ).
 	Lambda float64
+	// Threads bounds the goroutines of Fit and of the fitted model's
+	// LogOdds; 0 means GOMAXPROCS. Results do not depend on it.
+	Threads int
 }
 
 // NewLinear returns a Linear learner with λ = DefaultLambda.
@@ -65,6 +65,12 @@ func NewLinear() Linear { return Linear{Lambda: DefaultLambda} }
 
 // Name returns "linear".
 func (Linear) Name() string { return "linear" }
+
+// WithThreads returns a copy of l with Threads = n (see Threaded).
+func (l Linear) WithThreads(n int) Learner {
+	l.Threads = n
+	return l
+}
 
 // Fit trains on the rows of x with 0/1 targets y and optional non-negative
 // weights w (nil means all 1). The seed is unused: the fit is deterministic.
@@ -77,13 +83,14 @@ func (l Linear) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	if err != nil {
 		return nil, err
 	}
-	z, raw, active := rawDesign(x, w, sw)
+	threads := threadCount(l.Threads)
+	z, raw, active := rawDesign(x, w, sw, threads)
 	terms := make([]Term, len(active))
 	for a, c := range active {
 		terms[a] = Term{c, -1}
 	}
 	b := &basis{p: x.RawMatrix().Cols, raw: raw, terms: terms}
-	return fitLogistic("linear", b, z, y, w, sw, l.Lambda)
+	return fitLogistic("linear", b, z, y, w, sw, l.Lambda, l.Threads)
 }
 
 // Expanded is L2-penalised logistic regression on an expanded basis of the
@@ -118,6 +125,9 @@ type Expanded struct {
 	Lambda float64
 	// MaxInteract ≥ 1 bounds the interaction set (see the type comment).
 	MaxInteract int
+	// Threads bounds the goroutines of Fit and of the fitted model's
+	// LogOdds; 0 means GOMAXPROCS. Results do not depend on it.
+	Threads int
 }
 
 // NewExpanded returns an Expanded learner with λ = DefaultLambda and
@@ -129,6 +139,12 @@ func NewExpanded() Expanded {
 // Name returns "expanded".
 func (Expanded) Name() string { return "expanded" }
 
+// WithThreads returns a copy of e with Threads = n (see Threaded).
+func (e Expanded) WithThreads(n int) Learner {
+	e.Threads = n
+	return e
+}
+
 // Fit trains as Linear.Fit does, on the expanded basis. It also returns an
 // error wrapping ErrBadInput when MaxInteract < 1.
 func (e Expanded) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
@@ -139,11 +155,12 @@ func (e Expanded) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) 
 	if e.MaxInteract < 1 {
 		return nil, fmt.Errorf("classify: expanded: MaxInteract must be ≥ 1, got %d: %w", e.MaxInteract, ErrBadInput)
 	}
-	lin, raw, active := rawDesign(x, w, sw)
+	threads := threadCount(e.Threads)
+	lin, raw, active := rawDesign(x, w, sw, threads)
 	inter := interactionSet(lin, active, y, w, e.MaxInteract)
-	z, terms, scales := expandDesign(lin, raw, active, expandTerms(raw, active, inter), w, sw)
+	z, terms, scales := expandDesign(lin, raw, active, expandTerms(raw, active, inter), w, sw, threads)
 	b := &basis{p: x.RawMatrix().Cols, raw: raw, terms: terms, termScale: scales}
-	return fitLogistic("expanded", b, z, y, w, sw, e.Lambda)
+	return fitLogistic("expanded", b, z, y, w, sw, e.Lambda, e.Threads)
 }
 
 // checkLogisticInput validates the training data and returns Σ w_i.
@@ -213,8 +230,9 @@ func checkLogisticInput(name string, lambda float64, x *mat.Dense, y, w []float6
 // learning", cited from memory), as d(d+1)/2 products per row then cost
 // more than the extra iterations. Function values and gradients are always
 // exact, so the returned minimiser and the stopping test are those of the
-// full objective.
-func fitLogistic(name string, b *basis, z *design, y, w []float64, sw, lambda float64) (*LogisticModel, error) {
+// full objective. Row blocks are processed on up to threads goroutines
+// (0 means GOMAXPROCS); the fitted model's LogOdds uses as many.
+func fitLogistic(name string, b *basis, z *design, y, w []float64, sw, lambda float64, threads int) (*LogisticModel, error) {
 	theta := make([]float64, z.d)
 	theta[0] = math.Log(weightedSum(y, w) / (sw - weightedSum(y, w)))
 	iters := 0
@@ -223,7 +241,7 @@ func fitLogistic(name string, b *basis, z *design, y, w []float64, sw, lambda fl
 		sz, sy, sws := subsampleRows(z, y, w, s)
 		ssw := weightedSum(nil, sws)
 		if sy1 := weightedSum(sy, sws); sy1 > 0 && sy1 < ssw {
-			sub := newLogisticObjective(sz, sy, sws, lambda/float64(s))
+			sub := newLogisticObjective(sz, sy, sws, lambda/float64(s), threads)
 			th, it, err := newtonMinimise(sub, theta, logisticWarmTol*ssw)
 			iters += it
 			if err == nil {
@@ -235,7 +253,7 @@ func fitLogistic(name string, b *basis, z *design, y, w []float64, sw, lambda fl
 			}
 		}
 	}
-	full := newLogisticObjective(z, y, w, lambda)
+	full := newLogisticObjective(z, y, w, lambda, threads)
 	full.hsub = hsub
 	if hsub != nil {
 		full.hscale = hsub.hscale
@@ -250,6 +268,7 @@ func fitLogistic(name string, b *basis, z *design, y, w []float64, sw, lambda fl
 		intercept: theta[0],
 		coef:      append([]float64(nil), theta[1:]...),
 		iters:     iters,
+		threads:   threads,
 	}, nil
 }
 
@@ -344,6 +363,7 @@ type LogisticModel struct {
 	intercept float64
 	coef      []float64
 	iters     int
+	threads   int // goroutines of LogOdds; 0 means GOMAXPROCS
 }
 
 // Intercept returns β₀.
@@ -371,7 +391,7 @@ func (m *LogisticModel) LogOdds(x *mat.Dense, dst []float64) {
 		panic(fmt.Sprintf("classify: LogOdds: x has %d columns, model was fitted on %d", p, m.b.p))
 	}
 	raw := x.RawMatrix()
-	logisticBlocks(n, func(_, lo, hi int) {
+	logisticBlocks(m.threads, n, func(_, lo, hi int) {
 		zbuf := make([]float64, p)
 		tbuf := make([]float64, len(m.coef))
 		for i := lo; i < hi; i++ {
@@ -387,28 +407,11 @@ func (m *LogisticModel) LogOdds(x *mat.Dense, dst []float64) {
 const logisticBlockRows = 8192
 
 // logisticBlocks calls fn(b, lo, hi) for every block b of rows [lo, hi) of
-// [0, n), on up to GOMAXPROCS goroutines, and returns when all are done.
-func logisticBlocks(n int, fn func(b, lo, hi int)) {
+// [0, n), on up to threads goroutines (0 means GOMAXPROCS), and returns
+// when all are done.
+func logisticBlocks(threads, n int, fn func(b, lo, hi int)) {
 	nb := (n + logisticBlockRows - 1) / logisticBlockRows
-	workers := min(runtime.GOMAXPROCS(0), nb)
-	if workers <= 1 {
-		for b := 0; b < nb; b++ {
-			fn(b, b*logisticBlockRows, min(n, (b+1)*logisticBlockRows))
-		}
-		return
-	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for range workers {
-		wg.Go(func() {
-			for {
-				b := int(next.Add(1) - 1)
-				if b >= nb {
-					return
-				}
-				fn(b, b*logisticBlockRows, min(n, (b+1)*logisticBlockRows))
-			}
-		})
-	}
-	wg.Wait()
+	parallelIndex(threads, nb, func(b int) {
+		fn(b, b*logisticBlockRows, min(n, (b+1)*logisticBlockRows))
+	})
 }

@@ -97,15 +97,16 @@ type logisticObjective struct {
 	// scaled by hscale (see fitLogistic). It is computed once and kept
 	// while each step at least halves ‖∇L‖_∞; otherwise Hess falls back
 	// to the full data for good.
-	hsub   *logisticObjective
-	hscale float64
+	hsub    *logisticObjective
+	hscale  float64
+	threads int // goroutines over row blocks; 0 means GOMAXPROCS
 }
 
-func newLogisticObjective(z *design, y, w []float64, lambda float64) *logisticObjective {
+func newLogisticObjective(z *design, y, w []float64, lambda float64, threads int) *logisticObjective {
 	nb := (z.n + logisticBlockRows - 1) / logisticBlockRows
 	d := z.d
 	return &logisticObjective{
-		z: z, y: y, w: w, lambda: lambda, nb: nb,
+		z: z, y: y, w: w, lambda: lambda, nb: nb, threads: threads,
 		at:      make([]float64, d),
 		eta:     make([]float64, z.n),
 		r:       make([]float64, z.n),
@@ -125,7 +126,7 @@ func (o *logisticObjective) update(theta []float64) {
 	o.valid = true
 	o.gvalid = false
 	d := o.z.d
-	logisticBlocks(o.z.n, func(b, lo, hi int) {
+	logisticBlocks(o.threads, o.z.n, func(b, lo, hi int) {
 		var acc neumaierSum
 		gp := o.gpart[b*d : (b+1)*d]
 		for k := range gp {
@@ -290,7 +291,7 @@ const hessianSubRows = 2048
 func (o *logisticObjective) dataHessian() []float64 {
 	d := o.z.d
 	tri := d * (d + 1) / 2
-	logisticBlocks(o.z.n, func(b, lo, hi int) {
+	logisticBlocks(o.threads, o.z.n, func(b, lo, hi int) {
 		hz := make([]float64, hessianSubRows)
 		out := o.partial[b*tri : (b+1)*tri]
 		for i := range out {
