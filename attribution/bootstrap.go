@@ -38,12 +38,16 @@ type BootstrapSummary struct {
 // each replicate resamples the records of each group with replacement
 // (group sizes fixed), refits the classifiers (with the learner chosen on
 // the full data for each column set, or keeps the fitted ratios in fast
-// mode), and recomputes each group's metric, the gap and every
+// mode; a boosted learner grows the number of rounds early stopping kept on
+// the full data, without an inner validation split, see refitLearner), and
+// recomputes each group's metric, the gap and every
 // contribution. The interval for a quantity is the ((1−L)/2, (1+L)/2)
 // quantiles of its replicates (linear interpolation between order
 // statistics). Replicate b uses a PCG stream seeded by (Seed, b), and
 // replicates run in parallel with one result slot each, so the intervals do
-// not depend on the number of goroutines.
+// not depend on the number of goroutines. Each replicate runs its fits one
+// at a time on a single goroutine (the replicates already occupy the
+// workers).
 func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, opt Options, bopt BootstrapOptions) (*Decomposition, *BootstrapSummary, error) {
 	if bopt.Replicates == 0 {
 		bopt.Replicates = 200
@@ -62,11 +66,11 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 	if err != nil {
 		return nil, nil, err
 	}
-	chosen := map[string]string{}
+	chosen := fixedLearners{}
 	for _, mr := range ratios {
-		chosen[mr.jointKey] = mr.Learner
+		chosen[mr.jointKey] = mr.jointRefit
 		if mr.parentKey != "" {
-			chosen[mr.parentKey] = mr.ParentLearner
+			chosen[mr.parentKey] = mr.parentRefit
 		}
 	}
 	g := splitGroups(s)
@@ -210,7 +214,7 @@ func replicateKeep(s *Sample, ri, ci []int, logRatio [][]float64, metricNames []
 }
 
 // replicateRefit builds the resampled Sample and reruns the decomposition.
-func replicateRefit(s *Sample, mechs []Mechanism, ri, ci []int, metricNames []string, opt Options, chosen map[string]string, b uint64) ([]MetricDecomposition, error) {
+func replicateRefit(s *Sample, mechs []Mechanism, ri, ci []int, metricNames []string, opt Options, chosen fixedLearners, b uint64) ([]MetricDecomposition, error) {
 	rows := append(append([]int{}, ri...), ci...)
 	rs := &Sample{
 		X:          subMatrix(s.X, rows, allCols(s.X.RawMatrix().Cols)),

@@ -44,7 +44,7 @@ func splitGroups(s *Sample) groupSplit {
 	return g
 }
 
-func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, chosen map[string]string) (*Decomposition, []MechanismRatio, error) {
+func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, chosen fixedLearners) (*Decomposition, []MechanismRatio, error) {
 	n := len(s.Comparison)
 	if len(s.Labels) != n || len(s.Scores) != n {
 		panic("attribution: Sample slices differ in length")

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"runtime"
 	"sort"
 	"strconv"
 	"strings"
@@ -35,7 +36,15 @@ type MechanismRatio struct {
 	JointLogOdds  []float64     // out-of-fold logit P(cmp | node, parents) of the chosen learner
 
 	jointKey, parentKey string // column-set keys, for reusing the learner choice
+	// jointRefit and parentRefit are the learners bootstrap replicates fit
+	// on the two column sets (see groupFit.refit).
+	jointRefit, parentRefit classify.Learner
 }
+
+// fixedLearners maps a column-set key (colKey) to the learner to fit on that
+// set, skipping model selection; bootstrap replicates reuse the full-data
+// choice this way.
+type fixedLearners map[string]classify.Learner
 
 // PriorLearner names the constant classifier used for a root node's parents.
 const PriorLearner = "prior"
@@ -52,6 +61,18 @@ type groupFit struct {
 	// out-of-fold odds P(cmp|x)/P(ref|x), times n_ref/n_cmp (≈ 1 when
 	// calibrated; see oddsCalibration).
 	oddsMean []float64
+	// fixed, if non-nil, is the learner fitted instead of
+	// opt.Learners[only] (a bootstrap replicate's refit learner).
+	fixed classify.Learner
+	// rounds[l][fold] is the number of boosting rounds learner l's model
+	// kept on that fold (0 if it is not boosted or was not fitted there).
+	rounds [][]int
+	// refit is the learner a bootstrap replicate fits on this column set:
+	// the chosen learner, except that a Boosted learner with early
+	// stopping becomes one with a fixed number of rounds (the rounded mean
+	// over the folds of the rounds early stopping kept) and no
+	// validation split.
+	refit classify.Learner
 }
 
 // EstimateRatios estimates, for every mechanism i, the log density ratio
@@ -71,9 +92,9 @@ func EstimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions) ([]Mechanism
 }
 
 // estimateRatios is EstimateRatios where chosen, if non-nil, fixes the learner
-// per column set (colKey → learner name) so that only that learner is fitted;
-// bootstrap replicates reuse the full-data choice this way.
-func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen map[string]string) ([]MechanismRatio, error) {
+// per column set so that only that learner is fitted; it must have the name
+// of one of opt.Learners, which it then stands in for.
+func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixedLearners) ([]MechanismRatio, error) {
 	n := len(s.Comparison)
 	if s.X == nil || s.X.RawMatrix().Rows != n {
 		panic("attribution: Sample.X rows do not match Sample.Comparison")
@@ -109,10 +130,10 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen map[s
 			return f
 		}
 		f := &groupFit{cols: cols, only: -1}
-		if name, ok := chosen[key]; ok {
+		if fixed, ok := chosen[key]; ok {
 			for l, learner := range opt.Learners {
-				if learner.Name() == name {
-					f.only = l
+				if learner.Name() == fixed.Name() {
+					f.only, f.fixed = l, fixed
 				}
 			}
 		}
@@ -141,6 +162,7 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen map[s
 			ParentLearner: PriorLearner,
 			JointLogOdds:  j.logOdds[j.best],
 			jointKey:      colKey(j.cols),
+			jointRefit:    j.refit,
 		}
 		for l, learner := range opt.Learners {
 			mr.Losses = append(mr.Losses, LearnerLoss{Learner: learner.Name(), LogLoss: j.losses[l], OddsCheck: j.oddsMean[l]})
@@ -148,6 +170,7 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen map[s
 		if p := parents[i]; p != nil {
 			mr.ParentLearner = opt.Learners[p.best].Name()
 			mr.parentKey = colKey(p.cols)
+			mr.parentRefit = p.refit
 			po := p.logOdds[p.best]
 			for r := range mr.LogRatio {
 				mr.LogRatio[r] = j.logOdds[j.best][r] - po[r]
@@ -169,11 +192,18 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen map[s
 // one is then fitted on the remaining folds. Every fit sees at most
 // opt.MaxFitRows training records, a subsample stratified by group and
 // shared by all column sets of a fold, so that the joint and parent
-// classifiers share one class prior. Jobs run in parallel; each writes only
-// its own slots and is seeded by its (set, learner, fold), so the result
-// does not depend on scheduling.
+// classifiers share one class prior. Jobs run on opt.Workers goroutines
+// (0 means GOMAXPROCS); each writes only its own slots and is seeded by its
+// (set, learner, fold), so the result does not depend on scheduling. When
+// several jobs run at once, learners that spread their own work over
+// goroutines (classify.Threaded) get an equal share of the workers, so that
+// the busy goroutines do not outnumber them.
 func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt RatioOptions) error {
 	nl := len(opt.Learners)
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
 	n := len(y)
 	test := make([][]int, k)
 	train := make([][]int, k)
@@ -197,6 +227,10 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 		f.logOdds = make([][]float64, nl)
 		f.losses = make([]float64, nl)
 		f.oddsMean = make([]float64, nl)
+		f.rounds = make([][]int, nl)
+		for l := range f.rounds {
+			f.rounds[l] = make([]int, k)
+		}
 		for l := range f.losses {
 			f.losses[l], f.oddsMean[l] = math.NaN(), math.NaN()
 		}
@@ -204,17 +238,29 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 	type job struct{ set, learner, fold int }
 	run := func(jobs []job) error {
 		errs := make([]error, len(jobs))
-		parallelFor(opt.Workers, len(jobs), func(_, ji int) {
+		threads := max(1, workers/max(1, min(workers, len(jobs))))
+		learners := make([]classify.Learner, nl)
+		for l, learner := range opt.Learners {
+			learners[l] = threadedLearner(learner, threads)
+		}
+		parallelFor(workers, len(jobs), func(_, ji int) {
 			jb := jobs[ji]
 			f := sets[jb.set]
 			tr := train[jb.fold]
 			xtr := subMatrix(x, tr, f.cols)
 			ytr := pick(y, tr)
 			seed := opt.Seed*1000003 + uint64((jb.set*nl+jb.learner)*k+jb.fold)
-			model, err := opt.Learners[jb.learner].Fit(xtr, ytr, nil, seed)
+			learner := learners[jb.learner]
+			if f.fixed != nil {
+				learner = threadedLearner(f.fixed, threads)
+			}
+			model, err := learner.Fit(xtr, ytr, nil, seed)
 			if err != nil {
 				errs[ji] = fmt.Errorf("attribution: fitting %s on columns %v, fold %d: %w", opt.Learners[jb.learner].Name(), f.cols, jb.fold, err)
 				return
+			}
+			if bm, ok := model.(*classify.BoostedModel); ok {
+				f.rounds[jb.learner][jb.fold] = bm.Trees()
 			}
 			dst := make([]float64, len(test[jb.fold]))
 			model.LogOdds(subMatrix(x, test[jb.fold], f.cols), dst)
@@ -286,8 +332,52 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 				f.logOdds[l] = nil
 			}
 		}
+		f.refit = opt.Learners[f.best]
+		if f.fixed != nil {
+			f.refit = f.fixed
+		} else {
+			f.refit = refitLearner(f.refit, f.rounds[f.best])
+		}
 	}
 	return nil
+}
+
+// threadedLearner returns l limited to threads goroutines if it implements
+// classify.Threaded, and l itself otherwise.
+func threadedLearner(l classify.Learner, threads int) classify.Learner {
+	if t, ok := l.(classify.Threaded); ok {
+		return t.WithThreads(threads)
+	}
+	return l
+}
+
+// refitLearner returns the learner bootstrap replicates fit where the point
+// estimate fitted l and its fold models kept rounds[fold] boosting rounds.
+// A Boosted learner with early stopping (and without Platt scaling, which
+// needs the validation split) becomes one that grows the rounded mean of
+// those rounds on all its training rows; any other learner is returned as
+// it is. Early stopping inside a replicate would be both slower (the
+// patience rounds and the validation pass) and biased: a resample repeats
+// records, so the inner validation split shares records with the training
+// rows and stops late.
+func refitLearner(l classify.Learner, rounds []int) classify.Learner {
+	b, ok := l.(classify.Boosted)
+	if !ok || b.ValidationFraction == 0 || b.Calibrate {
+		return l
+	}
+	var sum, k int
+	for _, r := range rounds {
+		if r > 0 {
+			sum += r
+			k++
+		}
+	}
+	if k == 0 {
+		return l
+	}
+	b.Rounds = max(1, int(math.Round(float64(sum)/float64(k))))
+	b.ValidationFraction = 0
+	return b
 }
 
 // DefaultMaxFitRows is the default RatioOptions.MaxFitRows.
