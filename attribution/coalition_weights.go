@@ -243,6 +243,15 @@ func sideWeights(sides []*sideEstimate, opt Options) ([]SideWeights, error) {
 		}
 		ws := e.someWeights([]uint64{far, worst})
 		sw.Far, sw.Worst = ws[0], ws[1]
+		// Far's log-weights are the sum over all mechanisms on either side
+		// (the comparison side's logr are already negated).
+		farLog := make([]float64, len(e.y))
+		for _, l := range e.logr {
+			for r, x := range l {
+				farLog[r] += x
+			}
+		}
+		sw.FarTailShape = TailShape(farLog)
 		out = append(out, sw)
 	}
 	return out, nil

@@ -79,6 +79,7 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 			ParentLearner: mr.ParentLearner,
 			Losses:        mr.Losses,
 			ExtremeShare:  ExtremeShare(raw),
+			TailShape:     TailShape(raw),
 			MeanRatio:     SummariseLogWeights(raw).MeanRatio,
 		}
 		var key []float64
@@ -110,6 +111,7 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 				neg[r] = -x
 			}
 			rep.ComparisonESS = SummariseLogWeights(neg).ESS
+			rep.ComparisonTailShape = TailShape(neg)
 		}
 		// Out-of-fold AUC of the (node, parents) classifier; both groups
 		// are present, so it is defined.

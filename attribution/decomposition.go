@@ -55,6 +55,9 @@ type SideWeights struct {
 	// all 2^k coalitions when AllCoalitions, else over ∅, N, {i} and N∖{i}.
 	Worst         CoalitionWeight
 	AllCoalitions bool
+	// FarTailShape is the Pareto tail shape k̂ of Far's weights (see
+	// TailShape).
+	FarTailShape float64
 }
 
 // MetricDecomposition splits one metric's gap. Contributions[i] belongs to
@@ -110,6 +113,11 @@ type MechanismReport struct {
 	// ComparisonESS is n_eff of 1/r_i over the comparison records, set
 	// when the comparison side is used (0 otherwise).
 	ComparisonESS float64
+	// TailShape is the Pareto shape k̂ of the right tail of r_i over the
+	// reference records (TailShape; before clipping): above 0.5 the
+	// weights have infinite variance. ComparisonTailShape is that of
+	// 1/r_i over the comparison records, set when that side is used.
+	TailShape, ComparisonTailShape float64
 	// ClippedReference and ClippedComparison count the records of each
 	// side whose log-ratio was clipped (Options.ClipQuantile).
 	ClippedReference, ClippedComparison int

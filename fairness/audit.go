@@ -3,6 +3,7 @@ package fairness
 import (
 	"errors"
 	"fmt"
+	"math"
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/classify"
@@ -179,8 +180,12 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			ExtremeShare:      m.ExtremeShare,
 			WorstStratumMean:  m.WorstStratumMean,
 			ComparisonESS:     m.ComparisonESS,
+			TailShape:         finite(m.TailShape),
 			ClippedReference:  m.ClippedReference,
 			ClippedComparison: m.ClippedComparison,
+		}
+		if m.ComparisonESS > 0 {
+			mr.ComparisonTailShape = finite(m.ComparisonTailShape)
 		}
 		if groups.NReference > 0 {
 			mr.ESSShare = m.ESS / float64(groups.NReference)
@@ -229,6 +234,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			Side:          w.Side.String(),
 			Records:       w.Records,
 			Far:           hybridWeight(w.Far, dec.Mechanisms),
+			FarTailShape:  finite(w.FarTailShape),
 			Worst:         hybridWeight(w.Worst, dec.Mechanisms),
 			AllCoalitions: w.AllCoalitions,
 		})
@@ -262,4 +268,12 @@ func decomposeError(spec *Spec, err error) error {
 		return undefinedMetric(spec, me.Metric, me.Group == attribution.GroupComparison)
 	}
 	return err
+}
+
+// finite returns &x, or nil when x is NaN or infinite (JSON has no NaN).
+func finite(x float64) *float64 {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return nil
+	}
+	return &x
 }

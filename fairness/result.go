@@ -147,6 +147,13 @@ type MechanismResult struct {
 	// ComparisonESS is the effective sample size of 1/r over the
 	// comparison records, present when they are used.
 	ComparisonESS float64 `json:"comparison_ess,omitempty"`
+	// TailShape is the Pareto shape k̂ of the right tail of the ratios over
+	// the reference records (attribution.TailShape): above 0.5 the weights
+	// have infinite variance, above 0.7 estimates are unreliable.
+	// ComparisonTailShape is that of the inverse ratios over the comparison
+	// records, present when they are used. Absent when too few records.
+	TailShape           *float64 `json:"tail_shape,omitempty"`
+	ComparisonTailShape *float64 `json:"comparison_tail_shape,omitempty"`
 	// ClippedReference and ClippedComparison count the records whose
 	// log-ratio was clipped (clip_ratios) on each side.
 	ClippedReference  int `json:"clipped_reference"`
@@ -160,6 +167,8 @@ type WeightSide struct {
 	// Far is the hybrid farthest from the side's group: every mechanism in
 	// comparison form (reference side) or none (comparison side).
 	Far HybridWeight `json:"far_hybrid"`
+	// FarTailShape is the Pareto tail shape k̂ of Far's weights.
+	FarTailShape *float64 `json:"far_tail_shape,omitempty"`
 	// Worst is the hybrid with the smallest effective sample size,
 	// searched over all coalitions when AllCoalitions, else over the
 	// empty, full, single and all-but-one coalitions.

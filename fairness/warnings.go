@@ -2,6 +2,7 @@ package fairness
 
 import (
 	"fmt"
+	"github.com/gapwise/gapwise/attribution"
 	"math"
 	"strconv"
 	"strings"
@@ -66,6 +67,9 @@ func Warnings(r *Result) []string {
 			out = append(out, fmt.Sprintf("the contribution of `%s` rests on %s effective reference records out of %s and %s comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef), thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp)))
 		case side != "comparison" && side != "both" && refLow:
 			out = append(out, fmt.Sprintf("the contribution of `%s` rests on %s effective records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef)))
+		}
+		if w := tailWarning(m, side); w != "" {
+			out = append(out, w)
 		}
 		if m.MaxShare > WarnMaxShare {
 			out = append(out, fmt.Sprintf("a single record carries %.1f%% of the weight for `%s`; its contribution hinges on a few records", 100*m.MaxShare, m.Node))
@@ -147,4 +151,29 @@ func thousands(n int) string {
 		return "-" + string(b)
 	}
 	return string(b)
+}
+
+// tailWarning speaks up when the weights of a mechanism have a heavy right
+// tail (Pareto k̂ above attribution.TailInfiniteVariance) on the side(s)
+// that estimate the hybrids; with both sides, only when both are heavy.
+func tailWarning(m MechanismResult, side string) string {
+	heavy := func(k *float64) bool { return k != nil && *k > attribution.TailInfiniteVariance }
+	ref, cmp := heavy(m.TailShape), heavy(m.ComparisonTailShape)
+	var k float64
+	var where string
+	switch {
+	case side == "comparison" && cmp:
+		k, where = *m.ComparisonTailShape, "comparison"
+	case side == "both" && ref && cmp:
+		k, where = math.Min(*m.TailShape, *m.ComparisonTailShape), "reference and comparison"
+	case side != "comparison" && side != "both" && ref:
+		k, where = *m.TailShape, "reference"
+	default:
+		return ""
+	}
+	verdict := "their variance is infinite, so the estimate converges slowly and its interval may be too narrow"
+	if k > attribution.TailUnreliable {
+		verdict = "the estimate is unreliable at this sample size"
+	}
+	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f): %s; consider estimate_from: both", m.Mechanism, where, k, attribution.TailInfiniteVariance, verdict)
 }

@@ -116,6 +116,7 @@ type mechanismView struct {
 	Unreliable                        string
 
 	WorstStratum, Extreme, ComparisonESS string
+	Tail, ComparisonTail                 string
 	ClippedReference, ClippedComparison  string
 }
 

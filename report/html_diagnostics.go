@@ -40,7 +40,8 @@ func mechanismDiagnostics(m fairness.MechanismResult, flag string) mechanismView
 		AUC: formatDiag(m.AUC), ESS: formatCount(math.Round(m.ESS)), ESSShare: fmt.Sprintf("%.1f%%", 100*m.ESSShare),
 		MaxShare: fmt.Sprintf("%.2f%%", 100*m.MaxShare), MeanRatio: formatDiag(m.MeanRatio), Unreliable: flag,
 		WorstStratum: formatDiag(m.WorstStratumMean), Extreme: fmt.Sprintf("%.1f%%", 100*m.ExtremeShare),
-		ComparisonESS:    formatCount(math.Round(m.ComparisonESS)),
+		ComparisonESS: formatCount(math.Round(m.ComparisonESS)),
+		Tail:          tailShape(m.TailShape), ComparisonTail: tailShape(m.ComparisonTailShape),
 		ClippedReference: fmt.Sprint(m.ClippedReference), ClippedComparison: fmt.Sprint(m.ClippedComparison)}
 	return v
 }
@@ -77,4 +78,12 @@ func diagnostics(res *fairness.Result) diagnosticsView {
 		}
 	}
 	return d
+}
+
+// tailShape formats a Pareto tail shape, "n/a" when absent.
+func tailShape(k *float64) string {
+	if k == nil {
+		return "n/a"
+	}
+	return fmt.Sprintf("%.2f", *k)
 }

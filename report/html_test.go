@@ -99,7 +99,7 @@ func TestWriteHTMLTables(t *testing.T) {
 		{"decomp-fnr", 5, []string{"Residual (not assigned)", "+1.1 pts", "", "", ""}},
 		{"decomp-fnr", 6, []string{"Observed gap", "+9.0 pts", "[6.1, 11.8] pts", "", ""}},
 		{"decomp-brier", 1, []string{"anaemia | age", "−0.004", "–", "−0.004", "−0.002"}},
-		{"diagnostics-table", 2, []string{"hb | anaemia", "hb", "quadratic", "linear", "0.810", "400", "33.3%", "2.00%", "1.012", "0.000", "0.0%"}},
+		{"diagnostics-table", 2, []string{"hb | anaemia", "hb", "quadratic", "linear", "0.810", "400", "33.3%", "2.00%", "1.012", "0.000", "0.0%", "n/a"}},
 		{"group-sizes", 0, []string{"men", "reference", "1200", "3"}},
 	}
 	for _, tt := range tests {

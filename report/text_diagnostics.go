@@ -29,10 +29,10 @@ func (t *textWriter) mechanismWeights(res *fairness.Result) {
 		clipped = clipped || m.ClippedReference > 0 || m.ClippedComparison > 0
 	}
 	t.line("Mechanism diagnostics (reference records reweighted by one mechanism's ratio)")
-	head := []string{"mechanism", "classifier", "parents by", "oof AUC", "ESS", "ESS share", "max weight share", "mean ratio", "worst-fifth mean ratio", "extreme ratios"}
-	right := []bool{false, false, false, true, true, true, true, true, true, true}
+	head := []string{"mechanism", "classifier", "parents by", "oof AUC", "ESS", "ESS share", "max weight share", "mean ratio", "worst-fifth mean ratio", "extreme ratios", "tail shape"}
+	right := []bool{false, false, false, true, true, true, true, true, true, true, true}
 	if hasCmp {
-		head, right = append(head, "comparison ESS"), append(right, true)
+		head, right = append(head, "comparison ESS", "comparison tail"), append(right, true, true)
 	}
 	if clipped {
 		head, right = append(head, "clipped ref", "clipped cmp"), append(right, true, true)
@@ -40,9 +40,9 @@ func (t *textWriter) mechanismWeights(res *fairness.Result) {
 	tab := textTable{header: head, right: right}
 	for _, m := range res.Mechanisms {
 		row := []string{m.Mechanism, m.Classifier, m.ParentClassifier, fixed(m.AUC), fmt.Sprintf("%.1f", m.ESS), fixed(m.ESSShare),
-			fixed(m.MaxShare), fixed(m.MeanRatio), fixed(m.WorstStratumMean), fixed(m.ExtremeShare)}
+			fixed(m.MaxShare), fixed(m.MeanRatio), fixed(m.WorstStratumMean), fixed(m.ExtremeShare), tailShape(m.TailShape)}
 		if hasCmp {
-			row = append(row, fmt.Sprintf("%.1f", m.ComparisonESS))
+			row = append(row, fmt.Sprintf("%.1f", m.ComparisonESS), tailShape(m.ComparisonTailShape))
 		}
 		if clipped {
 			row = append(row, fmt.Sprint(m.ClippedReference), fmt.Sprint(m.ClippedComparison))
@@ -56,6 +56,7 @@ func (t *textWriter) mechanismWeights(res *fairness.Result) {
 	t.line("  mean ratio: average ratio over the reference records, near 1 when the ratios are right.")
 	t.line("  worst-fifth mean ratio: the same average in the fifth of the records (ranked by the parents' classifier) farthest from 1; near 1 when right.")
 	t.line("  extreme ratios: share of reference records whose ratio is above 20 or below 1/20, a sign of poor overlap.")
+	t.line("  tail shape: Pareto shape of the largest ratios; above 0.5 the weights have infinite variance, above 0.7 the estimate is unreliable.")
 	if hasCmp {
 		t.line("  comparison ESS: effective sample size of the inverse ratios over the comparison records, which estimate the hybrids too.")
 	}
