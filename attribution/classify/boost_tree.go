@@ -102,9 +102,31 @@ type boostGrower struct {
 // boostRec is one training row of the grower.
 type boostRec struct {
 	bins uint64  // bins of features 0…7, byte f holding feature f
-	g, h float32 // gradient and hessian at z (see boostGH)
-	z    float64 // running log-odds
+	g, h float32 // gradient and hessian at z (see gradients)
+	odds float64 // e^z at the running log-odds z, see boostClampOdds
 	sw   float64 // signed weight: +w for y = 1, −w for y = 0
+}
+
+// The grower keeps each row's odds e^z rather than its log-odds z: a tree
+// adds the same value v to z at all rows of a leaf, which multiplies their
+// odds by e^v, one exponential per leaf instead of one per row per round
+// for σ(z). After t rounds the odds carry a relative rounding error of
+// about t·1e-16, far below the single precision of the gradients.
+// boostOddsMax bounds the odds to [1/boostOddsMax, boostOddsMax] so that
+// they never overflow; beyond e^{±200} both σ(z)(1 − σ(z)) and the gradient
+// of the far class are below 1e-87, i.e. 0 in single precision, whatever
+// the exact z.
+const boostOddsMax = 7.225973768125749e86 // e^200
+
+// boostClampOdds bounds odds to [1/boostOddsMax, boostOddsMax].
+func boostClampOdds(o float64) float64 {
+	if o > boostOddsMax {
+		o = boostOddsMax
+	}
+	if o < 1/boostOddsMax {
+		o = 1 / boostOddsMax
+	}
+	return o
 }
 
 // boostHistChunk is the number of rows whose histogram one goroutine builds.
@@ -125,7 +147,7 @@ func newBoostGrower(bins []uint64, binning *boostBinning, z, sw []float64, cfg b
 		tmp:  make([]boostRec, n),
 	}
 	for i := range gr.recs {
-		gr.recs[i] = boostRec{bins: bins[i*W], z: z[i], sw: sw[i]}
+		gr.recs[i] = boostRec{bins: bins[i*W], odds: boostClampOdds(math.Exp(z[i])), sw: sw[i]}
 	}
 	if W > 1 {
 		gr.hi = make([]uint64, n*(W-1))
@@ -139,9 +161,9 @@ func newBoostGrower(bins []uint64, binning *boostBinning, z, sw []float64, cfg b
 
 // gradients writes g = w·(σ(z) − y) and h = w·σ(z)(1 − σ(z)) for every
 // position, in parallel over fixed blocks (each entry depends on its row
-// only). With a = e^{−|z|} (boostExpNeg), σ(|z|) = 1/(1+a) and
-// 1 − σ(|z|) = a/(1+a), so both tails are formed without cancellation:
-// g = w·(σ(z) − 1) = −w·(1 − σ(z)) for y = 1 and g = w·σ(z) for y = 0.
+// only). From the odds o = e^z: 1 − σ(z) = q = 1/(1+o) and σ(z) = o·q, so
+// both tails are formed without cancellation and without an exponential:
+// g = −w·q for y = 1, g = w·o·q for y = 0, and h = w·o·q².
 func (gr *boostGrower) gradients() {
 	const block = 16384
 	n := len(gr.recs)
@@ -149,56 +171,18 @@ func (gr *boostGrower) gradients() {
 		recs := gr.recs[k*block : min(n, (k+1)*block)]
 		for i := range recs {
 			r := &recs[i]
-			a := boostExpNeg(math.Abs(r.z))
-			q := 1 / (1 + a)
-			// σ(z) and 1 − σ(z) are q and a·q, swapped when z < 0. The
-			// signs of z and sw are random from row to row, so the choices
-			// are made with bit masks rather than branches.
-			qb, aqb := math.Float64bits(q), math.Float64bits(a*q)
-			neg := -(math.Float64bits(r.z) >> 63) // all ones when z < 0
-			swap := (qb ^ aqb) & neg
-			hi := math.Float64frombits(qb ^ swap)  // σ(z)
-			lo := math.Float64frombits(aqb ^ swap) // 1 − σ(z)
+			q := 1 / (1 + r.odds)
 			w := math.Abs(r.sw)
-			g0, g1 := math.Float64bits(w*hi), math.Float64bits(-w*lo)
+			wp := w * r.odds * q // w·σ(z)
+			// The class is random from row to row: choose with a bit mask
+			// rather than a branch.
+			g0, g1 := math.Float64bits(wp), math.Float64bits(-w*q)
 			y1 := (math.Float64bits(r.sw) >> 63) - 1 // all ones when sw ≥ 0 (y = 1)
 			r.g = float32(math.Float64frombits(g0 ^ ((g0 ^ g1) & y1)))
-			r.h = float32(w * hi * lo)
+			r.h = float32(wp * q)
 		}
 	})
 }
-
-// boostExpNeg returns e^{−x} for x ≥ 0 with a relative error below 1e-9
-// (the gradients are stored in single precision, relative rounding 6e-8),
-// several times faster than math.Exp. With k = round(32x/ln 2) = 32m + j
-// and r = k·ln2/32 − x ∈ [−ln2/64, ln2/64] (Cody–Waite reduction, ln 2
-// split in two parts), e^{−x} = 2^{−m}·2^{−j/32}·e^r; 2^{−j/32} comes from
-// a table and e^r from its cubic Taylor polynomial, whose truncation error
-// is below |r|⁴/4! ≈ 6e-10. Beyond x = 700 it returns 0:
-// σ(z)(1 − σ(z)) < 1e-304 is then 0 in single precision anyway.
-func boostExpNeg(x float64) float64 {
-	if !(x < 700) {
-		return 0
-	}
-	const (
-		ln2Hi = 6.93147180369123816490e-01 / 32 // high bits of ln 2, over 32
-		ln2Lo = 1.90821492927058770002e-10 / 32 // (ln 2 − high bits)/32
-		scale = 32 * 1.44269504088896338700e+00 // 32/ln 2
-	)
-	k := int64(x*scale + 0.5) // x ≥ 0: truncation is the floor
-	kf := float64(k)
-	r := (kf*ln2Hi - x) + kf*ln2Lo
-	p := 1 + r*(1+r*(1.0/2+r*(1.0/6)))
-	return p * boostExp2Table[k&31] * math.Float64frombits(uint64(1023-k>>5)<<52)
-}
-
-// boostExp2Table[j] = 2^{−j/32}.
-var boostExp2Table = func() (t [32]float64) {
-	for j := range t {
-		t[j] = math.Exp2(-float64(j) / 32)
-	}
-	return t
-}()
 
 // grow fits one tree to the current gradients and adds its leaf values to
 // the rows' log-odds z.
@@ -239,9 +223,10 @@ func (gr *boostGrower) grow() boostTree {
 		if lf.applied {
 			continue
 		}
+		ev := math.Exp(v)
 		recs := gr.recs[lf.start:lf.end]
 		for i := range recs {
-			recs[i].z += v
+			recs[i].odds = boostClampOdds(recs[i].odds * ev)
 		}
 	}
 	return tree
@@ -311,15 +296,16 @@ func (gr *boostGrower) split(tree *boostTree, parent *boostLeaf, final bool) (le
 }
 
 // applySplit adds vl to z at positions start … end−1 whose bin of feature f
-// is ≤ t and vr to the others.
+// is ≤ t and vr to the others (multiplies their odds by e^vl or e^vr).
 func (gr *boostGrower) applySplit(start, end, f int, t uint8, vl, vr float64) {
+	el, er := math.Exp(vl), math.Exp(vr)
 	recs := gr.recs[start:end]
 	for i := range recs {
-		v := vr
+		e := er
 		if gr.binOf(start+i, f) <= t {
-			v = vl
+			e = el
 		}
-		recs[i].z += v
+		recs[i].odds = boostClampOdds(recs[i].odds * e)
 	}
 }
 
