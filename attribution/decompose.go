@@ -71,8 +71,28 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 		logrCmp = make([][]float64, len(mechs))
 	}
 	member := s.comparisonLabels()
+	// A bootstrap replicate (chosen set) needs only the metric splits:
+	// the weight diagnostics are skipped there.
+	diag := chosen == nil
 	for i, mr := range ratios {
 		raw := pick(mr.LogRatio, g.refIdx)
+		if !diag {
+			logr[i] = raw
+			if opt.ClipQuantile != 0 && useRef {
+				if logr[i], _, err = ClipAtQuantiles(raw, opt.ClipQuantile); err != nil {
+					return nil, nil, err
+				}
+			}
+			if useCmp {
+				logrCmp[i] = pick(mr.LogRatio, g.cmpIdx)
+				if opt.ClipQuantile != 0 {
+					if logrCmp[i], _, err = ClipAtQuantiles(logrCmp[i], opt.ClipQuantile); err != nil {
+						return nil, nil, err
+					}
+				}
+			}
+			continue
+		}
 		rep := MechanismReport{
 			Mechanism:     mr.Mechanism,
 			Learner:       mr.Learner,
@@ -129,6 +149,9 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	}
 	if err := splitGapsSides(out.Metrics, sides, opt); err != nil {
 		return nil, nil, err
+	}
+	if !diag {
+		return out, ratios, nil
 	}
 	if out.Weights, err = sideWeights(sides, opt); err != nil {
 		return nil, nil, err
