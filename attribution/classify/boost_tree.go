@@ -81,17 +81,21 @@ type boostLeaf struct {
 // leaf's value is −rate·G/(H+λ). The histogram of the larger child is the
 // parent's minus the smaller child's (Ke et al. 2017, "LightGBM").
 //
-// The training rows are stored in position order: splitting a node
-// partitions its rows physically (stably), so each node's rows are
-// contiguous and both histogram building and gradient updates stream
-// through memory. Each row is one 32-byte record, so a partition moves
-// one record per row. The training rows' original order is never needed
-// again.
+// The training rows' bins are stored in position order: splitting a node
+// partitions its rows' 16-byte records (bins and row number) physically
+// (stably), so each node's rows are contiguous and histogram building
+// streams through memory. Gradients, hessians, odds and weights stay in
+// row order and are looked up by row number; they fit in cache at the
+// sizes where partitioning dominates, and keeping them out of the records
+// halves the bytes each partition moves.
 type boostGrower struct {
 	p, words int
 	binning  *boostBinning
 	recs     []boostRec
-	hi       []uint64 // bins of features 8, 9, …: words−1 words per position
+	gh       []boostGH // per training row
+	odds     []float64 // per training row: e^z at the running log-odds z, see boostClampOdds
+	sw       []float64 // per training row: signed weight, +w for y = 1, −w for y = 0
+	hi       []uint64  // bins of features 8, 9, …: words−1 words per position
 	cfg      boostTreeConfig
 	free     [][]boostBin // released histograms for reuse
 
@@ -99,13 +103,15 @@ type boostGrower struct {
 	tmpHi []uint64
 }
 
-// boostRec is one training row of the grower.
+// boostRec is one training row of the grower, in position order.
 type boostRec struct {
-	bins uint64  // bins of features 0…7, byte f holding feature f
-	g, h float32 // gradient and hessian at z (see gradients)
-	odds float64 // e^z at the running log-odds z, see boostClampOdds
-	sw   float64 // signed weight: +w for y = 1, −w for y = 0
+	bins uint64 // bins of features 0…7, byte f holding feature f
+	row  int32  // training row: index of gh, odds and sw
 }
+
+// boostGH is the gradient and hessian of one training row at its running
+// log-odds (see gradients).
+type boostGH struct{ g, h float32 }
 
 // The grower keeps each row's odds e^z rather than its log-odds z: a tree
 // adds the same value v to z at all rows of a leaf, which multiplies their
@@ -144,10 +150,14 @@ func newBoostGrower(bins []uint64, binning *boostBinning, z, sw []float64, cfg b
 	gr := &boostGrower{
 		p: p, words: W, binning: binning, cfg: cfg,
 		recs: make([]boostRec, n),
+		gh:   make([]boostGH, n),
+		odds: make([]float64, n),
+		sw:   append([]float64(nil), sw...),
 		tmp:  make([]boostRec, n),
 	}
 	for i := range gr.recs {
-		gr.recs[i] = boostRec{bins: bins[i*W], odds: boostClampOdds(math.Exp(z[i])), sw: sw[i]}
+		gr.recs[i] = boostRec{bins: bins[i*W], row: int32(i)}
+		gr.odds[i] = boostClampOdds(math.Exp(z[i]))
 	}
 	if W > 1 {
 		gr.hi = make([]uint64, n*(W-1))
@@ -166,20 +176,20 @@ func newBoostGrower(bins []uint64, binning *boostBinning, z, sw []float64, cfg b
 // g = −w·q for y = 1, g = w·o·q for y = 0, and h = w·o·q².
 func (gr *boostGrower) gradients() {
 	const block = 16384
-	n := len(gr.recs)
+	n := len(gr.gh)
 	parallelIndex(gr.cfg.threads, (n+block-1)/block, func(k int) {
-		recs := gr.recs[k*block : min(n, (k+1)*block)]
-		for i := range recs {
-			r := &recs[i]
-			q := 1 / (1 + r.odds)
-			w := math.Abs(r.sw)
-			wp := w * r.odds * q // w·σ(z)
+		lo, hi := k*block, min(n, (k+1)*block)
+		gh, odds, sw := gr.gh[lo:hi], gr.odds[lo:hi], gr.sw[lo:hi]
+		for i := range gh {
+			o, s := odds[i], sw[i]
+			q := 1 / (1 + o)
+			w := math.Abs(s)
+			wp := w * o * q // w·σ(z)
 			// The class is random from row to row: choose with a bit mask
 			// rather than a branch.
 			g0, g1 := math.Float64bits(wp), math.Float64bits(-w*q)
-			y1 := (math.Float64bits(r.sw) >> 63) - 1 // all ones when sw ≥ 0 (y = 1)
-			r.g = float32(math.Float64frombits(g0 ^ ((g0 ^ g1) & y1)))
-			r.h = float32(wp * q)
+			y1 := (math.Float64bits(s) >> 63) - 1 // all ones when sw ≥ 0 (y = 1)
+			gh[i] = boostGH{g: float32(math.Float64frombits(g0 ^ ((g0 ^ g1) & y1))), h: float32(wp * q)}
 		}
 	})
 }
@@ -190,8 +200,9 @@ func (gr *boostGrower) grow() boostTree {
 	gr.gradients()
 	var g, h float64
 	for _, r := range gr.recs {
-		g += float64(r.g)
-		h += float64(r.h)
+		e := gr.gh[r.row]
+		g += float64(e.g)
+		h += float64(e.h)
 	}
 	root := boostLeaf{node: 0, start: 0, end: len(gr.recs), g: g, h: h, hist: gr.newHist()}
 	gr.buildHist(root.hist, 0, len(gr.recs))
@@ -224,9 +235,9 @@ func (gr *boostGrower) grow() boostTree {
 			continue
 		}
 		ev := math.Exp(v)
-		recs := gr.recs[lf.start:lf.end]
-		for i := range recs {
-			recs[i].odds = boostClampOdds(recs[i].odds * ev)
+		odds := gr.odds
+		for _, r := range gr.recs[lf.start:lf.end] {
+			odds[r.row] = boostClampOdds(odds[r.row] * ev)
 		}
 	}
 	return tree
@@ -299,13 +310,13 @@ func (gr *boostGrower) split(tree *boostTree, parent *boostLeaf, final bool) (le
 // is ≤ t and vr to the others (multiplies their odds by e^vl or e^vr).
 func (gr *boostGrower) applySplit(start, end, f int, t uint8, vl, vr float64) {
 	el, er := math.Exp(vl), math.Exp(vr)
-	recs := gr.recs[start:end]
-	for i := range recs {
+	recs, odds := gr.recs[start:end], gr.odds
+	for i, r := range recs {
 		e := er
 		if gr.binOf(start+i, f) <= t {
 			e = el
 		}
-		recs[i].odds = boostClampOdds(recs[i].odds * e)
+		odds[r.row] = boostClampOdds(odds[r.row] * e)
 	}
 }
 
@@ -436,10 +447,11 @@ func (gr *boostGrower) buildHist(dst []boostBin, start, end int) {
 func (gr *boostGrower) accumulate(dst []boostBin, start, end int) {
 	offs := gr.binning.offsets[:gr.p]
 	lo := offs[:min(8, len(offs))]
-	recs := gr.recs[start:end]
+	recs, gh := gr.recs[start:end], gr.gh
 	for _, r := range recs {
 		word := r.bins
-		g, h := float64(r.g), float64(r.h)
+		e := gh[r.row]
+		g, h := float64(e.g), float64(e.h)
 		for _, o := range lo {
 			e := &dst[o+int(word&0xff)]
 			e.g += g
@@ -454,7 +466,7 @@ func (gr *boostGrower) accumulate(dst []boostBin, start, end int) {
 	H := gr.words - 1
 	hi := gr.hi[start*H : end*H]
 	for i, r := range recs {
-		g, h := float64(r.g), float64(r.h)
+		g, h := float64(gh[r.row].g), float64(gh[r.row].h)
 		row := hi[i*H : i*H+H]
 		for f := 8; f < len(offs); f++ {
 			e := &dst[offs[f]+int(uint8(row[f>>3-1]>>(8*(f&7))))]

@@ -74,7 +74,7 @@ func TestBoostGradients(t *testing.T) {
 	}
 	gr := newBoostGrower(make([]uint64, n), &boostBinning{edges: [][]float64{{0}}, offsets: []int{0, 2}}, z, sw, boostTreeConfig{threads: 1})
 	gr.gradients()
-	for i, r := range gr.recs {
+	for i, r := range gr.gh {
 		s := 1 / (1 + math.Exp(-z[i]))
 		w, y := math.Abs(sw[i]), 0.0
 		if sw[i] > 0 {
