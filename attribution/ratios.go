@@ -32,7 +32,7 @@ type MechanismRatio struct {
 	LogRatio      []float64
 	Learner       string        // chosen for (node, parents)
 	ParentLearner string        // chosen for parents; "prior" for a root
-	Losses        []LearnerLoss // held-out log loss of each candidate on (node, parents): fold 0 when there was a choice, all folds otherwise
+	Losses        []LearnerLoss // held-out log loss of each candidate on (node, parents): over the folds used for the choice (see fitAll), all folds for a learner without competitors
 	JointLogOdds  []float64     // out-of-fold logit P(cmp | node, parents) of the chosen learner
 
 	jointKey, parentKey string // column-set keys, for reusing the learner choice
@@ -187,9 +187,10 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixed
 
 // fitAll fits the classifiers of every column set and fills the
 // out-of-fold log-odds of the chosen learner. With several candidate
-// learners, each is first fitted on the training part of fold 0 and scored
-// on fold 0's held-out records (log loss and odds self-check); the chosen
-// one is then fitted on the remaining folds. Every fit sees at most
+// learners, each is first fitted and scored on held-out records (log loss
+// and odds self-check) — fold 0 alone from SelectAllFoldsBelow records up,
+// every fold below — and the chosen one is then fitted on the remaining
+// folds. Every fit sees at most
 // opt.MaxFitRows training records, a subsample stratified by group and
 // shared by all column sets of a fold, so that the joint and parent
 // classifiers share one class prior. Jobs run on opt.Workers goroutines
@@ -277,20 +278,33 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 		return nil
 	}
 
-	// Phase 1: model selection on fold 0 where there is a choice.
+	// Phase 1: model selection where there is a choice, on fold 0 alone
+	// for large samples, on every fold for small ones (below
+	// SelectAllFoldsBelow records the held-out part of one fold is too
+	// small to tell the learners apart reliably, and fits are cheap).
+	selFolds := 1
+	if n < SelectAllFoldsBelow {
+		selFolds = k
+	}
 	var jobs []job
 	for si, f := range sets {
 		if f.only < 0 && nl > 1 {
 			for l := 0; l < nl; l++ {
 				f.logOdds[l] = make([]float64, n)
-				jobs = append(jobs, job{si, l, 0})
+				for fo := 0; fo < selFolds; fo++ {
+					jobs = append(jobs, job{si, l, fo})
+				}
 			}
 		}
 	}
 	if err := run(jobs); err != nil {
 		return err
 	}
-	y0 := pick(y, test[0])
+	var selRows []int
+	for fo := 0; fo < selFolds; fo++ {
+		selRows = append(selRows, test[fo]...)
+	}
+	ySel := pick(y, selRows)
 	for _, f := range sets {
 		switch {
 		case f.only >= 0:
@@ -299,9 +313,9 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 			f.best = 0
 		default:
 			for l := 0; l < nl; l++ {
-				z0 := pick(f.logOdds[l], test[0])
-				f.losses[l] = meanLogLoss(y0, z0)
-				f.oddsMean[l] = oddsCalibration(y0, z0)
+				z := pick(f.logOdds[l], selRows)
+				f.losses[l] = meanLogLoss(ySel, z)
+				f.oddsMean[l] = oddsCalibration(ySel, z)
 			}
 			f.best = selectLearner(f.losses, f.oddsMean)
 		}
@@ -311,7 +325,7 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 	for si, f := range sets {
 		from := 0
 		if f.logOdds[f.best] != nil {
-			from = 1 // fold 0 done in phase 1
+			from = selFolds // done in phase 1
 		} else {
 			f.logOdds[f.best] = make([]float64, n)
 		}
@@ -379,6 +393,11 @@ func refitLearner(l classify.Learner, rounds []int) classify.Learner {
 	b.ValidationFraction = 0
 	return b
 }
+
+// SelectAllFoldsBelow is the sample size below which the learner of a column
+// set is chosen on the out-of-fold predictions of every fold rather than of
+// fold 0 alone.
+const SelectAllFoldsBelow = 60_000
 
 // DefaultMaxFitRows is the default RatioOptions.MaxFitRows.
 const DefaultMaxFitRows = 50_000
