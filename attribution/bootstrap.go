@@ -4,10 +4,11 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"runtime"
 	"sort"
 	"sync"
 	"sync/atomic"
+
+	"github.com/gapwise/gapwise/internal/workers"
 )
 
 // BootstrapOptions controls percentile bootstrap intervals.
@@ -84,47 +85,30 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 
 	B := bopt.Replicates
 	reps := make([][]MetricDecomposition, B)
-	workers := opt.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
 	inner := opt
 	inner.Workers = 1
 	var done atomic.Int64
 	var progressMu sync.Mutex
-	var wg sync.WaitGroup
-	next := make(chan int)
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for b := range next {
-				rng := rand.New(rand.NewPCG(opt.Seed, 0xb0075742^uint64(b)))
-				ri := resample(g.refIdx, rng)
-				ci := resample(g.cmpIdx, rng)
-				var md []MetricDecomposition
-				var err error
-				if bopt.KeepRatios {
-					md, err = replicateKeep(s, ri, ci, logRatio, metricNames, inner)
-				} else {
-					md, err = replicateRefit(s, mechs, ri, ci, metricNames, inner, chosen, uint64(b))
-				}
-				if err == nil {
-					reps[b] = md
-				}
-				if bopt.Progress != nil {
-					progressMu.Lock()
-					bopt.Progress(int(done.Add(1)), B)
-					progressMu.Unlock()
-				}
-			}
-		}()
-	}
-	for b := 0; b < B; b++ {
-		next <- b
-	}
-	close(next)
-	wg.Wait()
+	workers.For(opt.Workers, B, func(_, b int) {
+		rng := rand.New(rand.NewPCG(opt.Seed, 0xb0075742^uint64(b)))
+		ri := resample(g.refIdx, rng)
+		ci := resample(g.cmpIdx, rng)
+		var md []MetricDecomposition
+		var err error
+		if bopt.KeepRatios {
+			md, err = replicateKeep(s, ri, ci, logRatio, metricNames, inner)
+		} else {
+			md, err = replicateRefit(s, mechs, ri, ci, metricNames, inner, chosen, uint64(b))
+		}
+		if err == nil {
+			reps[b] = md
+		}
+		if bopt.Progress != nil {
+			progressMu.Lock()
+			bopt.Progress(int(done.Add(1)), B)
+			progressMu.Unlock()
+		}
+	})
 
 	sum := &BootstrapSummary{Replicates: B, Level: bopt.Level, KeepRatios: bopt.KeepRatios}
 	var ok [][]MetricDecomposition

@@ -4,8 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"runtime"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -151,9 +151,5 @@ func newEngineInput(labels, scores []float64, threshold float64, logr [][]float6
 	if err != nil {
 		return nil, err
 	}
-	w := opt.Workers
-	if w == 0 {
-		w = runtime.GOMAXPROCS(0)
-	}
-	return &engineInput{labels: labels, scores: scores, threshold: threshold, logr: clipped, plan: plan, workers: w}, nil
+	return &engineInput{labels: labels, scores: scores, threshold: threshold, logr: clipped, plan: plan, workers: workers.Count(opt.Workers)}, nil
 }

@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/bits"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -32,7 +33,7 @@ func evaluateAUCAll(in *engineInput, dst []float64) error {
 		sc[i] = scratch{make([]float64, n), make([]float64, n)}
 	}
 	errs := make([]error, total/seg)
-	parallelFor(in.workers, total/seg, func(worker, g int) {
+	workers.For(in.workers, total/seg, func(worker, g int) {
 		l, w := sc[worker].l, sc[worker].w
 		s0 := uint64(g) << segBits
 		clear(l)

@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/bits"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -74,7 +75,7 @@ func newProductEngine(in *engineInput) *productEngine {
 		e.fval[fi] = v
 	}
 	e.rt = make([]float64, n*k)
-	parallelFor(in.workers, in.workers, func(_, part int) {
+	workers.For(in.workers, in.workers, func(_, part int) {
 		lo, hi := splitRange(n, in.workers, part)
 		for r := lo; r < hi; r++ {
 			for i := 0; i < k; i++ {
@@ -99,7 +100,7 @@ func (e *productEngine) scaleSteps(off, h int) []float64 {
 	}
 	w := e.in.workers
 	partial := make([][]float64, w)
-	parallelFor(w, w, func(_, part int) {
+	workers.For(w, w, func(_, part int) {
 		c := make([]float64, size)
 		for s := range c {
 			c[s] = math.Inf(-1)
@@ -200,7 +201,7 @@ func (e *productEngine) accumulate(a0, a1 int) [][][]float64 {
 		for c0 := 0; c0 < len(recs); c0 += chunkRecords {
 			chunk := recs[c0:min(len(recs), c0+chunkRecords)]
 			mc := len(chunk)
-			parallelFor(w, w, func(worker, part int) {
+			workers.For(w, w, func(worker, part int) {
 				lo, hi := splitRange(mc, w, part)
 				ta, tb := scratchA[worker], scratchB[worker]
 				for j := lo; j < hi; j++ {
@@ -224,7 +225,7 @@ func (e *productEngine) accumulate(a0, a1 int) [][][]float64 {
 					}
 				}
 			})
-			parallelFor(w, rowTiles*colTiles, func(_, t int) {
+			workers.For(w, rowTiles*colTiles, func(_, t int) {
 				r0 := (t / colTiles) * tileRows
 				b0 := (t % colTiles) * tileCols
 				r1 := min(rowsPad, r0+tileRows)
@@ -265,7 +266,7 @@ func (e *productEngine) evaluate(acc [][][]float64, a0, a1 int, values [][]float
 	}
 	errs := make([]error, a1-a0)
 	nBPad := e.nBPad()
-	parallelFor(w, a1-a0, func(worker, ra int) {
+	workers.For(w, a1-a0, func(worker, ra int) {
 		st, tg := stats[worker], targets[worker]
 		for sb := 0; sb < e.nB; sb++ {
 			idx := ra*nBPad + sb

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -50,7 +51,7 @@ func EvaluateSome(labels, scores []float64, threshold float64, logr [][]float64,
 	}
 	ev := newChainEvaluator(in)
 	errs := make([]error, len(starts))
-	parallelFor(in.workers, len(starts), func(_, c int) {
+	workers.For(in.workers, len(starts), func(_, c int) {
 		end := len(coalitions)
 		if c+1 < len(starts) {
 			end = starts[c+1]

@@ -4,12 +4,12 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"runtime"
 	"sort"
 	"strconv"
 	"strings"
 
 	"github.com/gapwise/gapwise/attribution/classify"
+	"github.com/gapwise/gapwise/internal/workers"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -201,10 +201,7 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixed
 // the busy goroutines do not outnumber them.
 func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt RatioOptions) error {
 	nl := len(opt.Learners)
-	workers := opt.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
+	nw := workers.Count(opt.Workers)
 	n := len(y)
 	test := make([][]int, k)
 	train := make([][]int, k)
@@ -239,12 +236,12 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 	type job struct{ set, learner, fold int }
 	run := func(jobs []job) error {
 		errs := make([]error, len(jobs))
-		threads := max(1, workers/max(1, min(workers, len(jobs))))
+		threads := max(1, nw/max(1, min(nw, len(jobs))))
 		learners := make([]classify.Learner, nl)
 		for l, learner := range opt.Learners {
 			learners[l] = threadedLearner(learner, threads)
 		}
-		parallelFor(workers, len(jobs), func(_, ji int) {
+		workers.For(nw, len(jobs), func(_, ji int) {
 			jb := jobs[ji]
 			f := sets[jb.set]
 			tr := train[jb.fold]

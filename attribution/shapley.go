@@ -3,8 +3,8 @@ package attribution
 import (
 	"math"
 	"math/bits"
-	"runtime"
-	"sync"
+
+	"github.com/gapwise/gapwise/internal/workers"
 )
 
 // ExactShapley returns the Shapley values of the k-player game v (Shapley
@@ -35,23 +35,9 @@ func ExactShapley(v []float64, k int) []float64 {
 		return phi
 	}
 	w := shapleyWeights(k)
-	workers := min(runtime.GOMAXPROCS(0), k)
-	var wg sync.WaitGroup
-	next := make(chan int, k)
-	for i := 0; i < k; i++ {
-		next <- i
-	}
-	close(next)
-	for g := 0; g < workers; g++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := range next {
-				phi[i] = shapleyOne(v, w, k, i)
-			}
-		}()
-	}
-	wg.Wait()
+	workers.For(0, k, func(_, i int) {
+		phi[i] = shapleyOne(v, w, k, i)
+	})
 	return phi
 }
 

@@ -5,6 +5,7 @@ import (
 	"math"
 	"sort"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
 )
@@ -85,7 +86,7 @@ func rawDesign(x *mat.Dense, w []float64, sw float64, threads int) (*design, []c
 		}
 	})
 	scales := make([]columnScale, p)
-	parallelIndex(threads, p, func(c int) {
+	workers.For(threads, p, func(_, c int) {
 		col := cols[(1+c)*n : (2+c)*n]
 		binary := twoValued(col, w)
 		scales[c] = standardiseInPlace(col, w, sw)
@@ -233,7 +234,7 @@ func expandDesign(lin *design, raw []columnScale, active []int, terms []Term, w 
 	scales := make([]columnScale, len(terms))
 	// Terms are independent: build them in parallel, each into its own
 	// slot (k+1); no floating-point result depends on the scheduling.
-	parallelIndex(threads, len(terms), func(k int) {
+	workers.For(threads, len(terms), func(_, k int) {
 		t := terms[k]
 		a, buf := lin.col(pos[t.I]), z.col(k+1)
 		if t.J > t.I && raw[t.I].binary && raw[t.J].binary && !allFourCells(a, lin.col(pos[t.J]), w) {

@@ -6,6 +6,7 @@ import (
 	"math"
 	"math/rand/v2"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -112,7 +113,7 @@ func (b Boosted) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	}
 
 	train, valid := b.splitRows(y, wn, seed)
-	threads := threadCount(b.Threads)
+	threads := workers.Count(b.Threads)
 	binning := newBoostBinning(x, train, b.MaxBins, seed, threads)
 	trainBins := binning.binRows(x, train, threads)
 	validBins := binning.binRows(x, valid, threads)
@@ -395,7 +396,7 @@ func (m *BoostedModel) LogOdds(x *mat.Dense, dst []float64) {
 		panic(fmt.Sprintf("classify: boosted: LogOdds got %d columns, model was fitted on %d", p, m.p))
 	}
 	raw := x.RawMatrix()
-	parallelIndex(m.threads, (n+boostPredictBlock-1)/boostPredictBlock, func(k int) {
+	workers.For(m.threads, (n+boostPredictBlock-1)/boostPredictBlock, func(_, k int) {
 		lo, hi := k*boostPredictBlock, min(n, (k+1)*boostPredictBlock)
 		m.predictBlock(raw.Data[lo*raw.Stride:], raw.Stride, dst[lo:hi])
 	})

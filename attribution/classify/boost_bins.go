@@ -4,6 +4,7 @@ import (
 	"math/rand/v2"
 	"slices"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -43,7 +44,7 @@ func newBoostBinning(x *mat.Dense, rows []int32, maxBins int, seed uint64, threa
 	}
 	b := &boostBinning{edges: make([][]float64, p), offsets: make([]int, p+1)}
 	raw := x.RawMatrix()
-	parallelIndex(threads, p, func(f int) {
+	workers.For(threads, p, func(_, f int) {
 		vals := make([]float64, len(sample))
 		for i, r := range sample {
 			vals[i] = raw.Data[int(r)*raw.Stride+f]
@@ -114,7 +115,7 @@ func (b *boostBinning) binRows(x *mat.Dense, rows []int32, threads int) []uint64
 	out := make([]uint64, len(rows)*words)
 	raw := x.RawMatrix()
 	const block = 8192
-	parallelIndex(threads, (len(rows)+block-1)/block, func(k int) {
+	workers.For(threads, (len(rows)+block-1)/block, func(_, k int) {
 		lo, hi := k*block, min(len(rows), (k+1)*block)
 		for i := lo; i < hi; i++ {
 			src := raw.Data[int(rows[i])*raw.Stride:]

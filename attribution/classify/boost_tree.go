@@ -1,6 +1,10 @@
 package classify
 
-import "math"
+import (
+	"math"
+
+	"github.com/gapwise/gapwise/internal/workers"
+)
 
 // The boosting rounds use the gradient and hessian of the weighted
 // logistic loss ℓ = w·[log(1+e^z) − y·z] at the current log-odds z:
@@ -177,7 +181,7 @@ func newBoostGrower(bins []uint64, binning *boostBinning, z, sw []float64, cfg b
 func (gr *boostGrower) gradients() {
 	const block = 16384
 	n := len(gr.gh)
-	parallelIndex(gr.cfg.threads, (n+block-1)/block, func(k int) {
+	workers.For(gr.cfg.threads, (n+block-1)/block, func(_, k int) {
 		lo, hi := k*block, min(n, (k+1)*block)
 		gh, odds, sw := gr.gh[lo:hi], gr.odds[lo:hi], gr.sw[lo:hi]
 		for i := range gh {
@@ -427,7 +431,7 @@ func (gr *boostGrower) buildHist(dst []boostBin, start, end int) {
 	for k := 1; k < chunks; k++ {
 		parts[k] = gr.newHist()
 	}
-	parallelIndex(gr.cfg.threads, chunks, func(k int) {
+	workers.For(gr.cfg.threads, chunks, func(_, k int) {
 		clear(parts[k])
 		lo := start + k*boostHistChunk
 		gr.accumulate(parts[k], lo, min(end, lo+boostHistChunk))

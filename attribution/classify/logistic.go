@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/optimize"
@@ -83,7 +84,7 @@ func (l Linear) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	if err != nil {
 		return nil, err
 	}
-	threads := threadCount(l.Threads)
+	threads := workers.Count(l.Threads)
 	z, raw, active := rawDesign(x, w, sw, threads)
 	terms := make([]Term, len(active))
 	for a, c := range active {
@@ -155,7 +156,7 @@ func (e Expanded) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) 
 	if e.MaxInteract < 1 {
 		return nil, fmt.Errorf("classify: expanded: MaxInteract must be ≥ 1, got %d: %w", e.MaxInteract, ErrBadInput)
 	}
-	threads := threadCount(e.Threads)
+	threads := workers.Count(e.Threads)
 	lin, raw, active := rawDesign(x, w, sw, threads)
 	inter := interactionSet(lin, active, y, w, e.MaxInteract)
 	z, terms, scales := expandDesign(lin, raw, active, expandTerms(raw, active, inter), w, sw, threads)
@@ -411,7 +412,7 @@ const logisticBlockRows = 8192
 // when all are done.
 func logisticBlocks(threads, n int, fn func(b, lo, hi int)) {
 	nb := (n + logisticBlockRows - 1) / logisticBlockRows
-	parallelIndex(threads, nb, func(b int) {
+	workers.For(threads, nb, func(_, b int) {
 		fn(b, b*logisticBlockRows, min(n, (b+1)*logisticBlockRows))
 	})
 }

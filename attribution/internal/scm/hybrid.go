@@ -3,6 +3,7 @@ package scm
 import (
 	"fmt"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -61,7 +62,7 @@ func hybridChunks(m *Model, n int, seed uint64, threshold float64, bins int, log
 	blocks := (n + BlockSize - 1) / BlockSize
 	nChunks := min(maxChunks, blocks)
 	out := make([][]*metrics.Stats, nChunks)
-	parallelFor(nChunks, func(c int) {
+	workers.For(0, nChunks, func(_, c int) {
 		// Coalitions differing only in unshifted nodes share statistics.
 		shifted := m.ShiftedSet()
 		stats := make([]*metrics.Stats, 1<<uint(k))

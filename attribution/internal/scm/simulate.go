@@ -2,8 +2,8 @@ package scm
 
 import (
 	"fmt"
-	"runtime"
-	"sync"
+
+	"github.com/gapwise/gapwise/internal/workers"
 )
 
 // Group selects one of the two groups' distributions.
@@ -63,7 +63,7 @@ func simulate(m *Model, s Coalition, n int, seed uint64, stream int) (*Records, 
 	rec := &Records{Values: make([][]float64, n), Labels: make([]float64, n), Scores: make([]float64, n)}
 	flat := make([]float64, n*k)
 	blocks := (n + BlockSize - 1) / BlockSize
-	parallelFor(blocks, func(b int) {
+	workers.For(0, blocks, func(_, b int) {
 		e := newEvaluator(m)
 		r := blockRand(seed, stream, b)
 		for j := b * BlockSize; j < min(n, (b+1)*BlockSize); j++ {
@@ -77,30 +77,4 @@ func simulate(m *Model, s Coalition, n int, seed uint64, stream int) (*Records, 
 		}
 	})
 	return rec, nil
-}
-
-// parallelFor runs body(0..count−1) on GOMAXPROCS goroutines. Each index is
-// handled exactly once; the caller must make body's writes disjoint.
-func parallelFor(count int, body func(i int)) {
-	workers := min(runtime.GOMAXPROCS(0), count)
-	var next int
-	var mu sync.Mutex
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for {
-				mu.Lock()
-				i := next
-				next++
-				mu.Unlock()
-				if i >= count {
-					return
-				}
-				body(i)
-			}
-		}()
-	}
-	wg.Wait()
 }
