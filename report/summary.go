@@ -329,11 +329,11 @@ func Summary(res *fairness.Result, m fairness.MetricResult) string {
 	}
 	b.WriteString(".")
 	if nRest > 0 {
-		word := "mechanisms"
 		if nRest == 1 {
-			word = "mechanism"
+			fmt.Fprintf(&b, " The remaining mechanism contributes %s.", formatDelta(m.Metric, rest))
+		} else {
+			fmt.Fprintf(&b, " The other %d mechanisms together contribute %s.", nRest, formatDelta(m.Metric, rest))
 		}
-		fmt.Fprintf(&b, " The other %d %s together contribute %s.", nRest, word, formatDelta(m.Metric, rest))
 	}
 	fmt.Fprintf(&b, " The contributions add up to %s; the remaining %s (residual) is estimation error the method cannot assign.",
 		formatDelta(m.Metric, m.Estimated), formatDelta(m.Metric, m.Residual))

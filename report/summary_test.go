@@ -43,7 +43,7 @@ func TestSummary(t *testing.T) {
 		"6.1 points (95% interval [4.8, 7.3] pts) come from how `hb` presents given `anaemia`; ",
 		"3.0 points come from how often `anaemia` occurs given `age`",
 		"the mix of `age` narrows it by 1.2 points (95% interval [−2.0, −0.4] pts)",
-		"The other 1 mechanism together contribute 0.0 pts.",
+		"The remaining mechanism contributes 0.0 pts.",
 		"add up to +7.9 pts; the remaining +1.1 pts (residual)",
 	} {
 		if !strings.Contains(got, want) {
