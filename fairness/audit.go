@@ -40,14 +40,10 @@ type RunOptions struct {
 // The result depends only on spec and the data, not on opt.Workers.
 // Input problems are reported as errors for which IsInputError is true.
 func Run(spec *Spec, opt RunOptions) (*Result, error) {
-	d, err := LoadData(spec)
+	d, sample, mechs, err := prepare(spec)
 	if err != nil {
 		return nil, err
 	}
-	if err := checkMetricsDefined(spec, d); err != nil {
-		return nil, err
-	}
-	sample, mechs := encode(spec, d)
 	learners, ok := candidateLearners(spec.Classifier)
 	if !ok {
 		return nil, specErr(spec.File, spec.KeyLine("classifier"), "classifier", ErrClassifierUnavailable, "classifier %s is not available", spec.Classifier)
@@ -96,6 +92,20 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	}
 	r.Assumptions = Assumptions(spec.ScoreIsNode(), spec.Synthetic)
 	return r, nil
+}
+
+// prepare loads the data, checks that every metric has a value in both
+// groups and encodes the graph columns for attribution.
+func prepare(spec *Spec) (*Dataset, *attribution.Sample, []attribution.Mechanism, error) {
+	d, err := LoadData(spec)
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	if err := checkMetricsDefined(spec, d); err != nil {
+		return nil, nil, nil, err
+	}
+	sample, mechs := encode(spec, d)
+	return d, sample, mechs, nil
 }
 
 // candidateLearners returns the learners a classifier setting stands for;

@@ -41,14 +41,10 @@ type PlanNode struct {
 // every metric has a value in both groups. Errors are input errors (see
 // IsInputError).
 func Plan(spec *Spec) (*PlanInfo, error) {
-	d, err := LoadData(spec)
+	d, sample, mechs, err := prepare(spec)
 	if err != nil {
 		return nil, err
 	}
-	if err := checkMetricsDefined(spec, d); err != nil {
-		return nil, err
-	}
-	sample, mechs := encode(spec, d)
 	learners, _ := candidateLearners(spec.Classifier)
 	info := &PlanInfo{
 		Title:      spec.Title,

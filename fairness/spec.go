@@ -413,18 +413,30 @@ func (p *specParser) oneOf(key string, v *yaml.Node, allowed ...string) (string,
 	return "", specErr(p.file, v.Line, key, sentinel, "%s must be one of %s, got %q", key, strings.Join(allowed, ", "), sv)
 }
 
+// eachKey calls fn for every key of the mapping v, in order, with the key's
+// full name (prefix + "." + key); it rejects a key given twice and returns
+// the set of keys seen, or fn's first error.
+func (p *specParser) eachKey(v *yaml.Node, prefix string, fn func(k, val *yaml.Node, key string) error) (map[string]bool, error) {
+	seen := map[string]bool{}
+	for i := 0; i+1 < len(v.Content); i += 2 {
+		k, val := resolve(v.Content[i]), resolve(v.Content[i+1])
+		key := prefix + "." + k.Value
+		if seen[k.Value] {
+			return nil, specErr(p.file, k.Line, key, ErrDuplicateKey, "key given twice")
+		}
+		seen[k.Value] = true
+		if err := fn(k, val, key); err != nil {
+			return nil, err
+		}
+	}
+	return seen, nil
+}
+
 func (p *specParser) groups(s *Spec, v *yaml.Node) error {
 	if v.Kind != yaml.MappingNode {
 		return specErr(p.file, v.Line, "groups", ErrBadValue, "groups must be a mapping with column, reference and comparison")
 	}
-	seen := map[string]bool{}
-	for i := 0; i+1 < len(v.Content); i += 2 {
-		k, val := resolve(v.Content[i]), resolve(v.Content[i+1])
-		key := "groups." + k.Value
-		if seen[k.Value] {
-			return specErr(p.file, k.Line, key, ErrDuplicateKey, "key given twice")
-		}
-		seen[k.Value] = true
+	seen, err := p.eachKey(v, "groups", func(k, val *yaml.Node, key string) error {
 		var dst *string
 		switch k.Value {
 		case "column":
@@ -437,10 +449,11 @@ func (p *specParser) groups(s *Spec, v *yaml.Node) error {
 			return specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
 		}
 		sv, err := p.str(key, val)
-		if err != nil {
-			return err
-		}
 		*dst = sv
+		return err
+	})
+	if err != nil {
+		return err
 	}
 	for _, k := range []string{"column", "reference", "comparison"} {
 		if !seen[k] {
@@ -458,14 +471,7 @@ func (p *specParser) intervals(s *Spec, v *yaml.Node) error {
 	if v.Kind != yaml.MappingNode {
 		return specErr(p.file, v.Line, "intervals", ErrBadValue, "intervals must be a mapping such as {replicates: 200, level: 0.95, keep_ratios: false}")
 	}
-	seen := map[string]bool{}
-	for i := 0; i+1 < len(v.Content); i += 2 {
-		k, val := resolve(v.Content[i]), resolve(v.Content[i+1])
-		key := "intervals." + k.Value
-		if seen[k.Value] {
-			return specErr(p.file, k.Line, key, ErrDuplicateKey, "key given twice")
-		}
-		seen[k.Value] = true
+	_, err := p.eachKey(v, "intervals", func(k, val *yaml.Node, key string) error {
 		var err error
 		switch k.Value {
 		case "replicates":
@@ -483,11 +489,9 @@ func (p *specParser) intervals(s *Spec, v *yaml.Node) error {
 		default:
 			err = specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
 		}
-		if err != nil {
-			return err
-		}
-	}
-	return nil
+		return err
+	})
+	return err
 }
 
 func (p *specParser) metrics(s *Spec, v *yaml.Node) error {
@@ -525,14 +529,7 @@ func (p *specParser) graph(s *Spec, v *yaml.Node) error {
 			return specErr(p.file, item.Line, prefix, ErrBadValue, "each graph entry must be a mapping with node, columns and parents")
 		}
 		n := NodeSpec{Line: item.Line}
-		seen := map[string]bool{}
-		for j := 0; j+1 < len(item.Content); j += 2 {
-			k, val := resolve(item.Content[j]), resolve(item.Content[j+1])
-			key := prefix + "." + k.Value
-			if seen[k.Value] {
-				return specErr(p.file, k.Line, key, ErrDuplicateKey, "key given twice")
-			}
-			seen[k.Value] = true
+		seen, err := p.eachKey(item, prefix, func(k, val *yaml.Node, key string) error {
 			var err error
 			switch k.Value {
 			case "node":
@@ -547,9 +544,10 @@ func (p *specParser) graph(s *Spec, v *yaml.Node) error {
 			default:
 				err = specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
 			}
-			if err != nil {
-				return err
-			}
+			return err
+		})
+		if err != nil {
+			return err
 		}
 		if !seen["node"] {
 			return specErr(p.file, item.Line, prefix+".node", ErrMissingKey, "missing required key %q", prefix+".node")
