@@ -134,24 +134,29 @@ func ESSFromLogSums(logSum, logSumSq float64) float64 {
 	return math.Exp(2*logSum - logSumSq)
 }
 
-// ExtremeLogRatio bounds the "extreme" density ratios: |log r_i| > log 20,
-// a ratio above 20 or below 1/20. ln 20 = 2.995732273553991.
+// ExtremeLogRatio bounds the "extreme" importance weights: log w > log 20,
+// a weight above 20. ln 20 = 2.995732273553991.
 const ExtremeLogRatio = 2.995732273553991
 
-// ExtremeShare is the share of values with |logr| > ExtremeLogRatio: records
-// that one group almost never produces under the other's mechanism, i.e.
-// where the groups barely overlap. It is 0 for an empty input.
-func ExtremeShare(logr []float64) float64 {
-	if len(logr) == 0 {
+// ExtremeShare is the share of records whose importance weight exp(logw)
+// exceeds 20 (log w > ExtremeLogRatio): records the other group produces
+// far more often, each of which stands for many, so that a handful can
+// dominate a reweighted estimate. Only this direction matters for the
+// estimate: a record with a weight near 0 is merely discounted (its cost
+// shows in the effective sample size). Pass log r_i for the reference
+// records and −log r_i for the comparison records. It is 0 for an empty
+// input.
+func ExtremeShare(logw []float64) float64 {
+	if len(logw) == 0 {
 		return 0
 	}
 	n := 0
-	for _, x := range logr {
-		if math.Abs(x) > ExtremeLogRatio {
+	for _, x := range logw {
+		if x > ExtremeLogRatio {
 			n++
 		}
 	}
-	return float64(n) / float64(len(logr))
+	return float64(n) / float64(len(logw))
 }
 
 // RatioStrata is the number of strata of the parents in WorstStratumMean.

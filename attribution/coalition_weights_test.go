@@ -165,10 +165,11 @@ func BenchmarkCoalitionWeights(b *testing.B) {
 
 func TestExtremeShare(t *testing.T) {
 	l20 := math.Log(20)
-	// 3 of 8 values beyond ±ln 20; ln 20 itself is not extreme (by hand).
+	// 2 of 8 weights above 20; ln 20 itself is not extreme, and weights
+	// near 0 (−4, −ln 20) do not count (by hand).
 	x := []float64{0, l20, -l20, l20 + 1e-9, -4, 7, 1, -1}
-	if got := ExtremeShare(x); got != 3.0/8 {
-		t.Errorf("ExtremeShare = %v, want 3/8", got)
+	if got := ExtremeShare(x); got != 2.0/8 {
+		t.Errorf("ExtremeShare = %v, want 2/8", got)
 	}
 	if math.Abs(ExtremeLogRatio-l20) > 1e-15 {
 		t.Errorf("ExtremeLogRatio %v is not ln 20 = %v", ExtremeLogRatio, l20)

@@ -132,6 +132,7 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 			}
 			rep.ComparisonESS = SummariseLogWeights(neg).ESS
 			rep.ComparisonTailShape = TailShape(neg)
+			rep.ComparisonExtremeShare = ExtremeShare(neg)
 		}
 		// Out-of-fold AUC of the (node, parents) classifier; both groups
 		// are present, so it is defined.

@@ -104,9 +104,10 @@ type MechanismReport struct {
 	ESS           float64       // (Σw)²/Σw² over reference records, w = r_i
 	MaxShare      float64       // max w / Σw over reference records
 	MeanRatio     float64       // mean of r_i over reference records (≈ 1 if right)
-	// ExtremeShare is the share of reference records with
-	// |log r_i| > ExtremeLogRatio (before clipping).
-	ExtremeShare float64
+	// ExtremeShare is the share of reference records with r_i > 20
+	// (ExtremeShare; before clipping); ComparisonExtremeShare that of
+	// comparison records with 1/r_i > 20, set when that side is used.
+	ExtremeShare, ComparisonExtremeShare float64
 	// WorstStratumMean is the mean of r_i in the stratum of the parents
 	// farthest from 1 (WorstStratumMean; before clipping).
 	WorstStratumMean float64

@@ -196,6 +196,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		}
 		if m.ComparisonESS > 0 {
 			mr.ComparisonTailShape = finite(m.ComparisonTailShape)
+			mr.ComparisonExtremeShare = finite(m.ComparisonExtremeShare)
 		}
 		if groups.NReference > 0 {
 			mr.ESSShare = m.ESS / float64(groups.NReference)

@@ -138,9 +138,13 @@ type MechanismResult struct {
 	ESSShare         float64       `json:"ess_share"` // ESS / n_reference
 	MaxShare         float64       `json:"max_weight_share"`
 	MeanRatio        float64       `json:"mean_ratio"` // ≈ 1 when the ratios are right
-	// ExtremeShare is the share of reference records whose ratio is above
-	// 20 or below 1/20 (attribution.ExtremeLogRatio): poor overlap.
-	ExtremeShare float64 `json:"extreme_ratio_share"`
+	// ExtremeShare is the share of reference records whose weight r is
+	// above 20 (attribution.ExtremeShare): a few such records can dominate
+	// the reweighted estimate. ComparisonExtremeShare is the share of
+	// comparison records whose weight 1/r is above 20, present when they
+	// are used.
+	ExtremeShare           float64  `json:"extreme_ratio_share"`
+	ComparisonExtremeShare *float64 `json:"comparison_extreme_ratio_share,omitempty"`
 	// WorstStratumMean is the mean ratio in the fifth of the reference
 	// records (by the parents' classifier) farthest from 1; ≈ 1 when right.
 	WorstStratumMean float64 `json:"worst_stratum_mean_ratio"`

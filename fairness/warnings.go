@@ -28,8 +28,8 @@ const (
 	// WarnAUC: the out-of-fold AUC of a mechanism's group classifier is at
 	// least this, so the groups barely overlap on it.
 	WarnAUC = 0.95
-	// WarnExtremeShare: more than this share of reference records have a
-	// ratio above 20 or below 1/20 for a mechanism.
+	// WarnExtremeShare: more than this share of the records of the side(s)
+	// that estimate the hybrids carry a weight above 20 for a mechanism.
 	WarnExtremeShare = 0.01
 	// WarnStratumLow/High: the mean ratio in some fifth of the reference
 	// records (grouped by the parents) falls outside this range.
@@ -56,8 +56,8 @@ func Warnings(r *Result) []string {
 		if m.AUC >= WarnAUC {
 			out = append(out, fmt.Sprintf("the groups are nearly separable on `%s` (out-of-fold AUC %.3f): overlap is poor, so its contribution is unreliable", m.Mechanism, m.AUC))
 		}
-		if m.ExtremeShare > WarnExtremeShare {
-			out = append(out, fmt.Sprintf("%.1f%% of reference records have extreme ratios (above 20 or below 1/20) for `%s`: the groups barely overlap there", 100*m.ExtremeShare, m.Mechanism))
+		if w := extremeWarning(m, side); w != "" {
+			out = append(out, w)
 		}
 		refLow, cmpLow := low(m.ESS, nRef), low(m.ComparisonESS, nCmp)
 		switch {
@@ -176,4 +176,21 @@ func tailWarning(m MechanismResult, side string) string {
 		verdict = "the estimate is unreliable at this sample size"
 	}
 	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f): %s; consider estimate_from: both", m.Mechanism, where, k, attribution.TailInfiniteVariance, verdict)
+}
+
+// extremeWarning speaks up when more than WarnExtremeShare of the records
+// that estimate the hybrids carry a weight above 20 for a mechanism; with
+// both sides, only when both do (the combination leans on the better one).
+func extremeWarning(m MechanismResult, side string) string {
+	ref := m.ExtremeShare > WarnExtremeShare
+	cmp := m.ComparisonExtremeShare != nil && *m.ComparisonExtremeShare > WarnExtremeShare
+	switch {
+	case side == "comparison" && cmp:
+		return fmt.Sprintf("%.1f%% of comparison records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100**m.ComparisonExtremeShare, m.Mechanism)
+	case side == "both" && ref && cmp:
+		return fmt.Sprintf("%.1f%% of reference and %.1f%% of comparison records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100*m.ExtremeShare, 100**m.ComparisonExtremeShare, m.Mechanism)
+	case side != "comparison" && side != "both" && ref:
+		return fmt.Sprintf("%.1f%% of reference records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100*m.ExtremeShare, m.Mechanism)
+	}
+	return ""
 }

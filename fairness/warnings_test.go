@@ -46,7 +46,13 @@ func TestWarnings(t *testing.T) {
 		{"auc", func(r *Result) { r.Mechanisms[0].AUC = 0.95 }, []string{"nearly separable on `age` (out-of-fold AUC 0.950)"}},
 		{"residual", func(r *Result) { r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.06, 0.03 }, []string{"for fnr the contributions add up to 0.0600 but the observed gap is 0.0900"}},
 		{"residual tiny", func(r *Result) { r.Metrics[0].Gap, r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.004, 0, 0.004 }, nil},
-		{"extreme", func(r *Result) { r.Mechanisms[0].ExtremeShare = 0.034 }, []string{"3.4% of reference records have extreme ratios (above 20 or below 1/20) for `age`: the groups barely overlap there"}},
+		{"extreme", func(r *Result) { r.Mechanisms[0].ExtremeShare = 0.034 }, []string{"3.4% of reference records carry a weight above 20 for `age`: the groups barely overlap there"}},
+		{"extreme both one side", func(r *Result) { r.Settings.EstimateFrom = "both"; r.Mechanisms[0].ExtremeShare = 0.034 }, nil},
+		{"extreme both sides", func(r *Result) {
+			r.Settings.EstimateFrom = "both"
+			c := 0.02
+			r.Mechanisms[0].ExtremeShare, r.Mechanisms[0].ComparisonExtremeShare = 0.034, &c
+		}, []string{"3.4% of reference and 2.0% of comparison records carry a weight above 20 for `age`"}},
 		{"extreme fine", func(r *Result) { r.Mechanisms[0].ExtremeShare = 0.01 }, nil},
 		{"stratum", func(r *Result) { r.Mechanisms[0].WorstStratumMean = 1.4 }, []string{"average 1.400 in one fifth of the reference records"}},
 		{"stratum low", func(r *Result) { r.Mechanisms[0].WorstStratumMean = 0.7 }, []string{"average 0.700 in one fifth"}},
@@ -72,7 +78,7 @@ func TestWarnings(t *testing.T) {
 			r.Mechanisms = append(r.Mechanisms, bad)
 			r.Weights[0].Worst.ESS = 30
 			r.Metrics[0].Residual, r.Metrics[0].EffectiveRecords = 0.05, 30
-		}, []string{"dropped", "separable on `hb | dx`", "extreme ratios", "`hb` rests on 37 effective records", "the hybrid with", "for fnr, the reweighted", "for fnr the contributions"}},
+		}, []string{"dropped", "separable on `hb | dx`", "weight above 20", "`hb` rests on 37 effective records", "the hybrid with", "for fnr, the reweighted", "for fnr the contributions"}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

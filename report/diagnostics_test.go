@@ -24,8 +24,8 @@ func withDiagnostics(r *fairness.Result) {
 		m.ExtremeShare = 0.001 * float64(i)
 		m.WorstStratumMean = 1 + 0.05*float64(i)
 		m.ComparisonESS = 900 - 100*float64(i)
-		ref, cmp := 0.3+0.1*float64(i), 0.25
-		m.TailShape, m.ComparisonTailShape = &ref, &cmp
+		ref, cmp, ext := 0.3+0.1*float64(i), 0.25, 0.003
+		m.TailShape, m.ComparisonTailShape, m.ComparisonExtremeShare = &ref, &cmp, &ext
 		m.ClippedReference, m.ClippedComparison = 12+i, 11+i
 		for j := range m.Losses {
 			m.Losses[j].OddsCheck = 1.02 + 0.01*float64(j)
@@ -56,8 +56,8 @@ func TestWriteTextDiagnostics(t *testing.T) {
 		"90% interval",           // the level of settings.intervals, not a fixed 95%
 		"[0.1010, 0.1390]",       // reference interval
 		"worst-fifth mean ratio", // column headings
-		"extreme ratios", "comparison ESS", "clipped ref", "clipped cmp",
-		"hb | anaemia            quadratic   linear       0.8100   400.0     0.3330            0.0200      1.0120                  1.1000          0.0020        0.50           700.0             0.25           14           13",
+		"weights > 20", "comparison ESS", "comparison > 20", "clipped ref", "clipped cmp",
+		"hb | anaemia            quadratic   linear       0.8100   400.0     0.3330            0.0200      1.0120                  1.1000        0.0020        0.50           700.0           0.0030             0.25           14           13",
 		"ferritin | anaemia, hb  linear           0.6890      1.0200", // candidate, log loss, odds check
 		"ferritin | anaemia, hb  quadratic        0.6910      1.0300",
 		"odds check: n_ref/n_cmp",

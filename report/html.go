@@ -115,9 +115,9 @@ type mechanismView struct {
 	MeanRatio                         string
 	Unreliable                        string
 
-	WorstStratum, Extreme, ComparisonESS string
-	Tail, ComparisonTail                 string
-	ClippedReference, ClippedComparison  string
+	WorstStratum, Extreme, ComparisonESS    string
+	Tail, ComparisonTail, ComparisonExtreme string
+	ClippedReference, ClippedComparison     string
 }
 
 type confusionView struct {

@@ -42,7 +42,8 @@ func mechanismDiagnostics(m fairness.MechanismResult, flag string) mechanismView
 		WorstStratum: formatDiag(m.WorstStratumMean), Extreme: fmt.Sprintf("%.1f%%", 100*m.ExtremeShare),
 		ComparisonESS: formatCount(math.Round(m.ComparisonESS)),
 		Tail:          tailShape(m.TailShape), ComparisonTail: tailShape(m.ComparisonTailShape),
-		ClippedReference: fmt.Sprint(m.ClippedReference), ClippedComparison: fmt.Sprint(m.ClippedComparison)}
+		ComparisonExtreme: optPercent(m.ComparisonExtremeShare),
+		ClippedReference:  fmt.Sprint(m.ClippedReference), ClippedComparison: fmt.Sprint(m.ClippedComparison)}
 	return v
 }
 
@@ -86,4 +87,12 @@ func tailShape(k *float64) string {
 		return "n/a"
 	}
 	return fmt.Sprintf("%.2f", *k)
+}
+
+// optPercent formats an optional share as a percentage, "n/a" when absent.
+func optPercent(x *float64) string {
+	if x == nil {
+		return "n/a"
+	}
+	return fmt.Sprintf("%.1f%%", 100**x)
 }

@@ -131,7 +131,7 @@ func TestWriteHTMLDiagnostics(t *testing.T) {
 		row   int
 		want  []string
 	}{
-		{"diagnostics-table", 2, []string{"hb | anaemia", "hb", "quadratic", "linear", "0.810", "400", "33.3%", "2.00%", "1.012", "1.100", "0.2%", "0.50", "700", "0.25", "14", "13"}},
+		{"diagnostics-table", 2, []string{"hb | anaemia", "hb", "quadratic", "linear", "0.810", "400", "33.3%", "2.00%", "1.012", "1.100", "0.2%", "0.50", "700", "0.3%", "0.25", "14", "13"}},
 		{"candidates-table", 0, []string{"ferritin | anaemia, hb", "linear", "0.6890", "1.020", "yes"}},
 		{"candidates-table", 1, []string{"ferritin | anaemia, hb", "quadratic", "0.6910", "1.030", ""}},
 		{"hybrids-table", 0, []string{"reference", "1200", "farthest", "age, anaemia, hb, ferritin", "300", "25.0%", "3.10%"}},

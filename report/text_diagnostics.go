@@ -29,10 +29,10 @@ func (t *textWriter) mechanismWeights(res *fairness.Result) {
 		clipped = clipped || m.ClippedReference > 0 || m.ClippedComparison > 0
 	}
 	t.line("Mechanism diagnostics (reference records reweighted by one mechanism's ratio)")
-	head := []string{"mechanism", "classifier", "parents by", "oof AUC", "ESS", "ESS share", "max weight share", "mean ratio", "worst-fifth mean ratio", "extreme ratios", "tail shape"}
+	head := []string{"mechanism", "classifier", "parents by", "oof AUC", "ESS", "ESS share", "max weight share", "mean ratio", "worst-fifth mean ratio", "weights > 20", "tail shape"}
 	right := []bool{false, false, false, true, true, true, true, true, true, true, true}
 	if hasCmp {
-		head, right = append(head, "comparison ESS", "comparison tail"), append(right, true, true)
+		head, right = append(head, "comparison ESS", "comparison > 20", "comparison tail"), append(right, true, true, true)
 	}
 	if clipped {
 		head, right = append(head, "clipped ref", "clipped cmp"), append(right, true, true)
@@ -42,7 +42,7 @@ func (t *textWriter) mechanismWeights(res *fairness.Result) {
 		row := []string{m.Mechanism, m.Classifier, m.ParentClassifier, fixed(m.AUC), fmt.Sprintf("%.1f", m.ESS), fixed(m.ESSShare),
 			fixed(m.MaxShare), fixed(m.MeanRatio), fixed(m.WorstStratumMean), fixed(m.ExtremeShare), tailShape(m.TailShape)}
 		if hasCmp {
-			row = append(row, fmt.Sprintf("%.1f", m.ComparisonESS), tailShape(m.ComparisonTailShape))
+			row = append(row, fmt.Sprintf("%.1f", m.ComparisonESS), optFixed(m.ComparisonExtremeShare), tailShape(m.ComparisonTailShape))
 		}
 		if clipped {
 			row = append(row, fmt.Sprint(m.ClippedReference), fmt.Sprint(m.ClippedComparison))
@@ -55,10 +55,10 @@ func (t *textWriter) mechanismWeights(res *fairness.Result) {
 	t.line("  max weight share: the largest single record's share of the total weight.")
 	t.line("  mean ratio: average ratio over the reference records, near 1 when the ratios are right.")
 	t.line("  worst-fifth mean ratio: the same average in the fifth of the records (ranked by the parents' classifier) farthest from 1; near 1 when right.")
-	t.line("  extreme ratios: share of reference records whose ratio is above 20 or below 1/20, a sign of poor overlap.")
+	t.line("  weights > 20: share of reference records whose weight (ratio) is above 20; a few such records can dominate the estimate, a sign of poor overlap.")
 	t.line("  tail shape: Pareto shape of the largest ratios; above 0.5 the weights have infinite variance, above 0.7 the estimate is unreliable.")
 	if hasCmp {
-		t.line("  comparison ESS: effective sample size of the inverse ratios over the comparison records, which estimate the hybrids too.")
+		t.line("  comparison ESS, > 20, tail: the same checks for the inverse ratios over the comparison records, which estimate the hybrids too.")
 	}
 	if clipped {
 		t.line("  clipped ref / cmp: records whose log-ratio was clipped (clip_ratios) in the reference / comparison group.")
@@ -134,4 +134,12 @@ func nodeList(nodes []string) string {
 		return "none"
 	}
 	return strings.Join(nodes, ", ")
+}
+
+// optFixed formats an optional diagnostic with fixed, "n/a" when absent.
+func optFixed(x *float64) string {
+	if x == nil {
+		return "n/a"
+	}
+	return fixed(*x)
 }
