@@ -25,9 +25,10 @@ func TestBinary(t *testing.T) {
 	if out, err := build.CombinedOutput(); err != nil {
 		t.Fatalf("go build: %v\n%s", err, out)
 	}
-	run := func(args ...string) (stdout, stderr string, code int) {
+	runEnv := func(env []string, args ...string) (stdout, stderr string, code int) {
 		var o, e bytes.Buffer
 		cmd := exec.Command(bin, args...)
+		cmd.Env = append(os.Environ(), env...)
 		cmd.Stdout, cmd.Stderr = &o, &e
 		err := cmd.Run()
 		var ee *exec.ExitError
@@ -40,6 +41,7 @@ func TestBinary(t *testing.T) {
 		}
 		return o.String(), e.String(), code
 	}
+	run := func(args ...string) (stdout, stderr string, code int) { return runEnv(nil, args...) }
 
 	if out, _, code := run("--version"); code != 0 || out != "gapwise v9.9.9-test\n" {
 		t.Errorf("--version: exit %d, printed %q", code, out)
@@ -89,5 +91,27 @@ func TestBinary(t *testing.T) {
 	}
 	if iv := got.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Replicates: 4, Level: 0.9, KeepRatios: true}) {
 		t.Errorf("spec intervals with --level 0.9: settings.intervals %+v", iv)
+	}
+
+	// Same seed and data give byte-identical JSON whatever GOMAXPROCS, with
+	// a full (refitting) bootstrap, the most parallel path (product
+	// requirement).
+	var outs []string
+	for _, procs := range []string{"1", "2"} {
+		out, errOut, code := runEnv([]string{"GOMAXPROCS=" + procs}, "decompose", "--spec", specPath, "--intervals", "6", "--fast-intervals=false", "--format", "json")
+		if code != 0 {
+			t.Fatalf("GOMAXPROCS=%s: exit %d, stderr %q", procs, code, errOut)
+		}
+		outs = append(outs, out)
+	}
+	if outs[0] != outs[1] {
+		t.Error("JSON differs between GOMAXPROCS=1 and GOMAXPROCS=2")
+	}
+	var refit fairness.Result
+	if err := json.Unmarshal([]byte(outs[0]), &refit); err != nil {
+		t.Fatal(err)
+	}
+	if iv := refit.Settings.Intervals; iv == nil || iv.KeepRatios || iv.Replicates != 6 {
+		t.Errorf("--intervals 6 --fast-intervals=false: settings.intervals %+v", iv)
 	}
 }
