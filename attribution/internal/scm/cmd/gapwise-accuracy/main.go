@@ -5,6 +5,7 @@
 //
 //	go run ./attribution/internal/scm/cmd/gapwise-accuracy [-sizes 2000,10000,50000] [-reps 3]
 //	go run ./attribution/internal/scm/cmd/gapwise-accuracy -sides -learners auto
+//	go run ./attribution/internal/scm/cmd/gapwise-accuracy -coverage -learners expanded [-draws 30] [-boot 40]
 //
 // Ground truth: every hybrid distribution simulated with common random
 // numbers and split with the Shapley (1953) formula. All data is synthetic.
@@ -33,6 +34,9 @@ type options struct {
 	detail   bool // also print per-metric, per-mechanism error and SD
 	sides    bool // compare estimation sides instead of learners (sides.go)
 	truth    bool // also print the ground-truth decompositions
+	coverage bool // measure bootstrap interval coverage instead (coverage.go)
+	draws    int  // independent draws per case and size in the coverage study
+	boot     int  // bootstrap replicates per draw in the coverage study
 }
 
 func main() {
@@ -43,6 +47,9 @@ func main() {
 	study := run
 	if opt.sides {
 		study = runSides
+	}
+	if opt.coverage {
+		study = runCoverage
 	}
 	if err := study(opt, os.Stdout, os.Stderr); err != nil {
 		fmt.Fprintln(os.Stderr, "gapwise-accuracy:", err)
@@ -63,10 +70,23 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	detail := fs.Bool("detail", false, "also print mean error, RMSE and SD per metric and mechanism")
 	sides := fs.Bool("sides", false, "compare estimation sides (reference, comparison, both) with the first -learners choice instead of comparing learners")
 	truth := fs.Bool("truth", false, "also print the ground-truth gap and contributions of every case")
+	coverage := fs.Bool("coverage", false, "measure the coverage of 95% bootstrap intervals over independent draws (default sizes 800, cases "+strings.Join(coverageCases, ",")+"; first -learners choice)")
+	draws := fs.Int("draws", 30, "independent draws per case and size with -coverage")
+	boot := fs.Int("boot", 40, "bootstrap replicates (full refit) per draw with -coverage")
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
 	}
-	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth}
+	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, draws: *draws, boot: *boot}
+	if opt.coverage {
+		set := map[string]bool{}
+		fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+		if !set["sizes"] {
+			*sizes = strconv.Itoa(coverageSize)
+		}
+		if !set["cases"] {
+			*cases = strings.Join(coverageCases, ",")
+		}
+	}
 	for _, f := range split(*sizes) {
 		n, err := strconv.Atoi(f)
 		if err != nil || n < 100 {
@@ -86,8 +106,8 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 			return options{}, err
 		}
 	}
-	if opt.reps < 1 || opt.truthN < 1 {
-		err := fmt.Errorf("-reps and -truth-n must be positive")
+	if opt.reps < 1 || opt.truthN < 1 || opt.draws < 1 || opt.boot < 2 {
+		err := fmt.Errorf("-reps, -truth-n and -draws must be positive and -boot at least 2")
 		fmt.Fprintln(stderr, err)
 		return options{}, err
 	}
