@@ -21,7 +21,12 @@ type dagNode struct {
 }
 
 // dagEdge is an arrow from a parent to its child.
-type dagEdge struct{ From, To string }
+type dagEdge struct {
+	From, To string
+	// Bends are the points, one per layer crossed, through which an
+	// arrow spanning more than one layer is drawn.
+	Bends [][2]float64
+}
 
 // Layout spacing of the graph drawing, in ECharts' abstract coordinates
 // (the series scales them to fit its box).
@@ -93,72 +98,100 @@ func layoutDAG(mechs []fairness.MechanismResult) ([]dagNode, []dagEdge) {
 		nodes[i].Layer, state[i] = l, done
 		return l
 	}
-	layers := [][]int{}
 	for i := range nodes {
-		l := depth(i)
+		depth(i)
+	}
+	// An arrow spanning several layers is routed through one invisible
+	// bend point in each layer it crosses (the dummy vertices of the
+	// layered method above). Bend points take part in the ordering like
+	// nodes, so they get slots of their own and the arrow passes between
+	// the boxes of the layers it skips instead of through them.
+	type vertex struct {
+		layer, slot int
+		up, down    []int
+	}
+	verts := make([]vertex, len(nodes))
+	for i, n := range nodes {
+		verts[i].layer = n.Layer
+	}
+	link := func(a, b int) {
+		verts[a].down = append(verts[a].down, b)
+		verts[b].up = append(verts[b].up, a)
+	}
+	bends := make([][]int, len(edges))
+	for k, e := range edges {
+		from, to := index[e.From], index[e.To]
+		if verts[to].layer <= verts[from].layer { // a back edge of a cycle
+			continue
+		}
+		prev := from
+		for l := verts[from].layer + 1; l < verts[to].layer; l++ {
+			verts = append(verts, vertex{layer: l})
+			d := len(verts) - 1
+			bends[k] = append(bends[k], d)
+			link(prev, d)
+			prev = d
+		}
+		link(prev, to)
+	}
+	layers := [][]int{}
+	for v := range verts {
+		l := verts[v].layer
 		for len(layers) <= l {
 			layers = append(layers, nil)
 		}
-		layers[l] = append(layers[l], i)
+		layers[l] = append(layers[l], v)
 	}
-	slot := func() {
-		for _, layer := range layers {
-			for s, i := range layer {
-				nodes[i].Slot = s
-			}
+	for _, layer := range layers {
+		for s, v := range layer {
+			verts[v].slot = s
 		}
 	}
-	slot()
-	children := make([][]int, len(nodes))
-	for i, n := range nodes {
-		for _, p := range n.Parents {
-			children[index[p]] = append(children[index[p]], i)
-		}
-	}
-	parentsOf := func(i int) []int {
-		var out []int
-		for _, p := range nodes[i].Parents {
-			out = append(out, index[p])
-		}
-		return out
-	}
-	reorder := func(l int, neighbours func(int) []int, near int) {
+	reorder := func(l int, neighbours func(int) []int) {
 		key := map[int]float64{}
-		for _, i := range layers[l] {
+		for _, v := range layers[l] {
 			var sum float64
 			var n int
-			for _, j := range neighbours(i) {
-				if nodes[j].Layer == near {
-					sum += float64(nodes[j].Slot)
-					n++
-				}
+			for _, w := range neighbours(v) {
+				sum += float64(verts[w].slot)
+				n++
 			}
-			key[i] = float64(nodes[i].Slot)
+			key[v] = float64(verts[v].slot)
 			if n > 0 {
-				key[i] = sum / float64(n)
+				key[v] = sum / float64(n)
 			}
 		}
 		sort.SliceStable(layers[l], func(a, b int) bool { return key[layers[l][a]] < key[layers[l][b]] })
-		for s, i := range layers[l] {
-			nodes[i].Slot = s
+		for s, v := range layers[l] {
+			verts[v].slot = s
 		}
 	}
+	// Every up and down neighbour lies in the adjacent layer, since long
+	// arrows are split at each layer.
 	for sweep := 0; sweep < 4; sweep++ {
 		for l := 1; l < len(layers); l++ {
-			reorder(l, parentsOf, l-1)
+			reorder(l, func(v int) []int { return verts[v].up })
 		}
 		for l := len(layers) - 2; l >= 0; l-- {
-			reorder(l, func(i int) []int { return children[i] }, l+1)
+			reorder(l, func(v int) []int { return verts[v].down })
 		}
 	}
 	widest := 0
 	for _, layer := range layers {
 		widest = max(widest, len(layer))
 	}
-	for l, layer := range layers {
-		for _, i := range layer {
-			nodes[i].X = 40 + float64(l)*layerGap
-			nodes[i].Y = 40 + (float64(nodes[i].Slot)+float64(widest-len(layer))/2)*slotGap
+	pos := func(v int) (x, y float64) {
+		l := verts[v].layer
+		return 40 + float64(l)*layerGap, 40 + (float64(verts[v].slot)+float64(widest-len(layers[l]))/2)*slotGap
+	}
+	for i := range nodes {
+		nodes[i].Slot = verts[i].slot
+		nodes[i].X, nodes[i].Y = pos(i)
+	}
+	for k, bs := range bends {
+		for _, d := range bs {
+			x, y := pos(d)
+			edges[k].Bends = append(edges[k].Bends, [2]float64{x, y})
 		}
 	}
 	return nodes, edges
@@ -253,16 +286,24 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			data[i].Y += 1000
 		}
 	}
+	// Each arrow is a chain of links through its bend points, which are
+	// invisible nodes; only the last link carries the arrowhead.
+	// report.js moves both ends of every chain onto the borders of the
+	// node boxes (it knows the pixel scale), so each arrowhead is visible.
 	var links []opts.GraphLink
-	for _, e := range edges {
-		l := opts.GraphLink{Source: e.From, Target: e.To}
-		if span := layerOf(nodes, e.To) - layerOf(nodes, e.From); span > 1 {
-			// An arrow skipping layers bends so that it does not run
-			// through the nodes in between.
-			l.LineStyle = &opts.LineStyle{Curveness: 0.25}
+	var bends []opts.GraphNode
+	for k, e := range edges {
+		from := e.From
+		for j, b := range e.Bends {
+			name := bendName(k, j)
+			bends = append(bends, opts.GraphNode{Name: name, X: float32(b[0] + 1000), Y: float32(b[1] + 1000), SymbolSize: 0,
+				Tooltip: &opts.Tooltip{Show: opts.Bool(false)}})
+			links = append(links, opts.GraphLink{Source: from, Target: name})
+			from = name
 		}
-		links = append(links, l)
+		links = append(links, opts.GraphLink{Source: from, Target: e.To})
 	}
+	data = append(data, bends...)
 	g := charts.NewGraph()
 	g.SetGlobalOptions(
 		charts.WithTooltipOpts(plainTooltip()),
@@ -281,6 +322,18 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 	// Per-node label colours: white text on strongly shaded nodes.
 	if series, ok := o["series"].([]any); ok && len(series) == 1 {
 		sm := series[0].(map[string]any)
+		ls, _ := sm["links"].([]any)
+		li := 0
+		for _, e := range edges {
+			for j := 0; j <= len(e.Bends); j++ {
+				l := ls[li].(map[string]any)
+				if j < len(e.Bends) {
+					l["symbol"] = []string{"none", "none"}
+				}
+				l["tooltip"] = map[string]any{"formatter": string(itemTooltip(e.From + " → " + e.To).Formatter)}
+				li++
+			}
+		}
 		items, _ := sm["data"].([]any)
 		for i, it := range items {
 			if i >= len(nodes) {
@@ -317,12 +370,5 @@ func mergeLabel(label any, text string) map[string]any {
 // them apart from any column name.
 func frameName(i int) string { return fmt.Sprintf("\u200bframe-%d", i) }
 
-// layerOf returns the layer of the named node.
-func layerOf(nodes []dagNode, name string) int {
-	for _, n := range nodes {
-		if n.Name == name {
-			return n.Layer
-		}
-	}
-	return 0
-}
+// bendName names the j-th bend point of the k-th arrow, like frameName.
+func bendName(k, j int) string { return fmt.Sprintf("\u200bbend-%d-%d", k, j) }

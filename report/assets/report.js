@@ -65,7 +65,79 @@
     return o;
   }
 
-  function draw(el, option) {
+  // The causal graph's links join node centres and bend points. Two things
+  // are settled here, where the chart's pixel size is known. First, the
+  // series box is fitted to the nodes' aspect ratio, so one unit is the
+  // same number of pixels across and down: ECharts would otherwise stretch
+  // the drawing and squash the node boxes and arrowheads. Second, ECharts
+  // shortens a link only by a circle around its end node, which leaves
+  // arrowheads under the wide boxes, so every link end touching a box is
+  // moved onto the box's border as an invisible port node. fitGraph runs
+  // again whenever the chart's size or the metric changes.
+  var portGap = 2; // pixels between an arrow's tip and the box border
+  function fitGraph(chart, option) {
+    var o = prepare(option);
+    var s = (o.series || [])[0];
+    if (!s || s.id !== "gw-graph" || !s.data || !s.data.length) {
+      return o;
+    }
+    var minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+    s.data.forEach(function (n) {
+      minX = Math.min(minX, n.x); maxX = Math.max(maxX, n.x);
+      minY = Math.min(minY, n.y); maxY = Math.max(maxY, n.y);
+    });
+    var left = +s.left || 0, right = +s.right || 0, top = +s.top || 0, bottom = +s.bottom || 0;
+    var w = chart.getWidth() - left - right, h = chart.getHeight() - top - bottom;
+    var bw = maxX - minX, bh = maxY - minY;
+    if (!(w > 0) || !(h > 0) || !(bw > 0) || !(bh > 0)) {
+      return o;
+    }
+    var k = Math.min(w / bw, h / bh); // pixels per unit
+    s.left = left + (w - bw * k) / 2;
+    s.top = top + (h - bh * k) / 2;
+    s.width = bw * k;
+    s.height = bh * k;
+    delete s.right;
+    delete s.bottom;
+    var at = {};
+    s.data.forEach(function (n) { at[n.name] = n; });
+    function port(box, other, name) {
+      var size = box.symbolSize;
+      if (!size || !size.length || !other) {
+        return null;
+      }
+      var dx = other.x - box.x, dy = other.y - box.y;
+      var len = Math.sqrt(dx * dx + dy * dy) * k;
+      if (len === 0) {
+        return null;
+      }
+      // Distance in pixels along the link from the centre to the border.
+      var t = Math.min(dx ? size[0] / 2 / Math.abs(dx * k) : Infinity, dy ? size[1] / 2 / Math.abs(dy * k) : Infinity) * len + portGap;
+      if (t >= len) {
+        return null;
+      }
+      s.data.push({ name: name, x: box.x + dx * t / len, y: box.y + dy * t / len,
+        symbolSize: 0, label: { show: false }, tooltip: { show: false } });
+      return name;
+    }
+    (s.links || []).forEach(function (l, i) {
+      var from = at[l.source], to = at[l.target];
+      if (!from || !to) {
+        return;
+      }
+      var a = port(from, to, "\u200bport-" + i + "-from");
+      var b = port(to, from, "\u200bport-" + i + "-to");
+      if (a) { l.source = a; }
+      if (b) { l.target = b; }
+    });
+    return o;
+  }
+
+  function drawGraph(chart, option) {
+    chart.setOption(fitGraph(chart, option), true);
+  }
+
+  function draw(el, option, fit) {
     if (!el || !option) {
       return null;
     }
@@ -75,12 +147,12 @@
       rendered++;
       document.body.setAttribute("data-charts-rendered", String(rendered));
     });
-    chart.setOption(prepare(option));
+    chart.setOption(fit ? fit(chart, option) : prepare(option));
     charts.push(chart);
     return chart;
   }
 
-  var walk = null, graph = null;
+  var walk = null, graph = null, graphMetric = data && data.metric;
 
   function selectMetric(name) {
     document.querySelectorAll(".gw-metric-panel").forEach(function (p) {
@@ -90,7 +162,8 @@
       walk.setOption(prepare(data.walk[name]), true);
     }
     if (graph && data.graph[name]) {
-      graph.setOption(prepare(data.graph[name]), true);
+      graphMetric = name;
+      drawGraph(graph, data.graph[name]);
     }
     var box = document.getElementById("column-cards");
     if (box && data.order[name]) {
@@ -107,6 +180,13 @@
     }
   }
 
+  function resizeAll() {
+    charts.forEach(function (c) { c.resize(); });
+    if (graph && data.graph[graphMetric]) {
+      drawGraph(graph, data.graph[graphMetric]);
+    }
+  }
+
   function start() {
     if (!data || typeof echarts === "undefined") {
       document.body.setAttribute("data-charts-error", "missing data or library");
@@ -120,7 +200,7 @@
       if (kind === "graph") { option = data.graph[data.metric]; }
       if (kind === "reliability") { option = data.reliability; }
       if (kind === "column") { option = data.columns[el.getAttribute("data-column")]; }
-      var c = draw(el, option);
+      var c = draw(el, option, kind === "graph" ? fitGraph : null);
       if (c) {
         expected++;
         if (kind === "walk") { walk = c; }
@@ -138,19 +218,17 @@
       menu.addEventListener("change", function () { selectMetric(menu.value); });
       selectMetric(menu.value);
     }
-    window.addEventListener("resize", function () {
-      charts.forEach(function (c) { c.resize(); });
-    });
+    window.addEventListener("resize", resizeAll);
     // Print every table: open the collapsed equivalents, then restore.
     var opened = [];
     window.addEventListener("beforeprint", function () {
       document.querySelectorAll("details.gw-equiv:not([open])").forEach(function (d) { d.open = true; opened.push(d); });
-      charts.forEach(function (c) { c.resize(); });
+      resizeAll();
     });
     window.addEventListener("afterprint", function () {
       opened.forEach(function (d) { d.open = false; });
       opened = [];
-      charts.forEach(function (c) { c.resize(); });
+      resizeAll();
     });
   }
 
