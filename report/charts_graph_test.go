@@ -2,6 +2,7 @@ package report
 
 import (
 	"fmt"
+	"math"
 	"testing"
 
 	"github.com/gapwise/gapwise/fairness"
@@ -107,3 +108,30 @@ func BenchmarkWriteHTML(b *testing.B) {
 type discard struct{}
 
 func (discard) Write(p []byte) (int, error) { return len(p), nil }
+
+// TestLayoutDAGBends checks that an arrow skipping layers gets one bend
+// point per layer it crosses, each in that layer's column and away from
+// every node box of that layer, and that adjacent-layer arrows get none.
+func TestLayoutDAGBends(t *testing.T) {
+	nodes, edges := layoutDAG(mechs([]string{"age"}, []string{"anaemia", "age"}, []string{"bmi", "age"}, []string{"hb", "anaemia", "age"}, []string{"ferritin", "hb", "age"}))
+	byName := map[string]dagNode{}
+	for _, n := range nodes {
+		byName[n.Name] = n
+	}
+	for _, e := range edges {
+		from, to := byName[e.From], byName[e.To]
+		if got, want := len(e.Bends), to.Layer-from.Layer-1; got != want {
+			t.Errorf("%s → %s: %d bends, want %d", e.From, e.To, got, want)
+		}
+		for j, b := range e.Bends {
+			if want := from.X + float64(j+1)*layerGap; b[0] != want {
+				t.Errorf("%s → %s bend %d at x %v, want %v", e.From, e.To, j, b[0], want)
+			}
+			for _, n := range nodes {
+				if n.X == b[0] && math.Abs(n.Y-b[1]) < slotGap/2 {
+					t.Errorf("%s → %s bend %d at %v lies on node %s", e.From, e.To, j, b, n.Name)
+				}
+			}
+		}
+	}
+}
