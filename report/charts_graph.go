@@ -42,9 +42,12 @@ const (
 // barycentre heuristic (Sugiyama, Tagawa & Toda 1981, "Methods for visual
 // understanding of hierarchical system structures"; cited from memory):
 // each node moves to the mean slot of its neighbours in the previous layer
-// of the sweep, ties keeping their order. Parents that are not mechanisms
-// become nodes too. Arrows that would close a cycle (not possible in a
-// valid Result) are drawn but ignored for layering. Coordinates are offset
+// of the sweep, ties keeping their order. An arrow spanning several
+// layers is split at a bend point in each layer it crosses; bend points
+// are ordered like nodes and returned in the arrow's Bends. Parents that
+// are not mechanisms become nodes too. Arrows that would close a cycle
+// (not possible in a valid Result) are drawn straight but ignored for
+// layering. Coordinates are offset
 // to be positive (go-echarts drops zero coordinates).
 func layoutDAG(mechs []fairness.MechanismResult) ([]dagNode, []dagEdge) {
 	index := map[string]int{}
