@@ -87,6 +87,7 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 	reps := make([][]MetricDecomposition, B)
 	inner := opt
 	inner.Workers = 1
+	inner.Sampling.Progress = nil // replicates run concurrently
 	var done atomic.Int64
 	var progressMu sync.Mutex
 	workers.For(opt.Workers, B, func(_, b int) {

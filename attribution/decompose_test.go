@@ -105,3 +105,24 @@ func TestDecomposeSampledMatchesExactForTwoMechanisms(t *testing.T) {
 		}
 	}
 }
+
+// The sampling progress callback reports the pairs spent against the
+// budget, in order, ending at the budget when no tolerance stops early.
+func TestDecomposeSamplingProgress(t *testing.T) {
+	s, mechs := twoNodeSample(1000, 0.5, 5)
+	var calls [][2]int
+	opt := attribution.Options{Threshold: 0.5, Seed: 3, Learners: []classify.Learner{classify.NewLinear()}, ExactLimit: 1,
+		Sampling: attribution.SamplingOptions{MaxPairs: 24, Batch: 8, Progress: func(p, b int) { calls = append(calls, [2]int{p, b}) }}}
+	if _, err := attribution.Decompose(s, mechs, []string{"fnr"}, opt); err != nil {
+		t.Fatal(err)
+	}
+	want := [][2]int{{8, 24}, {16, 24}, {24, 24}}
+	if len(calls) != len(want) {
+		t.Fatalf("progress calls %v, want %v", calls, want)
+	}
+	for i := range want {
+		if calls[i] != want[i] {
+			t.Errorf("progress calls %v, want %v", calls, want)
+		}
+	}
+}

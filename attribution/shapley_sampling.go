@@ -15,6 +15,9 @@ type SamplingOptions struct {
 	MinPairs  int // antithetic pairs before the tolerance is checked; 0 means 16
 	MaxPairs  int // budget of antithetic pairs; 0 means 500
 	Batch     int // pairs whose coalitions are evaluated in one call; 0 means 8
+	// Progress, if non-nil, is called after each batch with the pairs
+	// spent and the budget, on the calling goroutine.
+	Progress func(pairs, budget int)
 }
 
 // BatchValuer evaluates several games on a list of coalitions (bitmasks):
@@ -86,6 +89,9 @@ func SampledShapleyGames(k, games int, value BatchValuer, opt SamplingOptions) (
 		}
 		if err := s.addBatch(perms); err != nil {
 			return nil, nil, err
+		}
+		if opt.Progress != nil {
+			opt.Progress(s.pairs, maxPairs)
 		}
 		if s.pairs >= minPairs && opt.Tolerance > 0 && s.maxStderr() <= opt.Tolerance {
 			break

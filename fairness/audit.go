@@ -27,6 +27,10 @@ type RunOptions struct {
 	BootstrapKeepRatios bool
 	// Progress, if non-nil, is called after each bootstrap replicate.
 	Progress func(done, total int)
+	// SamplingProgress, if non-nil, is called after each batch of sampled
+	// permutation pairs when Shapley values are sampled (more mechanisms
+	// than exact_limit), with the pairs spent and the budget.
+	SamplingProgress func(pairs, budget int)
 }
 
 // Run performs the audit described by spec: it loads the data, checks that
@@ -58,6 +62,7 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 
 		ExactLimit:   spec.ExactLimit,
 		ClipQuantile: spec.ClipRatios,
+		Sampling:     attribution.SamplingOptions{Progress: opt.SamplingProgress},
 	}
 	if spec.EstimateFrom != "" {
 		side, err := attribution.ParseSide(spec.EstimateFrom)

@@ -168,7 +168,7 @@ func outputFiles(res *fairness.Result) ([]outFile, error) {
 // audit runs fairness.Run on spec with the bootstrap settings of the spec
 // and the flags, showing progress on line.
 func audit(spec *fairness.Spec, workers int, iv intervalOptions, line *progressLine) (*fairness.Result, error) {
-	ro := fairness.RunOptions{Workers: workers, Version: version, Progress: line.bootstrap()}
+	ro := fairness.RunOptions{Workers: workers, Version: version, Progress: line.bootstrap(), SamplingProgress: line.sampling()}
 	iv.apply(spec, &ro)
 	line.show("gapwise: estimating %d mechanisms for %d metrics ...", len(spec.Graph), len(spec.Metrics))
 	return fairness.Run(spec, ro)

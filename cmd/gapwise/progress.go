@@ -51,6 +51,18 @@ func (p *progressLine) bootstrap() func(done, total int) {
 	}
 }
 
+// sampling returns a callback for fairness.RunOptions.SamplingProgress that
+// shows "gapwise: sampling Shapley values, pairs/budget permutation pairs";
+// nil when the line is silent.
+func (p *progressLine) sampling() func(pairs, budget int) {
+	if !p.on {
+		return nil
+	}
+	return func(pairs, budget int) {
+		p.show("gapwise: sampling Shapley values, %d/%d permutation pairs", pairs, budget)
+	}
+}
+
 // clear erases the line, leaving the cursor at the start of an empty line.
 func (p *progressLine) clear() {
 	if p.on && p.dirty {

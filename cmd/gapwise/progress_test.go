@@ -30,8 +30,8 @@ func TestProgressLine(t *testing.T) {
 		if w.on {
 			t.Errorf("%s: progress line is on for a non-terminal", name)
 		}
-		if w.bootstrap() != nil {
-			t.Errorf("%s: bootstrap callback for a non-terminal", name)
+		if w.bootstrap() != nil || w.sampling() != nil {
+			t.Errorf("%s: progress callback for a non-terminal", name)
 		}
 		w.show("gapwise: estimating %d mechanisms", 5)
 		w.clear()
@@ -46,9 +46,11 @@ func TestProgressLine(t *testing.T) {
 	cb := p.bootstrap()
 	cb(1, 200)
 	cb(37, 200)
+	p.sampling()(16, 500)
 	p.clear()
 	p.clear() // a second clear writes nothing
-	want := "\rgapwise: estimating 5 mechanisms\x1b[K" + "\rgapwise: bootstrap 1/200\x1b[K" + "\rgapwise: bootstrap 37/200\x1b[K" + "\r\x1b[K"
+	want := "\rgapwise: estimating 5 mechanisms\x1b[K" + "\rgapwise: bootstrap 1/200\x1b[K" + "\rgapwise: bootstrap 37/200\x1b[K" +
+		"\rgapwise: sampling Shapley values, 16/500 permutation pairs\x1b[K" + "\r\x1b[K"
 	if term.String() != want {
 		t.Errorf("terminal got %q\nwant %q", term.String(), want)
 	}
