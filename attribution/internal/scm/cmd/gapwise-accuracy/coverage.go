@@ -10,7 +10,6 @@ import (
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/internal/scm"
 	"github.com/gapwise/gapwise/internal/workers"
-	"github.com/gapwise/gapwise/metrics"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -148,14 +147,13 @@ func runCoverage(opt options, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	choice := opt.learners[0]
-	learners, err := learnerSet(choice)
+	choice, learners, err := firstLearnerSet(opt)
 	if err != nil {
 		return err
 	}
 	var cells []coverageCell
 	for ci, c := range cases {
-		truth, err := scm.GroundTruth(c.Model, opt.metrics, opt.truthN, opt.seed^0x7275746800000000, scm.ScreeningThreshold, metrics.DefaultECEBins)
+		truth, err := caseTruth(opt, c)
 		if err != nil {
 			return err
 		}

@@ -9,7 +9,6 @@ import (
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/internal/scm"
-	"github.com/gapwise/gapwise/metrics"
 )
 
 // studySides lists the estimation sides compared by runSides.
@@ -27,15 +26,14 @@ func runSides(opt options, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	choice := opt.learners[0]
-	learners, err := learnerSet(choice)
+	choice, learners, err := firstLearnerSet(opt)
 	if err != nil {
 		return err
 	}
 	// cells[c][s][z]: case c, side s, size z.
 	cells := make([][][]cell, len(cases))
 	for ci, c := range cases {
-		truth, err := scm.GroundTruth(c.Model, opt.metrics, opt.truthN, opt.seed^0x7275746800000000, scm.ScreeningThreshold, metrics.DefaultECEBins)
+		truth, err := caseTruth(opt, c)
 		if err != nil {
 			return err
 		}

@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"github.com/gapwise/gapwise/attribution"
+	"github.com/gapwise/gapwise/attribution/classify"
 	"github.com/gapwise/gapwise/attribution/internal/scm"
 	"github.com/gapwise/gapwise/metrics"
 )
@@ -35,7 +36,7 @@ func run(opt options, stdout, stderr io.Writer) error {
 	var cells []cell
 	truths := make([][]scm.Truth, len(cases))
 	for ci, c := range cases {
-		truth, err := scm.GroundTruth(c.Model, opt.metrics, opt.truthN, opt.seed^0x7275746800000000, scm.ScreeningThreshold, metrics.DefaultECEBins)
+		truth, err := caseTruth(opt, c)
 		if err != nil {
 			return err
 		}
@@ -148,4 +149,18 @@ func (c *cell) meanAbsResidual() float64 {
 		}
 	}
 	return sum / float64(cnt)
+}
+
+// caseTruth simulates the ground-truth decomposition of case c with the
+// study's truth settings (shared by every mode so their tables agree).
+func caseTruth(opt options, c scm.Case) ([]scm.Truth, error) {
+	return scm.GroundTruth(c.Model, opt.metrics, opt.truthN, opt.seed^0x7275746800000000, scm.ScreeningThreshold, metrics.DefaultECEBins)
+}
+
+// firstLearnerSet returns the first -learners choice and its learners, the
+// single choice the -sides and -coverage modes use.
+func firstLearnerSet(opt options) (string, []classify.Learner, error) {
+	choice := opt.learners[0]
+	learners, err := learnerSet(choice)
+	return choice, learners, err
 }
