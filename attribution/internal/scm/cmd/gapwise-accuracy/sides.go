@@ -85,15 +85,7 @@ func writeSides(w io.Writer, opt options, choice string, cells [][][]cell) {
 	fmt.Fprintf(w, "Accuracy of Shapley contributions by estimation side against simulated ground truth (synthetic screening SCM; learner %s; metrics %s; %d replicate(s); ground truth from %d records per hybrid distribution).\n",
 		choice, strings.Join(opt.metrics, ", "), opt.reps, opt.truthN)
 	fmt.Fprint(w, "Each entry is max / mean |φ̂ − φ| over metrics, mechanisms and replicates; n is records per group. reference: reference records weighted by Π_{i∈S} r_i; comparison: comparison records weighted by Π_{i∉S} 1/r_i; both: the two combined per coalition by effective sample size.\n\n")
-	fmt.Fprint(w, "| case | side |")
-	for _, n := range opt.sizes {
-		fmt.Fprintf(w, " n = %d |", n)
-	}
-	fmt.Fprint(w, " mean \\|residual\\| at largest n |\n|---|---|")
-	for range opt.sizes {
-		fmt.Fprint(w, "---|")
-	}
-	fmt.Fprint(w, "---|\n")
+	writeSizeHeader(w, "side", opt.sizes, "mean \\|residual\\| at largest n")
 	for _, byCase := range cells {
 		for _, row := range byCase {
 			name := row[0].caseName

@@ -16,15 +16,7 @@ func writeSummary(w io.Writer, opt options, cells []cell) {
 	fmt.Fprintf(w, "Accuracy of Shapley contributions against simulated ground truth (synthetic screening SCM; metrics %s; %d replicate(s); ground truth from %d records per hybrid distribution).\n",
 		strings.Join(opt.metrics, ", "), opt.reps, opt.truthN)
 	fmt.Fprintf(w, "Each entry is max / mean |φ̂ − φ| over metrics, mechanisms and replicates; n is records per group.\n\n")
-	fmt.Fprint(w, "| case | learner |")
-	for _, n := range opt.sizes {
-		fmt.Fprintf(w, " n = %d |", n)
-	}
-	fmt.Fprint(w, " mean \\|residual\\| at largest n | truth MC SE |\n|---|---|")
-	for range opt.sizes {
-		fmt.Fprint(w, "---|")
-	}
-	fmt.Fprint(w, "---|---|\n")
+	writeSizeHeader(w, "learner", opt.sizes, "mean \\|residual\\| at largest n", "truth MC SE")
 	for i := 0; i < len(cells); i += len(opt.sizes) {
 		row := cells[i : i+len(opt.sizes)]
 		name := row[0].caseName
@@ -98,4 +90,21 @@ func writeTruth(w io.Writer, opt options, cases []scm.Case, truths [][]scm.Truth
 			fmt.Fprintf(w, " %.5f |\n", se)
 		}
 	}
+}
+
+// writeSizeHeader writes a Markdown table header: case, the second column,
+// one column per size, then the extra columns, and the separator line.
+func writeSizeHeader(w io.Writer, second string, sizes []int, extra ...string) {
+	fmt.Fprintf(w, "| case | %s |", second)
+	for _, n := range sizes {
+		fmt.Fprintf(w, " n = %d |", n)
+	}
+	for _, e := range extra {
+		fmt.Fprintf(w, " %s |", e)
+	}
+	fmt.Fprint(w, "\n|---|---|")
+	for range len(sizes) + len(extra) {
+		fmt.Fprint(w, "---|")
+	}
+	fmt.Fprint(w, "\n")
 }
