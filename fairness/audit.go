@@ -2,7 +2,6 @@ package fairness
 
 import (
 	"errors"
-	"fmt"
 	"math"
 
 	"github.com/gapwise/gapwise/attribution"
@@ -91,10 +90,8 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		r.Settings.Intervals = &IntervalSettings{Replicates: boot.Replicates, Level: boot.Level, KeepRatios: boot.KeepRatios, Failed: boot.Failed}
 	}
 	r.Details = Describe(d, spec.Threshold, spec.ECEBins)
-	r.Warnings = Warnings(r)
-	if boot != nil && boot.Failed > 0 {
-		r.Warnings = append(r.Warnings, fmt.Sprintf("%d of %d bootstrap replicates could not be computed (e.g. a metric without a value in a resample); the intervals rest on the rest", boot.Failed, boot.Replicates))
-	}
+	r.Warnings = Warnings(r) // after Settings.Intervals, whose failed replicates it reports
+	setReliability(r)
 	r.Assumptions = Assumptions(spec.ScoreIsNode(), spec.Synthetic)
 	return r, nil
 }
@@ -171,7 +168,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		Metrics:     []MetricResult{},
 		Mechanisms:  []MechanismResult{},
 		Weights:     []WeightSide{},
-		Warnings:    []string{},
+		Warnings:    []Warning{},
 		Assumptions: []string{},
 	}
 	columns := map[string][]string{}

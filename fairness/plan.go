@@ -24,7 +24,7 @@ type PlanInfo struct {
 	Classifier string
 	Learners   []string // candidate learners per mechanism
 	Folds      int
-	Warnings   []string // problems visible before fitting, e.g. dropped rows
+	Warnings   []Warning // problems visible before fitting, e.g. dropped rows
 }
 
 // PlanNode is one mechanism of the plan.

@@ -36,7 +36,8 @@ title: test
 		t.Fatal(err)
 	}
 	if info.Features != 6 || info.Groups.NReference != 2 || info.Groups.NComparison != 2 || info.Groups.DroppedReference != 1 ||
-		!info.Synthetic || info.Title != "test" || len(info.Warnings) != 1 || !strings.Contains(info.Warnings[0], "dropped") {
+		!info.Synthetic || info.Title != "test" || len(info.Warnings) != 1 || !strings.Contains(info.Warnings[0].Message, "dropped") ||
+		info.Warnings[0].Kind != KindRowsDropped {
 		t.Errorf("plan %+v", info)
 	}
 	wantNodes := []PlanNode{

@@ -18,12 +18,14 @@ type Result struct {
 	Mechanisms []MechanismResult `json:"mechanisms"`
 	// Weights describes, per side of estimation used, the weights that
 	// emulate the hybrid distributions.
-	Weights     []WeightSide `json:"weights"`
-	Warnings    []string     `json:"warnings"`
-	Assumptions []string     `json:"assumptions"`
-	Synthetic   bool         `json:"synthetic,omitempty"` // data is invented (the demo)
-	Inputs      InputInfo    `json:"inputs"`
-	Details     *Details     `json:"details,omitempty"` // per-group descriptions for the report
+	Weights []WeightSide `json:"weights"`
+	// Warnings lists the problems a reader should know about (see
+	// Warnings for the order, Warning for the fields).
+	Warnings    []Warning `json:"warnings"`
+	Assumptions []string  `json:"assumptions"`
+	Synthetic   bool      `json:"synthetic,omitempty"` // data is invented (the demo)
+	Inputs      InputInfo `json:"inputs"`
+	Details     *Details  `json:"details,omitempty"` // per-group descriptions for the report
 }
 
 // ToolInfo names the program that produced the result.
@@ -162,6 +164,9 @@ type MechanismResult struct {
 	// log-ratio was clipped (clip_ratios) on each side.
 	ClippedReference  int `json:"clipped_reference"`
 	ClippedComparison int `json:"clipped_comparison"`
+	// Reliability is the verdict on this mechanism's contributions from
+	// the warnings that name its node.
+	Reliability Reliability `json:"reliability"`
 }
 
 // WeightSide summarises the importance weights of one side of estimation.

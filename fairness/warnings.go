@@ -8,11 +8,15 @@ import (
 	"strings"
 )
 
-// Thresholds above which Warnings speaks up.
+// Thresholds above which Warnings speaks up. They live here only: the
+// reports judge nothing themselves, they read the warnings and the
+// Reliability verdicts (and quote WarnESSShare in their wording).
 const (
 	// WarnESSShare and WarnESSMin: a mechanism's effective sample size
 	// n_eff = (Σw)²/Σw² below WarnESSShare·n_reference or below WarnESSMin
-	// records.
+	// records: with n_eff under a tenth of n, a few records carry the
+	// estimate. Both cut-offs are common practice in importance sampling
+	// diagnostics, not derived bounds.
 	WarnESSShare = 0.10
 	WarnESSMin   = 100
 	// WarnMaxShare: one record carries more than this share of Σw.
@@ -37,77 +41,132 @@ const (
 	WarnStratumHigh = 1.25
 )
 
-// Warnings lists, as plain sentences, the problems a reader of r should
-// know about, in a fixed order: dropped rows; then per mechanism in graph
-// order its overlap (AUC, extreme ratios), effective sample size, largest
-// weight share, mean ratio overall and per stratum of the parents, and
-// clipping; then per side of estimation its worst hybrid; then per metric
-// its effective records and a large residual.
+// Warnings lists the problems a reader of r should know about, in a fixed
+// order: dropped rows; then per mechanism in graph order its overlap (AUC,
+// extreme ratios), effective sample size, heavy tail, largest weight
+// share, mean ratio overall and per stratum of the parents, and clipping;
+// then per side of estimation its worst hybrid; then per metric its
+// effective records and a large residual; last, failed bootstrap
+// replicates (r.Settings.Intervals.Failed). The result is never nil.
 //
 // Effective sample sizes are judged on the side(s) that estimate the
 // hybrids (Settings.EstimateFrom); with both sides, only when both are low,
-// since the combination leans on the better one.
-func Warnings(r *Result) []string {
+// since the combination leans on the better one. Each check's kind and
+// severity are listed with the Kind… constants.
+func Warnings(r *Result) []Warning {
 	out := droppedWarnings(r.Groups)
-	nRef, nCmp := r.Groups.NReference, r.Groups.NComparison
-	side := r.Settings.EstimateFrom
-	low := func(ess float64, n int) bool { return ess < WarnESSShare*float64(n) || ess < WarnESSMin }
 	for _, m := range r.Mechanisms {
-		if m.AUC >= WarnAUC {
-			out = append(out, fmt.Sprintf("the groups are nearly separable on `%s` (out-of-fold AUC %.3f): overlap is poor, so its contribution is unreliable", m.Mechanism, m.AUC))
-		}
-		if w := extremeWarning(m, side); w != "" {
-			out = append(out, w)
-		}
-		refLow, cmpLow := low(m.ESS, nRef), low(m.ComparisonESS, nCmp)
-		switch {
-		case side == "comparison" && cmpLow:
-			out = append(out, fmt.Sprintf("the contribution of `%s` rests on %s effective comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp)))
-		case side == "both" && refLow && cmpLow:
-			out = append(out, fmt.Sprintf("the contribution of `%s` rests on %s effective reference records out of %s and %s comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef), thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp)))
-		case side != "comparison" && side != "both" && refLow:
-			out = append(out, fmt.Sprintf("the contribution of `%s` rests on %s effective records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef)))
-		}
-		if w := tailWarning(m, side); w != "" {
-			out = append(out, w)
-		}
-		if m.MaxShare > WarnMaxShare {
-			out = append(out, fmt.Sprintf("a single record carries %.1f%% of the weight for `%s`; its contribution hinges on a few records", 100*m.MaxShare, m.Node))
-		}
-		if m.MeanRatio < WarnMeanRatioLow || m.MeanRatio > WarnMeanRatioHigh {
-			out = append(out, fmt.Sprintf("the density ratios of `%s` average %.3f over the reference records instead of 1; its classifiers may be miscalibrated", m.Mechanism, m.MeanRatio))
-		}
-		if m.WorstStratumMean < WarnStratumLow || m.WorstStratumMean > WarnStratumHigh {
-			out = append(out, fmt.Sprintf("the density ratios of `%s` average %.3f in one fifth of the reference records (grouped by its parents) instead of 1; its classifiers may misjudge how the parents differ", m.Mechanism, m.WorstStratumMean))
-		}
-		if m.ClippedReference+m.ClippedComparison > 0 {
-			out = append(out, fmt.Sprintf("the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", m.Node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios))
-		}
+		out = append(out, mechanismWarnings(r, m)...)
 	}
-	if side != "both" {
-		for _, w := range r.Weights {
-			if low(w.Worst.ESS, w.Records) {
-				out = append(out, fmt.Sprintf("on the %s records, the hybrid with the comparison group's mechanisms for %s rests on %s effective records out of %s; contributions that use it are unreliable", w.Side, nodeList(w.Worst.ComparisonNodes), thousands(int(math.Round(w.Worst.ESS))), thousands(w.Records)))
-			}
-		}
-	}
+	out = append(out, hybridWarnings(r)...)
 	for _, mr := range r.Metrics {
-		if mr.EffectiveRecords < WarnESSMin {
-			what := "the reweighted comparison group"
-			switch side {
-			case "comparison":
-				what = "the reweighted reference group"
-			case "both":
-				what = "the combined estimate"
-			}
-			out = append(out, fmt.Sprintf("for %s, %s rests on %s effective records; the estimated gap is unreliable", mr.Metric, what, thousands(int(math.Round(mr.EffectiveRecords)))))
-		}
-		if math.Abs(mr.Residual) > WarnResidualShare*math.Abs(mr.Gap) && math.Abs(mr.Residual) > WarnResidualMin {
-			out = append(out, fmt.Sprintf("for %s the contributions add up to %.4f but the observed gap is %.4f; the residual %.4f is large, so part of the gap is not explained by the estimated mechanisms", mr.Metric, mr.Estimated, mr.Gap, mr.Residual))
+		out = append(out, metricWarnings(mr, r.Settings.EstimateFrom)...)
+	}
+	if iv := r.Settings.Intervals; iv != nil && iv.Failed > 0 {
+		out = append(out, Warning{Kind: KindBootstrapFailures, Severity: SeverityNote, Nodes: []string{},
+			Message: fmt.Sprintf("%d of %d bootstrap replicates could not be computed (e.g. a metric without a value in a resample); the intervals rest on the rest", iv.Failed, iv.Replicates)})
+	}
+	return out
+}
+
+// lowESS reports whether an effective sample size ess out of n records is
+// too low: below WarnESSShare·n or below WarnESSMin.
+func lowESS(ess float64, n int) bool {
+	return ess < WarnESSShare*float64(n) || ess < WarnESSMin
+}
+
+// mechanismWarnings runs the checks of one mechanism, each warning naming
+// its node.
+func mechanismWarnings(r *Result, m MechanismResult) []Warning {
+	var out []Warning
+	add := func(kind WarningKind, sev Severity, format string, args ...any) {
+		out = append(out, Warning{Kind: kind, Severity: sev, Nodes: []string{m.Node}, Message: fmt.Sprintf(format, args...)})
+	}
+	side := r.Settings.EstimateFrom
+	if m.AUC >= WarnAUC {
+		add(KindPoorOverlap, SeverityUnreliable, "the groups are nearly separable on `%s` (out-of-fold AUC %.3f): overlap is poor, so its contribution is unreliable", m.Mechanism, m.AUC)
+	}
+	if msg := extremeWarning(m, side); msg != "" {
+		add(KindExtremeWeights, SeverityCaution, "%s", msg)
+	}
+	if msg := essWarning(r, m); msg != "" {
+		add(KindLowEffectiveRecords, SeverityUnreliable, "%s", msg)
+	}
+	if msg, sev := tailWarning(m, side); msg != "" {
+		add(KindHeavyTail, sev, "%s", msg)
+	}
+	if m.MaxShare > WarnMaxShare {
+		add(KindDominantRecord, SeverityCaution, "a single record carries %.1f%% of the weight for `%s`; its contribution hinges on a few records", 100*m.MaxShare, m.Node)
+	}
+	if m.MeanRatio < WarnMeanRatioLow || m.MeanRatio > WarnMeanRatioHigh {
+		add(KindMeanRatioOff, SeverityCaution, "the density ratios of `%s` average %.3f over the reference records instead of 1; its classifiers may be miscalibrated", m.Mechanism, m.MeanRatio)
+	}
+	if m.WorstStratumMean < WarnStratumLow || m.WorstStratumMean > WarnStratumHigh {
+		add(KindStratumRatioOff, SeverityCaution, "the density ratios of `%s` average %.3f in one fifth of the reference records (grouped by its parents) instead of 1; its classifiers may misjudge how the parents differ", m.Mechanism, m.WorstStratumMean)
+	}
+	if m.ClippedReference+m.ClippedComparison > 0 {
+		add(KindRatiosClipped, SeverityCaution, "the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", m.Node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios)
+	}
+	return out
+}
+
+// essWarning speaks up when the effective sample size of a mechanism's
+// weights is low (lowESS) on the side(s) that estimate the hybrids; with
+// both sides, only when both are low.
+func essWarning(r *Result, m MechanismResult) string {
+	nRef, nCmp := r.Groups.NReference, r.Groups.NComparison
+	refLow, cmpLow := lowESS(m.ESS, nRef), lowESS(m.ComparisonESS, nCmp)
+	side := r.Settings.EstimateFrom
+	switch {
+	case side == "comparison" && cmpLow:
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp))
+	case side == "both" && refLow && cmpLow:
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective reference records out of %s and %s comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef), thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp))
+	case side != "comparison" && side != "both" && refLow:
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef))
+	}
+	return ""
+}
+
+// hybridWarnings speaks up, per side of estimation, when the worst hybrid
+// rests on too few effective records (lowESS); not with both sides, whose
+// combination leans on the better side per coalition. Each warning names
+// the nodes in comparison form in that hybrid.
+func hybridWarnings(r *Result) []Warning {
+	var out []Warning
+	if r.Settings.EstimateFrom == "both" {
+		return out
+	}
+	for _, w := range r.Weights {
+		if lowESS(w.Worst.ESS, w.Records) {
+			out = append(out, Warning{Kind: KindWorstHybrid, Severity: SeverityUnreliable, Nodes: append([]string{}, w.Worst.ComparisonNodes...),
+				Message: fmt.Sprintf("on the %s records, the hybrid with the comparison group's mechanisms for %s rests on %s effective records out of %s; contributions that use it are unreliable", w.Side, nodeList(w.Worst.ComparisonNodes), thousands(int(math.Round(w.Worst.ESS))), thousands(w.Records))})
 		}
 	}
-	if out == nil {
-		out = []string{}
+	return out
+}
+
+// metricWarnings runs the checks of one metric: fewer than WarnESSMin
+// effective records behind its far end, and a residual above both
+// WarnResidualShare·|gap| and WarnResidualMin. Each warning names the
+// metric.
+func metricWarnings(mr MetricResult, side string) []Warning {
+	var out []Warning
+	add := func(kind WarningKind, sev Severity, msg string) {
+		out = append(out, Warning{Kind: kind, Severity: sev, Metric: mr.Metric, Nodes: []string{}, Message: msg})
+	}
+	if mr.EffectiveRecords < WarnESSMin {
+		what := "the reweighted comparison group"
+		switch side {
+		case "comparison":
+			what = "the reweighted reference group"
+		case "both":
+			what = "the combined estimate"
+		}
+		add(KindMetricRecords, SeverityUnreliable, fmt.Sprintf("for %s, %s rests on %s effective records; the estimated gap is unreliable", mr.Metric, what, thousands(int(math.Round(mr.EffectiveRecords)))))
+	}
+	if math.Abs(mr.Residual) > WarnResidualShare*math.Abs(mr.Gap) && math.Abs(mr.Residual) > WarnResidualMin {
+		add(KindLargeResidual, SeverityCaution, fmt.Sprintf("for %s the contributions add up to %.4f but the observed gap is %.4f; the residual %.4f is large, so part of the gap is not explained by the estimated mechanisms", mr.Metric, mr.Estimated, mr.Gap, mr.Residual))
 	}
 	return out
 }
@@ -124,13 +183,14 @@ func nodeList(nodes []string) string {
 	return strings.Join(q, ", ")
 }
 
-// droppedWarnings reports rows dropped for missing values.
-func droppedWarnings(g GroupInfo) []string {
+// droppedWarnings reports rows dropped for missing values; never nil.
+func droppedWarnings(g GroupInfo) []Warning {
 	if g.DroppedReference == 0 && g.DroppedComparison == 0 {
-		return []string{}
+		return []Warning{}
 	}
-	return []string{fmt.Sprintf("%s rows of group %q and %s rows of group %q were dropped for missing values; the audit describes the remaining records only",
-		thousands(g.DroppedReference), g.Reference, thousands(g.DroppedComparison), g.Comparison)}
+	return []Warning{{Kind: KindRowsDropped, Severity: SeverityNote, Nodes: []string{},
+		Message: fmt.Sprintf("%s rows of group %q and %s rows of group %q were dropped for missing values; the audit describes the remaining records only",
+			thousands(g.DroppedReference), g.Reference, thousands(g.DroppedComparison), g.Comparison)}}
 }
 
 // thousands formats n with a comma between groups of three digits.
@@ -156,7 +216,9 @@ func thousands(n int) string {
 // tailWarning speaks up when the weights of a mechanism have a heavy right
 // tail (Pareto k̂ above attribution.TailInfiniteVariance) on the side(s)
 // that estimate the hybrids; with both sides, only when both are heavy.
-func tailWarning(m MechanismResult, side string) string {
+// Its severity is SeverityUnreliable above attribution.TailUnreliable and
+// SeverityCaution below.
+func tailWarning(m MechanismResult, side string) (string, Severity) {
 	heavy := func(k *float64) bool { return k != nil && *k > attribution.TailInfiniteVariance }
 	ref, cmp := heavy(m.TailShape), heavy(m.ComparisonTailShape)
 	var k float64
@@ -169,13 +231,13 @@ func tailWarning(m MechanismResult, side string) string {
 	case side != "comparison" && side != "both" && ref:
 		k, where = *m.TailShape, "reference"
 	default:
-		return ""
+		return "", ""
 	}
-	verdict := "their variance is infinite, so the estimate converges slowly and its interval may be too narrow"
+	verdict, sev := "their variance is infinite, so the estimate converges slowly and its interval may be too narrow", SeverityCaution
 	if k > attribution.TailUnreliable {
-		verdict = "the estimate is unreliable at this sample size"
+		verdict, sev = "the estimate is unreliable at this sample size", SeverityUnreliable
 	}
-	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f): %s; consider estimate_from: both", m.Mechanism, where, k, attribution.TailInfiniteVariance, verdict)
+	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f): %s; consider estimate_from: both", m.Mechanism, where, k, attribution.TailInfiniteVariance, verdict), sev
 }
 
 // extremeWarning speaks up when more than WarnExtremeShare of the records

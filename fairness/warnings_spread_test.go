@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -61,16 +62,31 @@ func TestWarningsOnSpreadShift(t *testing.T) {
 			t.Fatal(err)
 		}
 		flagged := false
+		var all []string
 		for _, w := range r.Warnings {
+			all = append(all, w.Message)
 			// Reliability warnings only: the share of extreme ratios also
 			// counts ratios near 0, which are harmless when reweighting
 			// the reference records.
-			if strings.Contains(w, "`x") && (strings.Contains(w, "heavy tail") || strings.Contains(w, "effective") || strings.Contains(w, "single record")) {
-				flagged = true
+			switch w.Kind {
+			case KindHeavyTail, KindLowEffectiveRecords, KindDominantRecord, KindWorstHybrid:
+				if slices.Contains(w.Nodes, "x") {
+					flagged = true
+				}
 			}
 		}
 		if flagged != tc.want {
-			t.Errorf("σ_cmp = %v: weight warning for x = %v, want %v; warnings:\n%s\nmechanisms: %+v", tc.sigma, flagged, tc.want, strings.Join(r.Warnings, "\n"), r.Mechanisms)
+			t.Errorf("σ_cmp = %v: weight warning for x = %v, want %v; warnings:\n%s\nmechanisms: %+v", tc.sigma, flagged, tc.want, strings.Join(all, "\n"), r.Mechanisms)
+		}
+		// Run sets every verdict; the one on x follows its warnings:
+		// flagged means at least a caution.
+		for _, m := range r.Mechanisms {
+			if m.Reliability.Verdict == "" || m.Reliability.Kinds == nil {
+				t.Errorf("σ_cmp = %v: Run left the reliability of %s unset", tc.sigma, m.Node)
+			}
+		}
+		if x := r.Mechanisms[1]; x.Node != "x" || (tc.want && !x.Reliability.Verdict.AtLeast(SeverityCaution)) {
+			t.Errorf("σ_cmp = %v: mechanism %s has verdict %q (%v), want at least caution", tc.sigma, x.Node, x.Reliability.Verdict, x.Reliability.Kinds)
 		}
 	}
 }

@@ -17,18 +17,23 @@ func TestThousands(t *testing.T) {
 // healthy is a mechanism that triggers no warning with 12,000 reference records.
 var healthy = MechanismResult{Node: "age", Mechanism: "age", AUC: 0.6, ESS: 9000, MaxShare: 0.001, MeanRatio: 1.01, WorstStratumMean: 1.05, ComparisonESS: 8000}
 
-func TestWarnings(t *testing.T) {
-	base := func() *Result {
-		return &Result{
-			Groups:     GroupInfo{Reference: "north", Comparison: "south", NReference: 12000, NComparison: 9000},
-			Mechanisms: []MechanismResult{healthy},
-			Metrics:    []MetricResult{{Metric: "fnr", Gap: 0.09, Estimated: 0.08, Residual: 0.01, EffectiveRecords: 2500}},
-			Settings:   Settings{EstimateFrom: "reference"},
-			Weights: []WeightSide{
-				{Side: "reference", Records: 12000, Worst: HybridWeight{ComparisonNodes: []string{"age"}, ESS: 9000}},
-			},
-		}
+// warningsBase is a Result that triggers no warning: one healthy
+// mechanism, one metric with ample effective records and a small residual,
+// estimated from the reference records.
+func warningsBase() *Result {
+	return &Result{
+		Groups:     GroupInfo{Reference: "north", Comparison: "south", NReference: 12000, NComparison: 9000},
+		Mechanisms: []MechanismResult{healthy},
+		Metrics:    []MetricResult{{Metric: "fnr", Gap: 0.09, Estimated: 0.08, Residual: 0.01, EffectiveRecords: 2500}},
+		Settings:   Settings{EstimateFrom: "reference"},
+		Weights: []WeightSide{
+			{Side: "reference", Records: 12000, Worst: HybridWeight{ComparisonNodes: []string{"age"}, ESS: 9000}},
+		},
 	}
+}
+
+func TestWarnings(t *testing.T) {
+	base := warningsBase
 	tests := []struct {
 		name   string
 		change func(r *Result)
@@ -85,11 +90,11 @@ func TestWarnings(t *testing.T) {
 			r := base()
 			tc.change(r)
 			got := Warnings(r)
-			if len(got) != len(tc.want) {
+			if len(got) != len(tc.want) || got == nil {
 				t.Fatalf("got %d warnings %q, want %d", len(got), got, len(tc.want))
 			}
 			for i, w := range tc.want {
-				if !strings.Contains(got[i], w) {
+				if !strings.Contains(got[i].Message, w) {
 					t.Errorf("warning %d %q lacks %q", i, got[i], w)
 				}
 			}

@@ -45,9 +45,17 @@ func handResult() *fairness.Result {
 			{Node: "anaemia", Mechanism: "anaemia | age", Parents: []string{"age"}, Columns: []string{"anaemia"}, Classifier: "linear", ParentClassifier: "linear", AUC: 0.55, ESS: 1050, ESSShare: 0.875, MaxShare: 0.003, MeanRatio: 0.998},
 			{Node: "hb", Mechanism: "hb | anaemia", Parents: []string{"anaemia"}, Columns: []string{"hb"}, Classifier: "quadratic", ParentClassifier: "linear", AUC: 0.81, ESS: 400, ESSShare: 0.333, MaxShare: 0.02, MeanRatio: 1.012},
 			{Node: "ferritin", Mechanism: "ferritin | anaemia, hb", Parents: []string{"anaemia", "hb"}, Columns: []string{"ferritin"}, Classifier: "linear", ParentClassifier: "quadratic", AUC: 0.52, ESS: 96, ESSShare: 0.08, MaxShare: 0.11, MeanRatio: 0.97,
-				Losses: []fairness.LearnerLoss{{Classifier: "linear", LogLoss: 0.689}, {Classifier: "quadratic", LogLoss: 0.691}}},
+				Losses:      []fairness.LearnerLoss{{Classifier: "linear", LogLoss: 0.689}, {Classifier: "quadratic", LogLoss: 0.691}},
+				Reliability: fairness.Reliability{Verdict: fairness.SeverityUnreliable, Kinds: []fairness.WarningKind{fairness.KindLowEffectiveRecords, fairness.KindDominantRecord}}},
 		},
-		Warnings:    []string{"mechanism ferritin: largest weight carries 11% of the total"},
+		// ferritin's ESS of 96 out of 1200 records and its 11% largest
+		// weight share are what fairness.Warnings flags.
+		Warnings: []fairness.Warning{
+			{Kind: fairness.KindLowEffectiveRecords, Severity: fairness.SeverityUnreliable, Nodes: []string{"ferritin"},
+				Message: "the contribution of `ferritin` rests on 96 effective records out of 1,200; treat it as unreliable"},
+			{Kind: fairness.KindDominantRecord, Severity: fairness.SeverityCaution, Nodes: []string{"ferritin"},
+				Message: "mechanism ferritin: largest weight carries 11% of the total"},
+		},
 		Assumptions: []string{"The causal graph is right enough.", "There is no hidden confounding."},
 		Synthetic:   true,
 		Inputs:      fairness.InputInfo{SpecFile: "audit.yaml", SpecSHA256: "ab12", DataFile: "cohort.csv", DataSHA256: "cd34"},

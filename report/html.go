@@ -168,7 +168,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		EChartsJS:       template.JS(echartsJS),
 		ReportJS:        template.JS(reportJS),
 		CSS:             template.CSS(reportCSS),
-		LowESSShare:     fmt.Sprintf("%.0f%%", 100*LowESSShare),
+		LowESSShare:     fmt.Sprintf("%.0f%%", 100*fairness.WarnESSShare),
 		DrillNodes:      drillNodes,
 	}
 	if res.Inputs.DataFile == "" {
@@ -240,7 +240,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		p.Mechanisms = append(p.Mechanisms, mechanismDiagnostics(m, flags[m.Node]))
 	}
 	for _, w := range res.Warnings {
-		p.Warnings = append(p.Warnings, codeSpans(w))
+		p.Warnings = append(p.Warnings, codeSpans(w.Message))
 	}
 	if d := res.Details; d != nil {
 		p.HasDetails = true

@@ -205,7 +205,7 @@ func TestWriteHTMLNoNetwork(t *testing.T) {
 func TestWriteHTMLEscapes(t *testing.T) {
 	page := renderHTML(t, false, func(r *fairness.Result) {
 		r.Groups.Comparison = `<img src=x onerror=alert(1)>`
-		r.Warnings = append(r.Warnings, "`</script><b>x`")
+		r.Warnings = append(r.Warnings, fairness.Warning{Message: "`</script><b>x`"})
 	})
 	if strings.Contains(page, "<img src=x") || strings.Contains(page, "</script><b>") {
 		t.Error("unescaped markup from the Result reached the page")

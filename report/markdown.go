@@ -71,7 +71,7 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 	if len(res.Warnings) > 0 {
 		p("### Warnings\n\n")
 		for _, w := range res.Warnings {
-			p("- %s\n", mdText(w))
+			p("- %s\n", mdText(w.Message))
 		}
 		p("\n")
 	}

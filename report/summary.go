@@ -162,35 +162,6 @@ func trimNegZero(s string) string {
 	return s
 }
 
-// LowESSShare is the share of the reference group's size below which a
-// mechanism's effective sample size n_eff = (Σw)²/Σw² marks its
-// contributions as unreliable: with n_eff under a tenth of n, a few records
-// carry the estimate. The cut-off is common practice in importance
-// sampling diagnostics, not a derived bound.
-const LowESSShare = 0.1
-
-// unreliable returns, per mechanism node, why its contributions should be
-// read with caution: its effective sample size is low, or a warning of the
-// Result names it. Warnings name a mechanism by quoting its node or its
-// label in backticks (`hb` or `hb | anaemia`), as fairness.Warnings does.
-// Nodes absent from the map are not flagged.
-func unreliable(res *fairness.Result) map[string]string {
-	out := map[string]string{}
-	for _, m := range res.Mechanisms {
-		if m.ESSShare > 0 && m.ESSShare < LowESSShare {
-			out[m.Node] = fmt.Sprintf("effective sample size %s is %.0f%% of the reference group", formatCount(math.Round(m.ESS)), 100*m.ESSShare)
-			continue
-		}
-		for _, w := range res.Warnings {
-			if strings.Contains(w, "`"+m.Node+"`") || (m.Mechanism != "" && strings.Contains(w, "`"+m.Mechanism+"`")) {
-				out[m.Node] = "a warning names it"
-				break
-			}
-		}
-	}
-	return out
-}
-
 // mechanismPhrase describes a mechanism in words: the distribution of a
 // root node, or a node given its parents; the label is read as how often
 // it occurs.

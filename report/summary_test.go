@@ -2,8 +2,11 @@ package report
 
 import (
 	"math"
+	"reflect"
 	"strings"
 	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
 )
 
 // The expected strings are the fixture's numbers rounded by hand (analytic
@@ -50,9 +53,9 @@ func TestSummary(t *testing.T) {
 			t.Errorf("summary lacks %q:\n%s", want, got)
 		}
 	}
-	// ferritin's contribution rounds to zero, so it is not named; its low
-	// ESS share (0.08 < LowESSShare) flags it in the Brier summary, where
-	// it is named.
+	// ferritin's contribution rounds to zero, so it is not named; its
+	// verdict (unreliable, with low_effective_records) flags it in the
+	// Brier summary, where it is named.
 	if strings.Contains(got, "ferritin") {
 		t.Errorf("summary names a negligible contribution:\n%s", got)
 	}
@@ -75,9 +78,65 @@ func TestUnreliable(t *testing.T) {
 		t.Fatalf("unreliable = %v, want only ferritin with its 8%% ESS share", got)
 	}
 	res.Mechanisms[3].ESSShare = 0.5
-	res.Warnings = []string{"the density ratios of `hb | anaemia` average 1.200", "`hbx` and hb are not quoted nodes", "`anaemia | age, sex` is not a label in the graph"}
+	res.Mechanisms[3].Reliability = fairness.Reliability{Verdict: fairness.VerdictSound, Kinds: []fairness.WarningKind{}}
+	res.Mechanisms[2].Reliability = fairness.Reliability{Verdict: fairness.SeverityCaution, Kinds: []fairness.WarningKind{fairness.KindMeanRatioOff}}
+	res.Warnings = []fairness.Warning{
+		{Kind: fairness.KindMeanRatioOff, Severity: fairness.SeverityCaution, Nodes: []string{"hb"}, Message: "the density ratios of `hb | anaemia` average 1.200"},
+		{Kind: fairness.KindRowsDropped, Severity: fairness.SeverityNote, Nodes: []string{}, Message: "`hbx` and hb are not quoted nodes"},
+		{Kind: fairness.KindRowsDropped, Severity: fairness.SeverityNote, Nodes: []string{}, Message: "`anaemia | age, sex` is not a label in the graph"},
+	}
 	got = unreliable(res)
 	if _, ok := got["hb"]; !ok || len(got) != 1 {
-		t.Fatalf("unreliable = %v, want only hb (quoted by its label in a warning)", got)
+		t.Fatalf("unreliable = %v, want only hb (its verdict is a caution)", got)
+	}
+}
+
+// TestUnreliableFollowsVerdict: the report flags a mechanism by its
+// fairness.Reliability verdict alone (caution or worse), never by finding
+// its name in a warning's sentence nor by its own reading of the effective
+// sample size. The reasons are the fixture's numbers rounded by hand.
+func TestUnreliableFollowsVerdict(t *testing.T) {
+	rel := func(v fairness.Severity, kinds ...fairness.WarningKind) fairness.Reliability {
+		return fairness.Reliability{Verdict: v, Kinds: kinds}
+	}
+	sound := rel(fairness.VerdictSound)
+	tests := []struct {
+		name   string
+		change func(r *fairness.Result)
+		want   map[string]string
+	}{
+		{"names in a sentence do not flag", func(r *fairness.Result) {
+			r.Mechanisms[3].Reliability = sound
+			r.Warnings = []fairness.Warning{{Kind: fairness.KindLargeResidual, Severity: fairness.SeverityCaution, Metric: "fnr", Nodes: []string{},
+				Message: "for fnr the residual is large; `age`, `anaemia | age` and `hb` are named but not concerned"}}
+		}, map[string]string{}},
+		{"a verdict flags without a sentence naming it", func(r *fairness.Result) {
+			r.Mechanisms[3].Reliability = sound
+			r.Mechanisms[1].Reliability = rel(fairness.SeverityUnreliable, fairness.KindWorstHybrid)
+			r.Warnings = []fairness.Warning{}
+		}, map[string]string{"anaemia": "a warning names it"}},
+		{"a note does not flag", func(r *fairness.Result) {
+			r.Mechanisms[3].Reliability = rel(fairness.SeverityNote, fairness.KindRowsDropped)
+		}, map[string]string{}},
+		{"a low ESS share alone does not flag", func(r *fairness.Result) {
+			r.Mechanisms[3].Reliability = sound // e.g. estimate_from both, the comparison side is fine
+			r.Settings.EstimateFrom = "both"
+		}, map[string]string{}},
+		{"few effective records, share not low", func(r *fairness.Result) {
+			r.Mechanisms[3].ESS, r.Mechanisms[3].ESSShare = 90, 0.3 // below 100 records, 30% of the group
+		}, map[string]string{"ferritin": "a warning names it"}},
+		{"low share on the comparison side", func(r *fairness.Result) {
+			r.Settings.EstimateFrom = "comparison"
+			r.Mechanisms[3].Reliability = rel(fairness.SeverityUnreliable, fairness.KindLowEffectiveRecords)
+		}, map[string]string{"ferritin": "effective sample size 96 is 8% of the reference group"}},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			r := handResult()
+			tc.change(r)
+			if got := unreliable(r); !reflect.DeepEqual(got, tc.want) {
+				t.Errorf("unreliable = %v, want %v", got, tc.want)
+			}
+		})
 	}
 }

@@ -28,7 +28,7 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 		tw.metric(res, m)
 	}
 	tw.diagnostics(res)
-	tw.list("Warnings", res.Warnings, "none")
+	tw.list("Warnings", messages(res.Warnings), "none")
 	tw.list("Assumptions and cautions", res.Assumptions, "")
 	tw.inputs(res)
 	return bw.Flush()

@@ -1,0 +1,113 @@
+package fairness
+
+// Warning is one problem a reader of a Result should know about, in a form
+// both people and programs can read. Message is the sentence the reports
+// print; the other fields say what it is about, so that a program never
+// has to parse the sentence.
+type Warning struct {
+	// Kind names the check that spoke up (one of the Kind… constants).
+	Kind WarningKind `json:"kind"`
+	// Severity says how much the warning should weigh on the numbers it
+	// concerns.
+	Severity Severity `json:"severity"`
+	// Metric is the metric the warning concerns, for the metric-level
+	// kinds (KindMetricRecords, KindLargeResidual); "" otherwise.
+	Metric string `json:"metric,omitempty"`
+	// Nodes lists, in graph order, the nodes whose mechanisms the warning
+	// concerns: the mechanism checked for the mechanism-level kinds, the
+	// nodes in comparison form for KindWorstHybrid; empty (never nil) for
+	// warnings about the data, a metric or the bootstrap.
+	Nodes []string `json:"nodes"`
+	// Message is the warning as a sentence, nodes and mechanisms quoted in
+	// backticks.
+	Message string `json:"message"`
+}
+
+// String returns the warning's sentence.
+func (w Warning) String() string { return w.Message }
+
+// WarningKind identifies the check behind a Warning. Its values are part
+// of the JSON contract and never change meaning.
+type WarningKind string
+
+// The kinds of warning, in the order Warnings emits them. The severity of
+// each is fixed except for KindHeavyTail.
+const (
+	// KindRowsDropped (note): rows were dropped for missing values.
+	KindRowsDropped WarningKind = "rows_dropped"
+	// KindPoorOverlap (unreliable): the out-of-fold AUC of a mechanism's
+	// group classifier is at least WarnAUC.
+	KindPoorOverlap WarningKind = "poor_overlap"
+	// KindExtremeWeights (caution): more than WarnExtremeShare of the
+	// records that estimate the hybrids carry a weight above 20.
+	KindExtremeWeights WarningKind = "extreme_weights"
+	// KindLowEffectiveRecords (unreliable): a mechanism's effective sample
+	// size is below WarnESSShare of its group or below WarnESSMin records.
+	KindLowEffectiveRecords WarningKind = "low_effective_records"
+	// KindHeavyTail: the Pareto tail shape of a mechanism's weights is
+	// above attribution.TailInfiniteVariance (caution), or above
+	// attribution.TailUnreliable (unreliable).
+	KindHeavyTail WarningKind = "heavy_tail"
+	// KindDominantRecord (caution): one record carries more than
+	// WarnMaxShare of a mechanism's total weight.
+	KindDominantRecord WarningKind = "dominant_record"
+	// KindMeanRatioOff (caution): a mechanism's mean density ratio over the
+	// reference records is outside [WarnMeanRatioLow, WarnMeanRatioHigh].
+	KindMeanRatioOff WarningKind = "mean_ratio_off"
+	// KindStratumRatioOff (caution): the mean ratio in some fifth of the
+	// reference records is outside [WarnStratumLow, WarnStratumHigh].
+	KindStratumRatioOff WarningKind = "stratum_ratio_off"
+	// KindRatiosClipped (caution): clip_ratios clipped some of a
+	// mechanism's log-ratios, pulling its contribution towards zero.
+	KindRatiosClipped WarningKind = "ratios_clipped"
+	// KindWorstHybrid (unreliable): the hybrid with the smallest effective
+	// sample size on one side rests on too few effective records; Nodes
+	// are the nodes in comparison form in that hybrid.
+	KindWorstHybrid WarningKind = "worst_hybrid"
+	// KindMetricRecords (unreliable): the estimate of a metric's far end
+	// rests on fewer than WarnESSMin effective records.
+	KindMetricRecords WarningKind = "metric_effective_records"
+	// KindLargeResidual (caution): a metric's residual exceeds both
+	// WarnResidualShare of its gap and WarnResidualMin.
+	KindLargeResidual WarningKind = "large_residual"
+	// KindBootstrapFailures (note): some bootstrap replicates could not be
+	// computed; the intervals rest on the others.
+	KindBootstrapFailures WarningKind = "bootstrap_failures"
+)
+
+// Severity grades a Warning, and the Reliability verdict on a mechanism.
+// The scale, from least to most serious: SeverityNote, SeverityCaution,
+// SeverityUnreliable. Its values are part of the JSON contract.
+type Severity string
+
+const (
+	// SeverityNote: worth knowing; it does not by itself cast doubt on
+	// the numbers.
+	SeverityNote Severity = "note"
+	// SeverityCaution: the numbers concerned may be biased or less
+	// precise than their intervals suggest; read them with care.
+	SeverityCaution Severity = "caution"
+	// SeverityUnreliable: the numbers concerned should not be relied on.
+	SeverityUnreliable Severity = "unreliable"
+	// VerdictSound is the Reliability verdict on a mechanism that no
+	// warning concerns; no Warning has it as its severity.
+	VerdictSound Severity = "sound"
+)
+
+// rank orders severities: VerdictSound (and anything unknown) 0, then
+// note 1, caution 2, unreliable 3.
+func (s Severity) rank() int {
+	switch s {
+	case SeverityNote:
+		return 1
+	case SeverityCaution:
+		return 2
+	case SeverityUnreliable:
+		return 3
+	}
+	return 0
+}
+
+// AtLeast reports whether s is as serious as t or more, on the scale
+// sound < note < caution < unreliable.
+func (s Severity) AtLeast(t Severity) bool { return s.rank() >= t.rank() }
