@@ -2,6 +2,8 @@ package report
 
 import (
 	"bytes"
+	"math"
+	"regexp"
 	"strings"
 	"testing"
 
@@ -94,5 +96,45 @@ func TestWriteMarkdownTitleAndLevel(t *testing.T) {
 		if !strings.Contains(out, want) {
 			t.Errorf("missing %q in\n%s", want, out)
 		}
+	}
+}
+
+// TestHybridRows: one row per side and hybrid (farthest, then worst) with
+// the share ESS / records done by hand (300/1200 = 0.25, 240/1200 = 0.2,
+// 500/1100, 450/1100), no share for a side without records, and partial
+// set by the comparison side's partial search.
+func TestHybridRows(t *testing.T) {
+	res := handResult()
+	withDiagnostics(res)
+	rows, partial := hybridRows(res)
+	want := []struct {
+		side, which string
+		nodes       int
+		ess, share  float64
+	}{
+		{"reference", "farthest", 4, 300, 0.25}, {"reference", "worst", 2, 240, 0.2},
+		{"comparison", "farthest", 0, 500, 500.0 / 1100}, {"comparison", "worst", 1, 450, 450.0 / 1100},
+	}
+	if len(rows) != len(want) || !partial {
+		t.Fatalf("rows %+v, partial %v; want %d rows, partial", rows, partial, len(want))
+	}
+	for i, w := range want {
+		r := rows[i]
+		if r.Side != w.side || r.Which != w.which || len(r.Nodes) != w.nodes || r.ESS != w.ess || r.ESSShare == nil || math.Abs(*r.ESSShare-w.share) > 1e-12 {
+			t.Errorf("row %d = %+v, want %+v", i, r, w)
+		}
+	}
+	res.Weights[0].Records, res.Weights[1].AllCoalitions = 0, true
+	rows, partial = hybridRows(res)
+	if rows[0].ESSShare != nil || rows[1].ESSShare != nil || partial {
+		t.Errorf("no records: shares %v %v, partial %v; want none, not partial", rows[0].ESSShare, rows[1].ESSShare, partial)
+	}
+	var b bytes.Buffer
+	if err := WriteText(&b, res); err != nil {
+		t.Fatal(err)
+	}
+	page := diagnostics(res)
+	if !regexp.MustCompile(`farthest +age, anaemia, hb, ferritin +300\.0 +n/a `).MatchString(b.String()) || page.Hybrids[0].ESSShare != "n/a" || page.Hybrids[2].ESSShare != "45.5%" {
+		t.Errorf("text or HTML share of a side without records is not n/a (HTML rows %+v)", page.Hybrids)
 	}
 }

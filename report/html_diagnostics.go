@@ -14,8 +14,8 @@ type candidateRow struct {
 	Chosen                                    bool
 }
 
-// hybridRow describes the weights of one hybrid on one side.
-type hybridRow struct {
+// hybridView is a hybridRow formatted for the page.
+type hybridView struct {
 	Side, Records, Which, Nodes, ESS, ESSShare, MaxShare string
 }
 
@@ -26,7 +26,7 @@ type diagnosticsView struct {
 	HasComparisonESS bool // some mechanism has comparison_ess
 	Clipped          bool // clipping was asked for or happened
 	Candidates       []candidateRow
-	Hybrids          []hybridRow
+	Hybrids          []hybridView
 	HybridPartial    bool // some side's worst hybrid was not searched over all coalitions
 	Effective        []keyValue
 }
@@ -58,21 +58,13 @@ func diagnostics(res *fairness.Result) diagnosticsView {
 				LogLoss: fmt.Sprintf("%.4f", l.LogLoss), OddsCheck: formatDiag(l.OddsCheck), Chosen: l.Classifier == m.Classifier})
 		}
 	}
-	for _, w := range res.Weights {
-		for _, h := range []struct {
-			which string
-			hw    fairness.HybridWeight
-		}{{"farthest", w.Far}, {"worst", w.Worst}} {
-			share := "n/a"
-			if w.Records > 0 {
-				share = fmt.Sprintf("%.1f%%", 100*h.hw.ESS/float64(w.Records))
-			}
-			d.Hybrids = append(d.Hybrids, hybridRow{Side: w.Side, Records: fmt.Sprint(w.Records), Which: h.which,
-				Nodes: nodeList(h.hw.ComparisonNodes), ESS: formatCount(math.Round(h.hw.ESS)), ESSShare: share,
-				MaxShare: fmt.Sprintf("%.2f%%", 100*h.hw.MaxShare)})
-		}
-		d.HybridPartial = d.HybridPartial || !w.AllCoalitions
+	rows, partial := hybridRows(res)
+	for _, h := range rows {
+		d.Hybrids = append(d.Hybrids, hybridView{Side: h.Side, Records: fmt.Sprint(h.Records), Which: h.Which,
+			Nodes: nodeList(h.Nodes), ESS: formatCount(math.Round(h.ESS)), ESSShare: optPercent(h.ESSShare),
+			MaxShare: fmt.Sprintf("%.2f%%", 100*h.MaxShare)})
 	}
+	d.HybridPartial = partial
 	for _, m := range res.Metrics {
 		if m.EffectiveRecords > 0 {
 			d.Effective = append(d.Effective, keyValue{MetricTitle(m.Metric), formatCount(math.Round(m.EffectiveRecords))})

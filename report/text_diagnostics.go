@@ -89,19 +89,9 @@ func (t *textWriter) hybridWeights(res *fairness.Result) {
 	t.line("Hybrid weights (the weights that emulate a mix of the two groups' mechanisms)")
 	tab := textTable{header: []string{"side", "records", "hybrid", "comparison mechanisms", "ESS", "ESS share", "max weight share"},
 		right: []bool{false, true, false, false, true, true, true}}
-	partial := false
-	for _, w := range res.Weights {
-		for _, h := range []struct {
-			name string
-			hw   fairness.HybridWeight
-		}{{"farthest", w.Far}, {"worst", w.Worst}} {
-			share := "n/a"
-			if w.Records > 0 {
-				share = fixed(h.hw.ESS / float64(w.Records))
-			}
-			tab.add(w.Side, fmt.Sprint(w.Records), h.name, nodeList(h.hw.ComparisonNodes), fmt.Sprintf("%.1f", h.hw.ESS), share, fixed(h.hw.MaxShare))
-		}
-		partial = partial || !w.AllCoalitions
+	rows, partial := hybridRows(res)
+	for _, h := range rows {
+		tab.add(h.Side, fmt.Sprint(h.Records), h.Which, nodeList(h.Nodes), fmt.Sprintf("%.1f", h.ESS), optFixed(h.ESSShare), fixed(h.MaxShare))
 	}
 	tab.write(t.w, "  ")
 	t.line("  farthest: the hybrid farthest from the side's own group (all mechanisms in comparison form for the reference side, none for the comparison side).")
