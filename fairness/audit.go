@@ -93,6 +93,9 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	r.Warnings = Warnings(r) // after Settings.Intervals, whose failed replicates it reports
 	setReliability(r)
 	r.Assumptions = Assumptions(spec.ScoreIsNode(), spec.Synthetic)
+	if err := checkFinite(r); err != nil {
+		return nil, err
+	}
 	return r, nil
 }
 

@@ -5,6 +5,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"github.com/gapwise/gapwise/attribution/classify"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -89,6 +90,13 @@ type ColumnDetails struct {
 	SDRef       float64   `json:"sd_reference,omitempty"`    // numeric only
 	SDCmp       float64   `json:"sd_comparison,omitempty"`   // numeric only
 	StdDiff     *float64  `json:"std_diff,omitempty"`
+	// Outlying counts the values of a numeric column, over both groups,
+	// outside its typical range (classify.TypicalRange of the pooled
+	// values), which the logistic learners treat as the range's nearer
+	// edge; Farthest is the most extreme of them. Both are absent when no
+	// value is outlying.
+	Outlying int      `json:"outlying_values,omitempty"`
+	Farthest *float64 `json:"farthest_value,omitempty"`
 }
 
 // Describe computes the Details of ds: per group the confusion counts at
@@ -160,9 +168,77 @@ func describeGroup(ds *Dataset, comparison bool, threshold float64, bins int) Gr
 	return g
 }
 
+// Columns whose largest magnitude exceeds hugeMagnitude are described in
+// units of 2^600 (an exact rescaling), so that spans, sums and squares of
+// finite values stay finite.
+const (
+	hugeMagnitude = 0x1p500
+	hugeUnit      = 0x1p600
+)
+
 // describeNumeric builds the shared-edge histograms and the standardised
-// mean difference of a numeric column.
+// mean difference of a numeric column. A column with a value beyond
+// ±hugeMagnitude is described in units of hugeUnit and the edges, means
+// and standard deviations converted back, so that every number is finite;
+// otherwise the arithmetic is that of describeScaled alone.
 func describeNumeric(name string, ref, cmp []float64, bins int) ColumnDetails {
+	c := describeMagnitude(name, ref, cmp, bins)
+	c.Outlying, c.Farthest = outlying(ref, cmp)
+	return c
+}
+
+// outlying counts the values of ref and cmp outside the typical range of
+// their pooled values and returns the one farthest from that range.
+func outlying(ref, cmp []float64) (int, *float64) {
+	pooled := append(append([]float64(nil), ref...), cmp...)
+	lo, hi := classify.TypicalRange(pooled, nil)
+	n, far, dist := 0, 0.0, 0.0
+	for _, v := range pooled {
+		d := max(lo-v, v-hi)
+		if d > 0 {
+			n++
+			if d >= dist {
+				far, dist = v, d
+			}
+		}
+	}
+	if n == 0 {
+		return 0, nil
+	}
+	return n, &far
+}
+
+// describeMagnitude is describeNumeric without the outlying values.
+func describeMagnitude(name string, ref, cmp []float64, bins int) ColumnDetails {
+	unit := 1.0
+	for _, xs := range [][]float64{ref, cmp} {
+		for _, v := range xs {
+			if math.Abs(v) > hugeMagnitude {
+				unit = hugeUnit
+			}
+		}
+	}
+	if unit == 1 {
+		return describeScaled(name, ref, cmp, bins)
+	}
+	scaled := func(xs []float64) []float64 {
+		out := make([]float64, len(xs))
+		for i, v := range xs {
+			out[i] = v / unit
+		}
+		return out
+	}
+	c := describeScaled(name, scaled(ref), scaled(cmp), bins)
+	for j := range c.Edges {
+		c.Edges[j] *= unit
+	}
+	c.MeanRef, c.MeanCmp = c.MeanRef*unit, c.MeanCmp*unit
+	c.SDRef, c.SDCmp = c.SDRef*unit, c.SDCmp*unit
+	return c
+}
+
+// describeScaled is describeNumeric for a column of moderate magnitude.
+func describeScaled(name string, ref, cmp []float64, bins int) ColumnDetails {
 	c := ColumnDetails{Name: name}
 	lo, hi := math.Inf(1), math.Inf(-1)
 	for _, xs := range [][]float64{ref, cmp} {

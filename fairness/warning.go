@@ -70,6 +70,10 @@ const (
 	// KindLargeResidual (caution): a metric's residual exceeds both
 	// WarnResidualShare of its gap and WarnResidualMin.
 	KindLargeResidual WarningKind = "large_residual"
+	// KindOutlyingValues (note): a numeric graph column has values outside
+	// its typical range (classify.TypicalRange), which the logistic
+	// learners treat as the range's nearer edge; they may be entry errors.
+	KindOutlyingValues WarningKind = "outlying_values"
 	// KindBootstrapFailures (note): some bootstrap replicates could not be
 	// computed; the intervals rest on the others.
 	KindBootstrapFailures WarningKind = "bootstrap_failures"

@@ -51,6 +51,10 @@ func TestWarningFields(t *testing.T) {
 			Warning{KindLargeResidual, SeverityCaution, "fnr", []string{}, "the residual 0.0400 is large"}},
 		{"bootstrap failures", func(r *Result) { r.Settings.Intervals = &IntervalSettings{Replicates: 50, Failed: 3} },
 			Warning{KindBootstrapFailures, SeverityNote, "", []string{}, "3 of 50 bootstrap replicates could not be computed"}},
+		{"outlying values", func(r *Result) {
+			far := 1e5
+			r.Details = &Details{Columns: []ColumnDetails{{Name: "age"}, {Name: "hb", Outlying: 1, Farthest: &far}}}
+		}, Warning{KindOutlyingValues, SeverityNote, "", []string{}, `column "hb" has 1 value far outside the bulk of its values (the farthest is 100000)`}},
 	}
 	seen := map[WarningKind]bool{}
 	for _, tc := range tests {
@@ -73,8 +77,8 @@ func TestWarningFields(t *testing.T) {
 			seen[w.Kind] = true
 		})
 	}
-	if len(seen) != 13 {
-		t.Errorf("the table covers %d kinds, want all 13", len(seen))
+	if len(seen) != 14 {
+		t.Errorf("the table covers %d kinds, want all 14", len(seen))
 	}
 }
 

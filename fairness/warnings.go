@@ -62,6 +62,7 @@ func Warnings(r *Result) []Warning {
 	for _, mr := range r.Metrics {
 		out = append(out, metricWarnings(mr, r.Settings.EstimateFrom)...)
 	}
+	out = append(out, outlyingWarnings(r.Details)...)
 	if iv := r.Settings.Intervals; iv != nil && iv.Failed > 0 {
 		out = append(out, Warning{Kind: KindBootstrapFailures, Severity: SeverityNote, Nodes: []string{},
 			Message: fmt.Sprintf("%d of %d bootstrap replicates could not be computed (e.g. a metric without a value in a resample); the intervals rest on the rest", iv.Failed, iv.Replicates)})
@@ -255,4 +256,25 @@ func extremeWarning(m MechanismResult, side string) string {
 		return fmt.Sprintf("%.1f%% of reference records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100*m.ExtremeShare, m.Mechanism)
 	}
 	return ""
+}
+
+// outlyingWarnings names each numeric column with values outside its
+// typical range (ColumnDetails.Outlying).
+func outlyingWarnings(d *Details) []Warning {
+	if d == nil {
+		return nil
+	}
+	var out []Warning
+	for _, c := range d.Columns {
+		if c.Outlying == 0 || c.Farthest == nil {
+			continue
+		}
+		values := "values"
+		if c.Outlying == 1 {
+			values = "value"
+		}
+		out = append(out, Warning{Kind: KindOutlyingValues, Severity: SeverityNote, Nodes: []string{},
+			Message: fmt.Sprintf("column %q has %s %s far outside the bulk of its values (the farthest is %g); the classifiers treat such values as the edge of the typical range; check them for entry errors", c.Name, thousands(c.Outlying), values, *c.Farthest)})
+	}
+	return out
 }

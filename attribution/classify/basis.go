@@ -44,6 +44,12 @@ type columnScale struct {
 	mean, sd float64
 	constant bool
 	binary   bool // two distinct values over the rows with w_i > 0
+	// lo and hi bound the column's typical range (TypicalRange); values
+	// outside are moved to the nearer bound before standardising, in
+	// fitting and in prediction alike. pre is the exact power-of-two
+	// factor applied next (magnitudeFactor; 1 for ordinary columns), so
+	// that z = (pre·clamp(x) − mean)/sd.
+	lo, hi, pre float64
 }
 
 // design is a term-major design matrix: column k occupies
@@ -57,7 +63,9 @@ func (z *design) col(k int) []float64 { return z.cols[k*z.n : (k+1)*z.n] }
 
 // basis maps raw feature rows to the standardised design of a fitted model.
 //
-// Raw column c (for c in raw) becomes z_c = (x_c − raw[c].mean)/raw[c].sd.
+// Raw column c (for c in raw) becomes
+// z_c = (pre·clamp(x_c, lo, hi) − raw[c].mean)/raw[c].sd, with the column's
+// typical range [lo, hi] (TypicalRange) and magnitude factor pre.
 // Each term t is built from those and, when termScale is non-nil,
 // standardised again: (t − termScale[k].mean)/termScale[k].sd.
 type basis struct {
@@ -68,7 +76,9 @@ type basis struct {
 }
 
 // rawDesign builds the linear design of x: the intercept column and the
-// standardised non-constant raw columns, in column order. It returns the
+// standardised non-constant raw columns, in column order, each first
+// clamped to its typical range (TypicalRange) and, when huge, rescaled by
+// an exact power of two (magnitudeFactor). It returns the
 // design, the scales of all p raw columns (see columnScale), and the
 // indices of the non-constant ("active") columns. Work is spread over up
 // to threads goroutines (0 means GOMAXPROCS).
@@ -89,8 +99,15 @@ func rawDesign(x *mat.Dense, w []float64, sw float64, threads int) (*design, []c
 	workers.For(threads, p, func(_, c int) {
 		col := cols[(1+c)*n : (2+c)*n]
 		binary := twoValued(col, w)
+		lo, hi := TypicalRange(col, w)
+		clampInPlace(col, lo, hi)
+		pre := magnitudeFactor(col)
+		if pre != 1 {
+			floats.Scale(pre, col)
+		}
 		scales[c] = standardiseInPlace(col, w, sw)
 		scales[c].binary = binary && !scales[c].constant
+		scales[c].lo, scales[c].hi, scales[c].pre = lo, hi, pre
 	})
 	var active []int
 	for c := 0; c < p; c++ {
@@ -315,7 +332,7 @@ func standardiseInPlace(v, w []float64, sw float64) columnScale {
 // row x into dst, using zbuf (length p) as scratch for standardised values.
 func (b *basis) rowTerms(x, zbuf, dst []float64) {
 	for c, s := range b.raw {
-		zbuf[c] = (x[c] - s.mean) / s.sd
+		zbuf[c] = (s.pre*min(max(x[c], s.lo), s.hi) - s.mean) / s.sd
 	}
 	for k, t := range b.terms {
 		v := zbuf[t.I]

@@ -1,0 +1,71 @@
+package fairness
+
+import (
+	"encoding/json"
+	"fmt"
+	"math"
+	"strings"
+	"testing"
+)
+
+// withCell replaces the value of column col (0-based) on data row row
+// (0-based, after the header) of a CSV text.
+func withCell(data string, row, col int, value string) string {
+	lines := strings.Split(data, "\n")
+	cells := strings.Split(lines[row+1], ",")
+	cells[col] = value
+	lines[row+1] = strings.Join(cells, ",")
+	return strings.Join(lines, "\n")
+}
+
+// TestOneExtremeValue: a single extreme but finite value in a graph column
+// (one x of 1e5 or ±1e308 among 400 rows) must not break the audit: Run
+// succeeds, the result encodes as JSON (which refuses NaN and ±Inf), and
+// because the learners clamp each column to its typical range
+// (classify.TypicalRange) the contributions stay close to those of the
+// clean table. Ground truth: one record of 400 changes each group metric by
+// at most 1/(number of records the metric counts), so a sound estimator
+// moves by little more; 0.05 is a loose bound on that.
+func TestOneExtremeValue(t *testing.T) {
+	clean := smallData(400)
+	for _, classifier := range []string{"linear", "expanded", "auto"} {
+		spec := strings.Replace(smallSpec, "classifier: linear", "classifier: "+classifier, 1)
+		base, err := Run(writeAudit(t, spec, clean), RunOptions{Workers: 2})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, c := range []struct {
+			row, col int
+			value    string
+		}{
+			{10, 1, "1e5"}, {11, 1, "1e308"}, {10, 3, "-1e308"}, {10, 1, "-1.7976931348623157e308"},
+		} {
+			t.Run(fmt.Sprintf("%s/row%d-col%d=%s", classifier, c.row, c.col, c.value), func(t *testing.T) {
+				r, err := Run(writeAudit(t, spec, withCell(clean, c.row, c.col, c.value)), RunOptions{Workers: 2})
+				if err != nil {
+					t.Fatal(err)
+				}
+				if _, err := json.Marshal(r); err != nil {
+					t.Fatalf("result does not encode: %v", err)
+				}
+				var named bool
+				for _, w := range r.Warnings {
+					named = named || (w.Kind == KindOutlyingValues && strings.Contains(w.Message, fmt.Sprintf("%q", []string{"site", "x", "dx", "z"}[c.col])))
+				}
+				if !named {
+					t.Errorf("no outlying-values warning names the column; warnings: %v", r.Warnings)
+				}
+				var worst float64
+				for m, mr := range r.Metrics {
+					for i, ct := range mr.Contributions {
+						worst = math.Max(worst, math.Abs(ct.Value-base.Metrics[m].Contributions[i].Value))
+					}
+				}
+				t.Logf("largest change of a contribution: %.4f", worst)
+				if worst > 0.05 {
+					t.Errorf("one extreme value moved a contribution by %.4f", worst)
+				}
+			})
+		}
+	}
+}
