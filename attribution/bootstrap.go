@@ -11,27 +11,40 @@ import (
 	"github.com/gapwise/gapwise/internal/workers"
 )
 
-// BootstrapOptions controls percentile bootstrap intervals.
-type BootstrapOptions struct {
-	Replicates int     // number of resamples; 0 means 200
-	Level      float64 // interval level; 0 means 0.95
+// Intervals are the settings of percentile bootstrap intervals: the one
+// shape in which they travel from the spec's intervals key through
+// fairness.Run to DecomposeWithIntervals, and back into the result. Its
+// JSON field names are part of the result contract.
+type Intervals struct {
+	// Replicates is the number of resamples: 0 means no intervals where
+	// the settings come from a spec, and 200 in DecomposeWithIntervals.
+	Replicates int `json:"replicates"`
+	// Level is the interval level, e.g. 0.95 (0 means 0.95).
+	Level float64 `json:"level"`
 	// KeepRatios resamples records together with their already-fitted
 	// log-ratios instead of refitting the classifiers (fast mode). It
 	// ignores the classifiers' own estimation error, so intervals are
 	// narrower than the full bootstrap's.
-	KeepRatios bool
+	KeepRatios bool `json:"keep_ratios"`
+}
+
+// BootstrapOptions controls percentile bootstrap intervals.
+type BootstrapOptions struct {
+	Intervals
 	// Progress, if non-nil, is called after each finished replicate with
 	// the number done and the total; calls may come from several goroutines
 	// but never concurrently.
 	Progress func(done, total int)
 }
 
-// BootstrapSummary reports how the intervals were made.
+// BootstrapSummary reports how the intervals were made: the settings used
+// (Replicates as requested) and how many replicates failed. Its JSON form
+// is the result's record of the bootstrap (fairness.IntervalSettings).
 type BootstrapSummary struct {
-	Replicates int     // requested
-	Failed     int     // replicates that could not be computed (e.g. a metric undefined in a resample)
-	Level      float64 // interval level
-	KeepRatios bool
+	Intervals
+	// Failed counts replicates that could not be computed (e.g. a metric
+	// undefined in a resample); the intervals rest on the others.
+	Failed int `json:"failed"`
 }
 
 // DecomposeWithIntervals runs Decompose and then a percentile bootstrap
@@ -111,7 +124,7 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		}
 	})
 
-	sum := &BootstrapSummary{Replicates: B, Level: bopt.Level, KeepRatios: bopt.KeepRatios}
+	sum := &BootstrapSummary{Intervals: Intervals{Replicates: B, Level: bopt.Level, KeepRatios: bopt.KeepRatios}}
 	var ok [][]MetricDecomposition
 	for _, r := range reps {
 		if r == nil {

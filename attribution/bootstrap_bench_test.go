@@ -38,7 +38,7 @@ func BenchmarkBootstrap(b *testing.B) {
 		opt := attribution.Options{Threshold: scm.ScreeningThreshold, Seed: 1, Learners: bc.learners}
 		b.Run(bc.name, func(b *testing.B) {
 			for b.Loop() {
-				if _, _, err := attribution.DecomposeWithIntervals(s, mechs, names, opt, attribution.BootstrapOptions{Replicates: benchReplicates, KeepRatios: keep}); err != nil {
+				if _, _, err := attribution.DecomposeWithIntervals(s, mechs, names, opt, attribution.BootstrapOptions{Intervals: attribution.Intervals{Replicates: benchReplicates, KeepRatios: keep}}); err != nil {
 					b.Fatal(err)
 				}
 			}

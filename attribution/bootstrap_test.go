@@ -17,7 +17,7 @@ func TestBootstrapDeterministicAcrossWorkers(t *testing.T) {
 		var got []*attribution.Decomposition
 		for _, w := range []int{1, 2} {
 			opt := attribution.Options{Threshold: 0.5, Seed: 9, Learners: []classify.Learner{classify.NewLinear()}, Workers: w}
-			d, sum, err := attribution.DecomposeWithIntervals(s, mechs, []string{"fnr", "brier"}, opt, attribution.BootstrapOptions{Replicates: 20, KeepRatios: keep})
+			d, sum, err := attribution.DecomposeWithIntervals(s, mechs, []string{"fnr", "brier"}, opt, attribution.BootstrapOptions{Intervals: attribution.Intervals{Replicates: 20, KeepRatios: keep}})
 			if err != nil {
 				t.Fatal(err)
 			}

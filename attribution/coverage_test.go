@@ -74,7 +74,7 @@ func TestBootstrapCoverage(t *testing.T) {
 		s, mechs := independentPooled(t, c.Model, n, n, uint64(100+d))
 		dec, _, err := attribution.DecomposeWithIntervals(s, mechs, []string{"fnr"}, attribution.Options{
 			Threshold: scm.ScreeningThreshold, Seed: uint64(d), Learners: []classify.Learner{classify.NewLinear()},
-		}, attribution.BootstrapOptions{Replicates: reps})
+		}, attribution.BootstrapOptions{Intervals: attribution.Intervals{Replicates: reps}})
 		if err != nil {
 			t.Fatal(err)
 		}

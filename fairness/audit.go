@@ -16,14 +16,6 @@ type RunOptions struct {
 	Workers int    // goroutines for estimation; 0 means GOMAXPROCS
 	Version string // recorded in Result.Tool
 
-	// Bootstrap is the number of percentile-bootstrap replicates for
-	// intervals (attribution.DecomposeWithIntervals); 0 skips them.
-	Bootstrap int
-	// BootstrapLevel is the interval level; 0 means 0.95.
-	BootstrapLevel float64
-	// BootstrapKeepRatios resamples records with their fitted ratios
-	// instead of refitting the classifiers (faster, narrower intervals).
-	BootstrapKeepRatios bool
 	// Progress, if non-nil, is called after each bootstrap replicate.
 	Progress func(done, total int)
 	// SamplingProgress, if non-nil, is called after each batch of sampled
@@ -72,12 +64,10 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	}
 	var dec *attribution.Decomposition
 	var boot *attribution.BootstrapSummary
-	if opt.Bootstrap > 0 {
+	if spec.Intervals.Replicates > 0 {
 		dec, boot, err = attribution.DecomposeWithIntervals(sample, mechs, spec.Metrics, aopt, attribution.BootstrapOptions{
-			Replicates: opt.Bootstrap,
-			Level:      opt.BootstrapLevel,
-			KeepRatios: opt.BootstrapKeepRatios,
-			Progress:   opt.Progress,
+			Intervals: spec.Intervals,
+			Progress:  opt.Progress,
 		})
 	} else {
 		dec, err = attribution.Decompose(sample, mechs, spec.Metrics, aopt)
@@ -87,7 +77,7 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	}
 	r := buildResult(spec, d, dec, learners, opt)
 	if boot != nil {
-		r.Settings.Intervals = &IntervalSettings{Replicates: boot.Replicates, Level: boot.Level, KeepRatios: boot.KeepRatios, Failed: boot.Failed}
+		r.Settings.Intervals = boot
 	}
 	r.Details = Describe(d, spec.Threshold, spec.ECEBins)
 	r.Warnings = Warnings(r) // after Settings.Intervals, whose failed replicates it reports

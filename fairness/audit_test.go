@@ -283,17 +283,19 @@ func TestRunDeterministic(t *testing.T) {
 
 // TestRunAutoAndBootstrap checks that "auto" offers every learner to each
 // mechanism (one out-of-fold loss per candidate) and that bootstrap
-// intervals reach the result: an interval for every quantity, Low ≤ High.
+// intervals asked for by the spec's intervals key reach the result (no
+// RunOptions needed): an interval for every quantity, Low ≤ High.
 func TestRunAutoAndBootstrap(t *testing.T) {
-	spec := writeAudit(t, strings.Replace(smallSpec, "classifier: linear", "classifier: auto", 1)+"title: Small audit\n", smallData(160))
-	r, err := Run(spec, RunOptions{Workers: 2, Bootstrap: 20, BootstrapLevel: 0.9, BootstrapKeepRatios: true})
+	spec := writeAudit(t, strings.Replace(smallSpec, "classifier: linear", "classifier: auto", 1)+
+		"title: Small audit\nintervals: {replicates: 20, level: 0.9, keep_ratios: true}\n", smallData(160))
+	r, err := Run(spec, RunOptions{Workers: 2})
 	if err != nil {
 		t.Fatal(err)
 	}
 	if r.Title != "Small audit" {
 		t.Errorf("title %q", r.Title)
 	}
-	if got, want := r.Settings.Intervals, (IntervalSettings{Replicates: 20, Level: 0.9, KeepRatios: true}); got == nil || *got != want {
+	if got, want := r.Settings.Intervals, (IntervalSettings{Intervals: Intervals{Replicates: 20, Level: 0.9, KeepRatios: true}}); got == nil || *got != want {
 		t.Errorf("settings.intervals %+v, want %+v", got, want)
 	}
 	want := strings.Join(r.Settings.Learners, ",")

@@ -1,5 +1,7 @@
 package fairness
 
+import "github.com/gapwise/gapwise/attribution"
+
 // Result is the outcome of an audit: per metric, the gap between the two
 // groups and its split into mechanism contributions, plus diagnostics. Its
 // JSON encoding is the tool's machine-readable contract; field names are
@@ -64,17 +66,9 @@ type Settings struct {
 }
 
 // IntervalSettings records how the percentile bootstrap intervals were
-// made (attribution.BootstrapSummary).
-type IntervalSettings struct {
-	Replicates int     `json:"replicates"` // resamples requested
-	Level      float64 `json:"level"`      // e.g. 0.95
-	// KeepRatios is true when replicates reused the fitted density ratios
-	// instead of refitting the classifiers (fast mode, narrower intervals).
-	KeepRatios bool `json:"keep_ratios"`
-	// Failed counts replicates that could not be computed; the intervals
-	// rest on the others.
-	Failed int `json:"failed"`
-}
+// made: the settings used (replicates requested, level, keep_ratios) and
+// the replicates that failed. It is the engine's own summary.
+type IntervalSettings = attribution.BootstrapSummary
 
 // GroupInfo describes the two groups compared.
 type GroupInfo struct {

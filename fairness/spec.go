@@ -77,9 +77,10 @@ type Spec struct {
 	// ExactLimit is attribution.Options.ExactLimit (default
 	// attribution.DefaultExactLimit).
 	ExactLimit int
-	// Intervals holds the intervals key. Run does not read it: callers
-	// pass it on in RunOptions (the CLI does, letting flags override it).
-	Intervals IntervalSpec
+	// Intervals holds the intervals key (Replicates 0: no intervals). Run
+	// reads it; a caller that overrides it (the CLI's flags do) sets it
+	// before calling Run.
+	Intervals Intervals
 	Synthetic bool
 	Title     string
 
@@ -94,13 +95,9 @@ type GroupSpec struct {
 	Comparison string
 }
 
-// IntervalSpec is the bootstrap asked for by the spec's intervals key.
-// Replicates 0 means no intervals.
-type IntervalSpec struct {
-	Replicates int
-	Level      float64 // default DefaultIntervalLevel
-	KeepRatios bool
-}
+// Intervals are the bootstrap interval settings, the one shape shared by
+// the spec, the engine (attribution.Intervals) and the result.
+type Intervals = attribution.Intervals
 
 // DefaultIntervalLevel is the interval level when intervals.level is not
 // given.

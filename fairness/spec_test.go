@@ -47,7 +47,7 @@ func TestParseSpecExample(t *testing.T) {
 			{Node: "labs", Columns: []string{"m1", "m2"}, Parents: []string{"dx", "age"}, Line: 14},
 		},
 		Seed: 1, Missing: MissingError, Folds: DefaultFolds, Classifier: ClassifierAuto, ECEBins: 10,
-		EstimateFrom: attribution.DefaultSide.String(), ExactLimit: 16, Intervals: IntervalSpec{Level: DefaultIntervalLevel},
+		EstimateFrom: attribution.DefaultSide.String(), ExactLimit: 16, Intervals: Intervals{Level: DefaultIntervalLevel},
 	}
 	// Compare exported fields only.
 	got := *s
@@ -91,7 +91,7 @@ intervals: {replicates: 50, level: 0.9, keep_ratios: true}
 	if !s.DropMissing() || s.Folds != 3 || s.Classifier != "expanded" || s.ECEBins != 15 || !s.Synthetic ||
 		s.Title != "Anaemia screening (synthetic)" || !reflect.DeepEqual(s.Categorical, []string{"m2"}) || s.DataPath != "/data/cohort.csv" ||
 		s.EstimateFrom != "both" || s.ClipRatios != 0.98 || s.ExactLimit != 12 ||
-		s.Intervals != (IntervalSpec{Replicates: 50, Level: 0.9, KeepRatios: true}) {
+		s.Intervals != (Intervals{Replicates: 50, Level: 0.9, KeepRatios: true}) {
 		t.Errorf("got %+v", s)
 	}
 }

@@ -49,7 +49,9 @@ func TestWarningFields(t *testing.T) {
 			Warning{KindMetricRecords, SeverityUnreliable, "fnr", []string{}, "for fnr, the reweighted comparison group rests on 60 effective records"}},
 		{"large residual", func(r *Result) { r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.05, 0.04 },
 			Warning{KindLargeResidual, SeverityCaution, "fnr", []string{}, "the residual 0.0400 is large"}},
-		{"bootstrap failures", func(r *Result) { r.Settings.Intervals = &IntervalSettings{Replicates: 50, Failed: 3} },
+		{"bootstrap failures", func(r *Result) {
+			r.Settings.Intervals = &IntervalSettings{Intervals: Intervals{Replicates: 50}, Failed: 3}
+		},
 			Warning{KindBootstrapFailures, SeverityNote, "", []string{}, "3 of 50 bootstrap replicates could not be computed"}},
 		{"outlying values", func(r *Result) {
 			far := 1e5

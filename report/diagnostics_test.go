@@ -20,7 +20,7 @@ func withDiagnostics(r *fairness.Result) {
 	r.Settings.EstimateFrom = "both"
 	r.Settings.ClipRatios = 0.99
 	r.Settings.ExactLimit = 16
-	r.Settings.Intervals = &fairness.IntervalSettings{Replicates: 100, Level: 0.9, KeepRatios: true, Failed: 2}
+	r.Settings.Intervals = &fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 100, Level: 0.9, KeepRatios: true}, Failed: 2}
 	for i := range r.Mechanisms {
 		m := &r.Mechanisms[i]
 		m.ExtremeShare = 0.001 * float64(i)

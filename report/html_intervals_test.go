@@ -49,7 +49,7 @@ func whiskers(t *testing.T, data map[string]any, metric string) []any {
 // reference value and for two contributions (age, hb); Brier has none.
 func TestWriteHTMLIntervals(t *testing.T) {
 	page := renderHTML(t, true, func(r *fairness.Result) {
-		r.Settings.Intervals = &fairness.IntervalSettings{Replicates: 200, Level: 0.9}
+		r.Settings.Intervals = &fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 200, Level: 0.9}}
 	})
 	data := pageData(t, page)
 	w := whiskers(t, data, "fnr")

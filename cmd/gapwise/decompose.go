@@ -169,7 +169,7 @@ func outputFiles(res *fairness.Result) ([]outFile, error) {
 // and the flags, showing progress on line.
 func audit(spec *fairness.Spec, workers int, iv intervalOptions, line *progressLine) (*fairness.Result, error) {
 	ro := fairness.RunOptions{Workers: workers, Version: version, Progress: line.bootstrap(), SamplingProgress: line.sampling()}
-	iv.apply(spec, &ro)
+	iv.apply(spec)
 	line.show("gapwise: estimating %d mechanisms for %d metrics ...", len(spec.Graph), len(spec.Metrics))
 	return fairness.Run(spec, ro)
 }

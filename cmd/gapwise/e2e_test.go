@@ -71,7 +71,7 @@ func TestBinary(t *testing.T) {
 		t.Errorf("result records version %q", res.Tool.Version)
 	}
 	// The demo's default bootstrap: demoIntervals fast replicates at 0.95.
-	if iv := res.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Replicates: demoIntervals, Level: 0.95, KeepRatios: true}) {
+	if iv := res.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: demoIntervals, Level: 0.95, KeepRatios: true}}) {
 		t.Errorf("demo settings.intervals %+v", iv)
 	}
 
@@ -89,7 +89,7 @@ func TestBinary(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &got); err != nil {
 		t.Fatal(err)
 	}
-	if iv := got.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Replicates: 4, Level: 0.9, KeepRatios: true}) {
+	if iv := got.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 4, Level: 0.9, KeepRatios: true}}) {
 		t.Errorf("spec intervals with --level 0.9: settings.intervals %+v", iv)
 	}
 

@@ -54,10 +54,10 @@ func (o intervalOptions) check() error {
 	return nil
 }
 
-// apply sets the bootstrap fields of ro from the spec's intervals key,
-// each overridden by its flag when that was given.
-func (o intervalOptions) apply(spec *fairness.Spec, ro *fairness.RunOptions) {
-	iv := spec.Intervals
+// apply overrides the spec's intervals key (which fairness.Run reads)
+// with each bootstrap flag that was given.
+func (o intervalOptions) apply(spec *fairness.Spec) {
+	iv := &spec.Intervals
 	if o.replicatesSet {
 		iv.Replicates = o.replicates
 	}
@@ -67,9 +67,6 @@ func (o intervalOptions) apply(spec *fairness.Spec, ro *fairness.RunOptions) {
 	if o.fastSet {
 		iv.KeepRatios = o.fast
 	}
-	ro.Bootstrap = iv.Replicates
-	ro.BootstrapLevel = iv.Level
-	ro.BootstrapKeepRatios = iv.KeepRatios
 }
 
 // allSet treats every bootstrap flag as given, for commands (demo) whose

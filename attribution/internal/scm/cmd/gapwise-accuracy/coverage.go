@@ -173,7 +173,7 @@ func runCoverage(opt options, stdout, stderr io.Writer) error {
 				}
 				dec, sum, err := attribution.DecomposeWithIntervals(s, mechs, opt.metrics,
 					attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Workers: 1},
-					attribution.BootstrapOptions{Replicates: opt.boot, Level: coverageLevel})
+					attribution.BootstrapOptions{Intervals: attribution.Intervals{Replicates: opt.boot, Level: coverageLevel}})
 				draws[d] = coverageDraw{dec: dec, sum: sum, err: err}
 			})
 			cl := tallyCoverage(c.Name, c.Hard, n, nodes, truth, draws)
