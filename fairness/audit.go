@@ -103,30 +103,12 @@ func prepare(spec *Spec) (*Dataset, *attribution.Sample, []attribution.Mechanism
 	return d, sample, mechs, nil
 }
 
-// candidateLearners returns the learners a classifier setting stands for;
-// ok is false when the setting is unknown or its learner is not built in.
-// "auto" lets attribution choose among all of them per mechanism by
-// out-of-fold log loss.
+// candidateLearners returns the learners a classifier setting stands for
+// (classify.Learners); ok is false when the setting is unknown or its
+// learner is not built in.
 func candidateLearners(name string) (learners []classify.Learner, ok bool) {
-	switch name {
-	case ClassifierAuto:
-		return []classify.Learner{classify.NewLinear(), classify.NewExpanded(), classify.NewBoosted()}, true
-	case ClassifierLinear:
-		return []classify.Learner{classify.NewLinear()}, true
-	case ClassifierExpanded:
-		return []classify.Learner{classify.NewExpanded()}, true
-	case ClassifierBoosted:
-		return []classify.Learner{classify.NewBoosted()}, true
-	}
-	return nil, false
-}
-
-func learnerNames(ls []classify.Learner) []string {
-	names := make([]string, len(ls))
-	for i, l := range ls {
-		names[i] = l.Name()
-	}
-	return names
+	ls, err := classify.Learners(name)
+	return ls, err == nil
 }
 
 // buildResult maps a decomposition into the Result contract.
@@ -145,7 +127,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			Classifier:  spec.Classifier,
 			ECEBins:     spec.ECEBins,
 			DropMissing: spec.DropMissing(),
-			Learners:    learnerNames(learners),
+			Learners:    classify.NamesOf(learners),
 
 			EstimateFrom: dec.Side.String(),
 			ClipRatios:   spec.ClipRatios,

@@ -6,6 +6,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/gapwise/gapwise/attribution"
+	"github.com/gapwise/gapwise/attribution/classify"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -56,7 +57,7 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 		Metrics:    append([]string(nil), spec.Metrics...),
 		Features:   sample.X.RawMatrix().Cols,
 		Classifier: spec.Classifier,
-		Learners:   learnerNames(learners),
+		Learners:   classify.NamesOf(learners),
 		Folds:      spec.Folds,
 		Warnings:   droppedWarnings(groupInfo(spec, d)),
 	}

@@ -15,6 +15,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"github.com/gapwise/gapwise/attribution"
+	"github.com/gapwise/gapwise/attribution/classify"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -119,12 +120,12 @@ const (
 	MissingDrop  = "drop"
 )
 
-// Values of Spec.Classifier.
+// Values of Spec.Classifier: the learner names of package classify.
 const (
-	ClassifierAuto     = "auto"
-	ClassifierLinear   = "linear"
-	ClassifierExpanded = "expanded"
-	ClassifierBoosted  = "boosted"
+	ClassifierAuto     = classify.Auto
+	ClassifierLinear   = classify.NameLinear
+	ClassifierExpanded = classify.NameExpanded
+	ClassifierBoosted  = classify.NameBoosted
 )
 
 // Defaults for optional keys.

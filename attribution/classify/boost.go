@@ -82,7 +82,7 @@ func NewBoosted() Boosted {
 }
 
 // Name returns "boosted".
-func (b Boosted) Name() string { return "boosted" }
+func (b Boosted) Name() string { return NameBoosted }
 
 // WithThreads returns a copy of b with Threads = n (see Threaded).
 func (b Boosted) WithThreads(n int) Learner {

@@ -65,7 +65,7 @@ type Linear struct {
 func NewLinear() Linear { return Linear{Lambda: DefaultLambda} }
 
 // Name returns "linear".
-func (Linear) Name() string { return "linear" }
+func (Linear) Name() string { return NameLinear }
 
 // WithThreads returns a copy of l with Threads = n (see Threaded).
 func (l Linear) WithThreads(n int) Learner {
@@ -138,7 +138,7 @@ func NewExpanded() Expanded {
 }
 
 // Name returns "expanded".
-func (Expanded) Name() string { return "expanded" }
+func (Expanded) Name() string { return NameExpanded }
 
 // WithThreads returns a copy of e with Threads = n (see Threaded).
 func (e Expanded) WithThreads(n int) Learner {
