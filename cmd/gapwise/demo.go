@@ -6,7 +6,6 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
-	"math"
 	"os"
 	"path/filepath"
 
@@ -14,6 +13,7 @@ import (
 
 	"github.com/gapwise/gapwise/fairness"
 	"github.com/gapwise/gapwise/fairness/synth"
+	"github.com/gapwise/gapwise/report"
 )
 
 // Files of the demo folder besides the outputs of decompose.
@@ -117,44 +117,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err := writeOutDir(o.out, files, true); err != nil {
 		return err
 	}
-	var b bytes.Buffer
-	writeDemoSummary(&b, res, o.out)
-	_, err = stdout.Write(b.Bytes())
-	return err
-}
-
-// writeDemoSummary prints, per metric, the gap and its largest
-// contribution, then where the files are.
-func writeDemoSummary(w io.Writer, res *fairness.Result, dir string) {
-	g := res.Groups
-	fmt.Fprintf(w, "Anaemia screening (SYNTHETIC demo data): %s %d records, %s %d records\n\n",
-		g.Reference, g.NReference, g.Comparison, g.NComparison)
-	name := 0
-	for _, m := range res.Metrics {
-		name = max(name, len(m.Metric))
-	}
-	for _, m := range res.Metrics {
-		line := fmt.Sprintf("  %-*s  %s %.4f  %s %.4f  gap %+.4f", name, m.Metric, g.Reference, m.Reference, g.Comparison, m.Comparison, m.Gap)
-		if m.GapCI != nil {
-			line += fmt.Sprintf(" [%+.4f, %+.4f]", m.GapCI.Low, m.GapCI.High)
-		}
-		if top, ok := largest(m.Contributions); ok {
-			line += fmt.Sprintf("  largest: %s %+.4f", top.Mechanism, top.Value)
-		}
-		fmt.Fprintln(w, line)
-	}
-	fmt.Fprintf(w, "\nWrote %s, %s, %s and %s in %s\n", demoData, demoSpec, resultFile, reportFile, dir)
-	fmt.Fprintf(w, "Open %s in a browser, or run: gapwise decompose --spec %s\n",
-		filepath.Join(dir, reportFile), filepath.Join(dir, demoSpec))
-}
-
-// largest returns the contribution of largest magnitude (the first on ties).
-func largest(cs []fairness.Contribution) (fairness.Contribution, bool) {
-	best, ok := fairness.Contribution{}, false
-	for _, c := range cs {
-		if !ok || math.Abs(c.Value) > math.Abs(best.Value) {
-			best, ok = c, true
-		}
-	}
-	return best, ok
+	return report.DemoSummary(stdout, res, report.DemoOutputs{
+		Dir: o.out, Data: demoData, Spec: demoSpec, Result: resultFile, Report: reportFile,
+	})
 }

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/gapwise/gapwise/fairness/synth"
+	"github.com/gapwise/gapwise/report"
 )
 
 // hybridRates returns FNR, FPR and PPV at threshold 0.5 of records drawn
@@ -110,7 +111,7 @@ func TestDemoAgainstGroundTruth(t *testing.T) {
 				}
 			}
 			if metric != "ppv" {
-				top, _ := largest(m.Contributions)
+				top, _ := report.Largest(m.Contributions)
 				if top.Node != synth.ColHb {
 					t.Errorf("%s: largest contribution from %s, want hb", metric, top.Node)
 				}

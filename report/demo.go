@@ -1,0 +1,62 @@
+package report
+
+import (
+	"bytes"
+	"fmt"
+	"io"
+	"math"
+	"path/filepath"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// DemoOutputs names the files the demo wrote: the folder and the base
+// names of the cohort, the spec, the result and the report in it.
+type DemoOutputs struct {
+	Dir, Data, Spec, Result, Report string
+}
+
+// DemoSummary writes what `gapwise demo` prints after its audit: per
+// metric, the two groups' values, the gap (with its interval when there is
+// one) and the largest contribution, then where the files are.
+func DemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) error {
+	var b bytes.Buffer
+	writeDemoSummary(&b, res, out)
+	_, err := w.Write(b.Bytes())
+	return err
+}
+
+// writeDemoSummary builds the text of DemoSummary.
+func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
+	g := res.Groups
+	fmt.Fprintf(w, "Anaemia screening (SYNTHETIC demo data): %s %d records, %s %d records\n\n",
+		g.Reference, g.NReference, g.Comparison, g.NComparison)
+	name := 0
+	for _, m := range res.Metrics {
+		name = max(name, len(m.Metric))
+	}
+	for _, m := range res.Metrics {
+		line := fmt.Sprintf("  %-*s  %s %.4f  %s %.4f  gap %+.4f", name, m.Metric, g.Reference, m.Reference, g.Comparison, m.Comparison, m.Gap)
+		if m.GapCI != nil {
+			line += fmt.Sprintf(" [%+.4f, %+.4f]", m.GapCI.Low, m.GapCI.High)
+		}
+		if top, ok := Largest(m.Contributions); ok {
+			line += fmt.Sprintf("  largest: %s %+.4f", top.Mechanism, top.Value)
+		}
+		fmt.Fprintln(w, line)
+	}
+	fmt.Fprintf(w, "\nWrote %s, %s, %s and %s in %s\n", out.Data, out.Spec, out.Result, out.Report, out.Dir)
+	fmt.Fprintf(w, "Open %s in a browser, or run: gapwise decompose --spec %s\n",
+		filepath.Join(out.Dir, out.Report), filepath.Join(out.Dir, out.Spec))
+}
+
+// Largest returns the contribution of largest magnitude (the first on ties).
+func Largest(cs []fairness.Contribution) (fairness.Contribution, bool) {
+	best, ok := fairness.Contribution{}, false
+	for _, c := range cs {
+		if !ok || math.Abs(c.Value) > math.Abs(best.Value) {
+			best, ok = c, true
+		}
+	}
+	return best, ok
+}
