@@ -58,7 +58,7 @@ func LoadData(spec *Spec) (*Dataset, error) {
 		return nil, &DataError{File: spec.DataPath, Err: wrapf(ErrReadFailed, "cannot open data file: %v", err)}
 	}
 	defer f.Close()
-	return ReadData(f, spec.DataPath, spec)
+	return ReadData(&boundedReader{r: f, total: MaxDataBytes, line: MaxLineBytes}, spec.DataPath, spec)
 }
 
 // ReadData reads CSV records with a header row from r; name identifies the

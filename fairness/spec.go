@@ -137,11 +137,19 @@ const (
 // LoadSpec reads and parses the spec file at path. A missing file gives a
 // *SpecError wrapping ErrSpecNotFound.
 func LoadSpec(path string) (*Spec, error) {
-	src, err := os.ReadFile(path)
+	f, err := os.Open(path)
 	if err != nil {
 		if errors.Is(err, fs.ErrNotExist) {
 			return nil, &SpecError{File: path, Err: wrapf(ErrSpecNotFound, "spec file not found")}
 		}
+		return nil, &SpecError{File: path, Err: wrapf(ErrSpecNotFound, "cannot read spec file: %v", err)}
+	}
+	defer f.Close()
+	src, err := readSpecFile(f)
+	if errors.Is(err, ErrTooLarge) {
+		return nil, &SpecError{File: path, Err: err}
+	}
+	if err != nil {
 		return nil, &SpecError{File: path, Err: wrapf(ErrSpecNotFound, "cannot read spec file: %v", err)}
 	}
 	return ParseSpec(path, src)
@@ -278,6 +286,9 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		if err == nil && s.Folds < 2 {
 			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "folds must be at least 2, got %d", s.Folds)
 		}
+		if err == nil && s.Folds > MaxFolds {
+			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "folds must be at most %d, got %d", MaxFolds, s.Folds)
+		}
 	case "classifier":
 		s.Classifier, err = p.oneOf(k.Value, v, ClassifierAuto, ClassifierLinear, ClassifierExpanded, ClassifierBoosted)
 		if err == nil {
@@ -289,6 +300,9 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		err = p.decode(k.Value, v, &s.ECEBins, "an integer")
 		if err == nil && s.ECEBins < 1 {
 			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "ece_bins must be at least 1, got %d", s.ECEBins)
+		}
+		if err == nil && s.ECEBins > MaxECEBins {
+			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "ece_bins must be at most %d, got %d", MaxECEBins, s.ECEBins)
 		}
 	case "estimate_from":
 		s.EstimateFrom, err = p.oneOf(k.Value, v, attribution.SideReference.String(), attribution.SideComparison.String(), attribution.SideBoth.String())
@@ -477,6 +491,9 @@ func (p *specParser) intervals(s *Spec, v *yaml.Node) error {
 			if err == nil && (s.Intervals.Replicates < 0 || s.Intervals.Replicates == 1) {
 				err = specErr(p.file, val.Line, key, ErrBadValue, "%s must be 0 (no intervals) or at least 2, got %d", key, s.Intervals.Replicates)
 			}
+			if err == nil && s.Intervals.Replicates > MaxReplicates {
+				err = specErr(p.file, val.Line, key, ErrBadValue, "%s must be at most %d, got %d", key, MaxReplicates, s.Intervals.Replicates)
+			}
 		case "level":
 			s.Intervals.Level, err = p.float(key, val)
 			if err == nil && !(s.Intervals.Level > 0 && s.Intervals.Level < 1) {
@@ -519,6 +536,9 @@ func (p *specParser) metrics(s *Spec, v *yaml.Node) error {
 func (p *specParser) graph(s *Spec, v *yaml.Node) error {
 	if v.Kind != yaml.SequenceNode || len(v.Content) == 0 {
 		return specErr(p.file, v.Line, "graph", ErrBadValue, "graph must be a non-empty list of nodes")
+	}
+	if len(v.Content) > MaxNodes {
+		return specErr(p.file, v.Line, "graph", ErrBadValue, "graph has %d nodes; at most %d are supported", len(v.Content), MaxNodes)
 	}
 	for i, item := range v.Content {
 		item = resolve(item)

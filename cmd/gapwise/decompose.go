@@ -76,8 +76,8 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err := checkFormat(o.format); err != nil {
 		return err
 	}
-	if o.workers < 0 {
-		return &usageError{fmt.Sprintf("--workers must be 0 or more, got %d", o.workers)}
+	if err := checkWorkers(o.workers); err != nil {
+		return err
 	}
 	if err := o.intervals.check(); err != nil {
 		return err

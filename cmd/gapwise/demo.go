@@ -74,6 +74,12 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if o.rows < 100 {
 		return &usageError{fmt.Sprintf("--rows must be at least 100, got %d", o.rows)}
 	}
+	if o.rows > maxDemoRows {
+		return &usageError{fmt.Sprintf("--rows must be at most %d, got %d", maxDemoRows, o.rows)}
+	}
+	if err := checkWorkers(o.workers); err != nil {
+		return err
+	}
 	// The demo's spec has no intervals key: the flags decide.
 	o.intervals = o.intervals.allSet()
 	if err := o.intervals.check(); err != nil {

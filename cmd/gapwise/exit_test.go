@@ -38,6 +38,10 @@ func TestExitCodes(t *testing.T) {
 		{"level not a number", []string{"decompose", "--spec", "x.yaml", "--level", "high"}, exitInput, `invalid argument "high"`},
 		{"demo level 0", []string{"demo", "--level", "0", "--out", filepath.Join(dir, "d")}, exitInput, "--level must be strictly between 0 and 1"},
 		{"demo too few rows", []string{"demo", "--rows", "5", "--out", filepath.Join(dir, "d")}, exitInput, "--rows must be at least 100"},
+		{"demo too many rows", []string{"demo", "--rows", "2000001", "--out", filepath.Join(dir, "d")}, exitInput, "--rows must be at most 2000000"},
+		{"too many workers", []string{"decompose", "--spec", "x.yaml", "--workers", "1025"}, exitInput, "--workers must be at most 1024"},
+		{"demo too many workers", []string{"demo", "--workers", "100000", "--out", filepath.Join(dir, "d")}, exitInput, "--workers must be at most 1024"},
+		{"too many replicates", []string{"decompose", "--spec", "x.yaml", "--intervals", "10001"}, exitInput, "--intervals must be at most 10000"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -74,3 +78,23 @@ func TestVersionFlag(t *testing.T) {
 		t.Errorf("--version printed %q, want %q", got, want)
 	}
 }
+
+// TestExecuteReportsPanics: a panic inside a command (here from a writer
+// that panics) is an internal error: one message, exit status 1, no stack
+// trace.
+func TestExecuteReportsPanics(t *testing.T) {
+	var stderr strings.Builder
+	code := execute([]string{"--version"}, panicWriter{}, &stderr)
+	if code != exitFailure {
+		t.Errorf("exit status %d, want %d", code, exitFailure)
+	}
+	msg := stderr.String()
+	if !strings.Contains(msg, "gapwise: internal error: writer exploded") || strings.Contains(msg, "goroutine ") || strings.Count(msg, "internal error") != 1 {
+		t.Errorf("stderr %q", msg)
+	}
+}
+
+// panicWriter panics on every write.
+type panicWriter struct{}
+
+func (panicWriter) Write([]byte) (int, error) { panic("writer exploded") }

@@ -48,6 +48,9 @@ func (o intervalOptions) check() error {
 	if o.replicatesSet && (o.replicates < 0 || o.replicates == 1) {
 		return &usageError{fmt.Sprintf("--%s must be 0 (no intervals) or at least 2, got %d", flagIntervals, o.replicates)}
 	}
+	if o.replicatesSet && o.replicates > fairness.MaxReplicates {
+		return &usageError{fmt.Sprintf("--%s must be at most %d, got %d", flagIntervals, fairness.MaxReplicates, o.replicates)}
+	}
 	if o.levelSet && !(o.level > 0 && o.level < 1) {
 		return &usageError{fmt.Sprintf("--%s must be strictly between 0 and 1 (e.g. 0.95), got %v", flagLevel, o.level)}
 	}

@@ -38,12 +38,20 @@ clinical or legal findings.`,
 }
 
 // execute runs the command line args and returns the exit status. It
-// prints an error, once, to stderr.
-func execute(args []string, stdout, stderr io.Writer) int {
+// prints an error, once, to stderr. A panic (a bug in gapwise, never the
+// user's input) is reported as an internal error with exit status 1,
+// without a stack trace.
+func execute(args []string, stdout, stderr io.Writer) (code int) {
+	defer func() {
+		if v := recover(); v != nil {
+			fmt.Fprintf(stderr, "gapwise: internal error: %v\ngapwise: this is a bug in gapwise, not a problem with the input; please report it with the command line used\n", v)
+			code = exitFailure
+		}
+	}()
 	root := newRootCmd(stdout, stderr)
 	root.SetArgs(args)
 	err := root.Execute()
-	code := exitCode(err)
+	code = exitCode(err)
 	if err != nil {
 		fmt.Fprintf(stderr, "gapwise: %v\n", err)
 	}

@@ -3,6 +3,7 @@
 package workers
 
 import (
+	"fmt"
 	"runtime"
 	"sync"
 	"sync/atomic"
@@ -23,6 +24,8 @@ func Count(n int) int {
 // independent of which worker runs it and of the order of items — that is
 // what keeps results identical for any number of goroutines. With one
 // goroutine (or one item) the items run in order on the caller's goroutine.
+// A panic in fn stops the handing out of items and is raised again on the
+// caller's goroutine, as a *Panic, once every goroutine has returned.
 func For(goroutines, n int, fn func(worker, i int)) {
 	w := min(Count(goroutines), n)
 	if w <= 1 {
@@ -33,10 +36,17 @@ func For(goroutines, n int, fn func(worker, i int)) {
 	}
 	var next atomic.Int64
 	var wg sync.WaitGroup
+	var failed atomic.Pointer[Panic]
 	for g := 0; g < w; g++ {
 		wg.Add(1)
 		go func(g int) {
 			defer wg.Done()
+			defer func() {
+				if v := recover(); v != nil {
+					failed.CompareAndSwap(nil, &Panic{Value: v})
+					next.Store(int64(n)) // the others stop after their item
+				}
+			}()
 			for {
 				i := int(next.Add(1) - 1)
 				if i >= n {
@@ -47,4 +57,15 @@ func For(goroutines, n int, fn func(worker, i int)) {
 		}(g)
 	}
 	wg.Wait()
+	if p := failed.Load(); p != nil {
+		panic(p)
+	}
 }
+
+// Panic carries a panic raised by fn in one of For's goroutines to the
+// goroutine that called For, where it is raised again (a panic in another
+// goroutine could not be recovered by the caller and would end the
+// process). When several items panic, Value is the first recorded.
+type Panic struct{ Value any }
+
+func (p *Panic) Error() string { return fmt.Sprintf("panic in a worker: %v", p.Value) }

@@ -36,3 +36,26 @@ func TestCount(t *testing.T) {
 		t.Errorf("Count(3)=%d Count(0)=%d Count(-1)=%d", Count(3), Count(0), Count(-1))
 	}
 }
+
+// TestForCarriesPanics: a panic in an item reaches For's caller, where it
+// can be recovered, for any number of goroutines.
+func TestForCarriesPanics(t *testing.T) {
+	for _, g := range []int{1, 2, 8} {
+		func() {
+			defer func() {
+				v := recover()
+				if v == nil {
+					t.Fatalf("%d goroutines: the panic was lost", g)
+				}
+				if p, ok := v.(*Panic); ok && p.Value != "boom" || !ok && v != "boom" {
+					t.Errorf("%d goroutines: recovered %v", g, v)
+				}
+			}()
+			For(g, 100, func(_, i int) {
+				if i == 37 {
+					panic("boom")
+				}
+			})
+		}()
+	}
+}
