@@ -5,7 +5,7 @@ import (
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/classify"
-	"github.com/gapwise/gapwise/attribution/internal/scm"
+	"github.com/gapwise/gapwise/internal/scm"
 )
 
 // benchReplicates is the bootstrap size of BenchmarkBootstrap.

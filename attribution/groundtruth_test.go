@@ -12,7 +12,7 @@ import (
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/classify"
-	"github.com/gapwise/gapwise/attribution/internal/scm"
+	"github.com/gapwise/gapwise/internal/scm"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -38,7 +38,7 @@ const (
 // the default options (two-sided estimation, SideBoth, the default since
 // commit 13a9165; ground truth from 2^20 records, MC SE ≤ 0.0009):
 //
-//	go run ./attribution/internal/scm/cmd/gapwise-accuracy -sizes 20000 -reps 10 \
+//	go run ./cmd/gapwise-accuracy -sizes 20000 -reps 10 \
 //	    -learners linear+expanded -cases interaction,spread-narrow,prevalence,case-mix,combined -detail
 //
 // Measured largest RMSE (case/mechanism):

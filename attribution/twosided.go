@@ -41,7 +41,7 @@ const (
 // DefaultSide is the side used when Options.Side is SideDefault. The
 // accuracy study against simulated ground truth decided it:
 //
-//	go run ./attribution/internal/scm/cmd/gapwise-accuracy -sides -learners expanded -reps 3
+//	go run ./cmd/gapwise-accuracy -sides -learners expanded -reps 3
 //
 // pooled over the six synthetic screening cases (including a spread shift
 // in each direction), four metrics and 3 replicates, max / mean |φ̂ − φ| at

@@ -4,7 +4,7 @@
 #   testdata/bench/time-cli.sh [ROWS] [K...]
 #
 # Defaults: 200000 rows, K = 8 mechanisms. For each K it generates the
-# cohort with testdata/bench/gencohort (fairness/synth.BenchTable), builds
+# cohort with cmd/gapwise-benchcohort (fairness/synth.BenchTable), builds
 # gapwise, and times `decompose --format json` with hyperfine when present
 # (3 runs), otherwise once with /usr/bin/time -v (wall clock and peak
 # memory). Run from the repository root or anywhere inside it.
@@ -23,7 +23,7 @@ echo "gapwise $("$work/gapwise" --version | cut -d' ' -f2), $(nproc) CPUs, GOMAX
 
 for k in "${ks[@]}"; do
 	dir="$work/k$k"
-	go run ./testdata/bench/gencohort -rows "$rows" -k "$k" -out "$dir"
+	go run ./cmd/gapwise-benchcohort -rows "$rows" -k "$k" -out "$dir"
 	echo "== $rows rows, $k mechanisms ($(du -h "$dir/cohort.csv" | cut -f1) CSV)"
 	cmd="$work/gapwise decompose --spec $dir/spec.yaml --format json"
 	if command -v hyperfine >/dev/null 2>&1; then

@@ -1,9 +1,9 @@
-// Command gencohort writes a synthetic benchmark cohort and its spec for
-// timing the CLI (see ../time-cli.sh). The data is invented by
+// Command gapwise-benchcohort writes a synthetic benchmark cohort and its
+// spec for timing the CLI (see testdata/bench/time-cli.sh). The data is invented by
 // fairness/synth.BenchTable: a label and a chain of Gaussian findings whose
 // distributions differ between two groups.
 //
-//	go run ./testdata/bench/gencohort -rows 200000 -k 8 -out /tmp/bench
+//	go run ./cmd/gapwise-benchcohort -rows 200000 -k 8 -out /tmp/bench
 //
 // It writes cohort.csv and spec.yaml into -out (created if missing).
 package main
@@ -25,7 +25,7 @@ func main() {
 	out := flag.String("out", "bench-cohort", "output folder")
 	flag.Parse()
 	if err := run(*rows, *k, *seed, *out); err != nil {
-		fmt.Fprintln(os.Stderr, "gencohort:", err)
+		fmt.Fprintln(os.Stderr, "gapwise-benchcohort:", err)
 		os.Exit(1)
 	}
 }

@@ -9,7 +9,7 @@ import (
 	"testing"
 
 	"github.com/gapwise/gapwise/attribution"
-	"github.com/gapwise/gapwise/attribution/internal/scm"
+	"github.com/gapwise/gapwise/internal/scm"
 )
 
 // coverageDecomposition builds a one-metric decomposition whose gap interval

@@ -8,7 +8,7 @@ import (
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/classify"
-	"github.com/gapwise/gapwise/attribution/internal/scm"
+	"github.com/gapwise/gapwise/internal/scm"
 	"github.com/gapwise/gapwise/metrics"
 )
 

@@ -6,7 +6,7 @@ import (
 	"math"
 	"strings"
 
-	"github.com/gapwise/gapwise/attribution/internal/scm"
+	"github.com/gapwise/gapwise/internal/scm"
 )
 
 // writeSummary prints one row per (case, learner) with max and mean

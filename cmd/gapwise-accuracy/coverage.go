@@ -8,7 +8,7 @@ import (
 	"time"
 
 	"github.com/gapwise/gapwise/attribution"
-	"github.com/gapwise/gapwise/attribution/internal/scm"
+	"github.com/gapwise/gapwise/internal/scm"
 	"github.com/gapwise/gapwise/internal/workers"
 	"gonum.org/v1/gonum/mat"
 )

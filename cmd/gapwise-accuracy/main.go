@@ -3,9 +3,9 @@
 // causal models (package scm), for each classifier choice, case and sample
 // size, and prints a Markdown table.
 //
-//	go run ./attribution/internal/scm/cmd/gapwise-accuracy [-sizes 2000,10000,50000] [-reps 3]
-//	go run ./attribution/internal/scm/cmd/gapwise-accuracy -sides -learners auto
-//	go run ./attribution/internal/scm/cmd/gapwise-accuracy -coverage -learners expanded [-draws 30] [-boot 40]
+//	go run ./cmd/gapwise-accuracy [-sizes 2000,10000,50000] [-reps 3]
+//	go run ./cmd/gapwise-accuracy -sides -learners auto
+//	go run ./cmd/gapwise-accuracy -coverage -learners expanded [-draws 30] [-boot 40]
 //
 // Ground truth: every hybrid distribution simulated with common random
 // numbers and split with the Shapley (1953) formula. All data is synthetic.

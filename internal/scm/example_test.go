@@ -3,7 +3,7 @@ package scm_test
 import (
 	"fmt"
 
-	"github.com/gapwise/gapwise/attribution/internal/scm"
+	"github.com/gapwise/gapwise/internal/scm"
 	"github.com/gapwise/gapwise/metrics"
 )
 
