@@ -188,12 +188,6 @@ func observe(metricNames []string, g groupSplit, opt Options) ([]MetricDecomposi
 	return out, nil
 }
 
-// splitGaps evaluates the game of every metric from the reference records
-// and their log-ratios (SideReference), and fills the Shapley values.
-func splitGaps(mds []MetricDecomposition, refY, refS []float64, logr [][]float64, opt Options) error {
-	return splitGapsSides(mds, []*sideEstimate{newSideEstimate(SideReference, refY, refS, logr)}, opt)
-}
-
 // splitGapsSides evaluates the game of every metric from one side's records
 // or from both combined (see Side), and fills the Shapley values: exactly
 // over all coalitions when k ≤ opt.ExactLimit, otherwise by antithetic
@@ -247,7 +241,7 @@ func fillSummary(md *MetricDecomposition, phi []float64, v func(uint64) float64,
 	}
 }
 
-// splitGapsSampled is splitGaps for many mechanisms. The Shapley values of
+// splitGapsSampled is splitGapsSides for many mechanisms. The Shapley values of
 // S ↦ M(P_S) and of v(S) = M(P_S) − M(P_∅) coincide, so the sampler works
 // on M directly; ∅, N, {i} and N∖{i} are evaluated exactly for the summary.
 func splitGapsSampled(mds []MetricDecomposition, names []string, sides []*sideEstimate, opt Options, eopt EngineOptions) error {

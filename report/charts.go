@@ -108,15 +108,10 @@ func axisUnit(metric string) string {
 	return ""
 }
 
-// niceRange widens [lo, hi] by a margin and rounds it outwards to a
-// multiple of a 1-2-5 step, so that axis ends fall on readable numbers.
-func niceRange(lo, hi float64) (float64, float64) {
-	lo, hi, _ = niceAxis(lo, hi)
-	return lo, hi
-}
-
-// niceAxis is niceRange that also returns the 1-2-5 step, so that a chart
-// can put its ticks on multiples of it (both ends then carry a label).
+// niceAxis widens [lo, hi] by a margin and rounds it outwards to a
+// multiple of a 1-2-5 step, so that axis ends fall on readable numbers,
+// and returns the step, so that a chart can put its ticks on multiples of
+// it (both ends then carry a label).
 func niceAxis(lo, hi float64) (float64, float64, float64) {
 	span := hi - lo
 	if !(span > 0) {

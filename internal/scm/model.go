@@ -135,13 +135,3 @@ func (m *Model) ShiftedSet() Coalition {
 	}
 	return s
 }
-
-// Index returns the index of the named node, or −1.
-func (m *Model) Index(name string) int {
-	for i, n := range m.Nodes {
-		if n.Name == name {
-			return i
-		}
-	}
-	return -1
-}
