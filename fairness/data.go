@@ -86,9 +86,9 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 	csvErr := func(err error) error {
 		var pe *csv.ParseError
 		if errors.As(err, &pe) {
-			return derr(pe.Line, "", wrapf(ErrCSVSyntax, "malformed CSV at column %d: %v", pe.Column, pe.Err))
+			return derr(pe.Line, "", wrapCause(ErrCSVSyntax, pe, "malformed CSV at column %d: %v", pe.Column, pe.Err))
 		}
-		return derr(0, "", wrapf(ErrReadFailed, "cannot read data file: %v", err))
+		return derr(0, "", wrapCause(ErrReadFailed, err, "cannot read data file: %v", err))
 	}
 
 	header, err := cr.Read()

@@ -41,7 +41,7 @@ var (
 	ErrMissingColumn   = errors.New("column not in header")
 	ErrRaggedRow       = errors.New("row has the wrong number of fields")
 	ErrNotNumeric      = errors.New("not a number")
-	ErrNotBinary       = errors.New("label is not binary")
+	ErrNotBinary       = metrics.ErrNotBinary // one sentinel for labels that are not 0/1, here and in metrics
 	ErrScoreRange      = errors.New("score outside [0, 1]")
 	ErrMissingValue    = errors.New("missing value")
 	ErrGroupAbsent     = errors.New("group value absent")
@@ -134,15 +134,29 @@ func IsInputError(err error) bool {
 // sentinel's own words.
 type inputError struct {
 	sentinel error
+	cause    error // the underlying error, e.g. a *csv.ParseError; may be nil
 	msg      string
 }
 
 func (e *inputError) Error() string { return e.msg }
-func (e *inputError) Unwrap() error { return e.sentinel }
+
+// Unwrap gives errors.Is and errors.As both the sentinel and the cause.
+func (e *inputError) Unwrap() []error {
+	if e.cause == nil {
+		return []error{e.sentinel}
+	}
+	return []error{e.sentinel, e.cause}
+}
 
 // wrapf returns an error reading like format that wraps sentinel.
 func wrapf(sentinel error, format string, args ...any) error {
 	return &inputError{sentinel: sentinel, msg: fmt.Sprintf(format, args...)}
+}
+
+// wrapCause is wrapf that also keeps cause reachable through errors.As
+// (the message is still format's alone).
+func wrapCause(sentinel, cause error, format string, args ...any) error {
+	return &inputError{sentinel: sentinel, cause: cause, msg: fmt.Sprintf(format, args...)}
 }
 
 // specErr builds a *SpecError whose Err reads like format and wraps
