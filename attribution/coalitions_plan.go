@@ -37,21 +37,27 @@ const (
 	comboAll    = 0xf
 )
 
+// recordCombos maps the records a metric counts (metrics.Fact.Counts) to
+// the cell classes it needs.
+var recordCombos = map[metrics.Records]uint8{
+	metrics.AllRecords:      comboAll,
+	metrics.Negatives:       comboNeg,
+	metrics.Positives:       comboPos,
+	metrics.DecidedPositive: comboDecPos,
+	metrics.DecidedNegative: comboDecNeg,
+	metrics.BothClasses:     comboAll,
+}
+
 func newMetricPlan(names []string, eceBins int) (metricPlan, error) {
 	p := metricPlan{names: names, bins: 1, auc: -1}
 	var feats [numFeatures]bool
 	for m, name := range names {
-		combos, fs := uint8(comboAll), []int{featW}
+		fact, ok := metrics.FactOf(name)
+		if !ok {
+			return p, fmt.Errorf("attribution: metric %q: %w", name, ErrUnsupportedMetric)
+		}
+		combos, fs := recordCombos[fact.Counts], []int{featW}
 		switch name {
-		case metrics.NameFPR:
-			combos = comboNeg
-		case metrics.NameTPR, metrics.NameFNR:
-			combos = comboPos
-		case metrics.NamePPV:
-			combos = comboDecPos
-		case metrics.NameNPV:
-			combos = comboDecNeg
-		case metrics.NameSelectionRate, metrics.NameAccuracy:
 		case metrics.NameBrier:
 			fs = []int{featW, featWS, featWS2}
 		case metrics.NameLogLoss:
@@ -67,8 +73,6 @@ func newMetricPlan(names []string, eceBins int) (metricPlan, error) {
 			}
 			p.auc = m
 			continue
-		default:
-			return p, fmt.Errorf("attribution: metric %q: %w", name, ErrUnsupportedMetric)
 		}
 		p.combos |= combos
 		for _, f := range fs {

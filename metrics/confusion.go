@@ -71,9 +71,6 @@ func (c Confusion) Rate(name string) (float64, error) {
 // IsThreshold reports whether the metric called name depends on the
 // decision threshold (and so is a function of the confusion counts alone).
 func IsThreshold(name string) bool {
-	switch name {
-	case NameFPR, NameTPR, NameFNR, NamePPV, NameNPV, NameSelectionRate, NameAccuracy:
-		return true
-	}
-	return false
+	f, _ := FactOf(name)
+	return f.Threshold
 }

@@ -23,19 +23,20 @@ const (
 	DefaultECEBins            = 10
 )
 
-// Names lists every supported metric name in a fixed order.
+// Names lists every supported metric name in a fixed order (that of the
+// facts table, Facts).
 func Names() []string {
-	return []string{NameFPR, NameTPR, NameFNR, NamePPV, NameNPV, NameSelectionRate, NameAccuracy, NameBrier, NameLogLoss, NameCalibrationInTheLarge, NameECE, NameAUC}
+	out := make([]string, len(facts))
+	for i, f := range facts {
+		out[i] = f.Name
+	}
+	return out
 }
 
 // Known reports whether name is a supported metric.
 func Known(name string) bool {
-	for _, n := range Names() {
-		if n == name {
-			return true
-		}
-	}
-	return false
+	_, ok := FactOf(name)
+	return ok
 }
 
 // ErrUndefined is wrapped by errors for a metric that has no value on the

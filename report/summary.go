@@ -19,27 +19,11 @@ import (
 // is printed (shared by HTML and Markdown so that both show the same text),
 // and the plain-language summary paragraph built from a Result.
 
-// metricTitle is the name of a metric in running text.
-var metricTitle = map[string]string{
-	metrics.NameFPR:                   "false-positive rate",
-	metrics.NameTPR:                   "true-positive rate",
-	metrics.NameFNR:                   "false-negative rate",
-	metrics.NamePPV:                   "positive predictive value",
-	metrics.NameNPV:                   "negative predictive value",
-	metrics.NameSelectionRate:         "share flagged positive",
-	metrics.NameAccuracy:              "accuracy",
-	metrics.NameBrier:                 "Brier score",
-	metrics.NameLogLoss:               "log loss",
-	metrics.NameCalibrationInTheLarge: "calibration-in-the-large (mean score − event rate)",
-	metrics.NameECE:                   "expected calibration error",
-	metrics.NameAUC:                   "area under the ROC curve",
-}
-
 // MetricTitle returns the plain-language name of a metric, or the metric's
 // own name when it has none.
 func MetricTitle(name string) string {
-	if t, ok := metricTitle[name]; ok {
-		return t
+	if f, ok := metrics.FactOf(name); ok {
+		return f.Title
 	}
 	return name
 }
@@ -47,7 +31,8 @@ func MetricTitle(name string) string {
 // isProportion reports whether a metric is a share of records, printed as a
 // percentage with gaps in percentage points.
 func isProportion(name string) bool {
-	return metrics.IsThreshold(name)
+	f, _ := metrics.FactOf(name)
+	return f.Proportion
 }
 
 // formatValue prints a metric value: proportions as "12.3%", other metrics
