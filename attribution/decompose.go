@@ -171,6 +171,15 @@ func withDefaults(opt Options) Options {
 	return opt
 }
 
+// Observe computes every metric on each group's records of s (the
+// observed values and their gap, Comparison − Reference; the estimates are
+// left zero), at threshold and with eceBins bins (0: the default). It is
+// the first step of Decompose. A metric without a value in a group gives a
+// *MetricError naming the group.
+func Observe(s *Sample, metricNames []string, threshold float64, eceBins int) ([]MetricDecomposition, error) {
+	return observe(metricNames, splitGroups(s), withDefaults(Options{Threshold: threshold, ECEBins: eceBins}))
+}
+
 // observe computes each metric on the two groups' records, unweighted.
 func observe(metricNames []string, g groupSplit, opt Options) ([]MetricDecomposition, error) {
 	var out []MetricDecomposition

@@ -1,7 +1,6 @@
 package fairness
 
 import (
-	"errors"
 	"math"
 
 	"github.com/gapwise/gapwise/attribution"
@@ -87,20 +86,6 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		return nil, err
 	}
 	return r, nil
-}
-
-// prepare loads the data, checks that every metric has a value in both
-// groups and encodes the graph columns for attribution.
-func prepare(spec *Spec) (*Dataset, *attribution.Sample, []attribution.Mechanism, error) {
-	d, err := LoadData(spec)
-	if err != nil {
-		return nil, nil, nil, err
-	}
-	if err := checkMetricsDefined(spec, d); err != nil {
-		return nil, nil, nil, err
-	}
-	sample, mechs := encode(spec, d)
-	return d, sample, mechs, nil
 }
 
 // candidateLearners returns the learners a classifier setting stands for
@@ -246,16 +231,6 @@ func interval(iv *attribution.Interval) *Interval {
 		return nil
 	}
 	return &Interval{Low: iv.Low, High: iv.High}
-}
-
-// decomposeError names the group's value in an *attribution.MetricError
-// (which only knows "reference" or "comparison"); other errors pass through.
-func decomposeError(spec *Spec, err error) error {
-	var me *attribution.MetricError
-	if errors.As(err, &me) {
-		return undefinedMetric(spec, me.Metric, me.Group == attribution.GroupComparison)
-	}
-	return err
 }
 
 // finite returns &x, or nil when x is NaN or infinite (JSON has no NaN).

@@ -1,0 +1,128 @@
+package fairness
+
+// Data preparation shared by Run and Plan: loading, encoding the graph
+// columns, and the mapping of an undefined metric to its input error.
+
+import (
+	"errors"
+
+	"gonum.org/v1/gonum/mat"
+
+	"github.com/gapwise/gapwise/attribution"
+	"github.com/gapwise/gapwise/metrics"
+)
+
+// prepare loads the data named by spec and encodes the graph columns for
+// attribution. Whether every metric has a value in both groups is checked
+// once, by the first step that needs the observed metrics: Decompose in
+// Run, observeMetrics in Plan; decomposeError maps the error for both.
+func prepare(spec *Spec) (*Dataset, *attribution.Sample, []attribution.Mechanism, error) {
+	d, err := LoadData(spec)
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	sample, mechs := encode(spec, d)
+	return d, sample, mechs, nil
+}
+
+// decomposeError names the group's value in an *attribution.MetricError
+// (which only knows "reference" or "comparison"); other errors pass through.
+func decomposeError(spec *Spec, err error) error {
+	var me *attribution.MetricError
+	if errors.As(err, &me) {
+		return undefinedMetric(spec, me.Metric, me.Group == attribution.GroupComparison)
+	}
+	return err
+}
+
+// groupInfo summarises the groups of a loaded dataset.
+func groupInfo(spec *Spec, d *Dataset) GroupInfo {
+	nRef, nCmp := d.Counts()
+	return GroupInfo{
+		Column:            spec.Groups.Column,
+		Reference:         spec.Groups.Reference,
+		Comparison:        spec.Groups.Comparison,
+		NReference:        nRef,
+		NComparison:       nCmp,
+		DroppedReference:  d.DroppedReference,
+		DroppedComparison: d.DroppedComparison,
+	}
+}
+
+// encode builds the attribution sample and one mechanism per graph node.
+// The feature matrix X has one column per numeric graph column and one 0/1
+// column per level of a categorical column (x = [level = ℓ]), in the order
+// of Dataset.Columns. A mechanism's NodeCols are the feature columns of the
+// node's data columns and its ParentCols those of its parents, in the order
+// the parents are listed.
+func encode(spec *Spec, d *Dataset) (*attribution.Sample, []attribution.Mechanism) {
+	n := len(d.Labels)
+	p := 0
+	cols := map[string][]int{}
+	for _, c := range d.Columns {
+		width := 1
+		if c.Categorical {
+			width = len(c.Levels)
+		}
+		for k := 0; k < width; k++ {
+			cols[c.Name] = append(cols[c.Name], p+k)
+		}
+		p += width
+	}
+	x := mat.NewDense(n, max(p, 1), nil)
+	for _, c := range d.Columns {
+		idx := cols[c.Name]
+		for i, v := range c.Values {
+			if c.Categorical {
+				x.Set(i, idx[int(v)], 1)
+			} else {
+				x.Set(i, idx[0], v)
+			}
+		}
+	}
+	nodeCols := map[string][]int{}
+	for _, node := range spec.Graph {
+		for _, c := range node.Columns {
+			nodeCols[node.Node] = append(nodeCols[node.Node], cols[c]...)
+		}
+	}
+	mechs := make([]attribution.Mechanism, len(spec.Graph))
+	for i, node := range spec.Graph {
+		m := attribution.Mechanism{Node: node.Node, Parents: append([]string(nil), node.Parents...), NodeCols: nodeCols[node.Node]}
+		for _, par := range node.Parents {
+			m.ParentCols = append(m.ParentCols, nodeCols[par]...)
+		}
+		mechs[i] = m
+	}
+	sample := &attribution.Sample{
+		X:          x,
+		Comparison: append([]bool(nil), d.Comparison...),
+		Labels:     append([]float64(nil), d.Labels...),
+		Scores:     append([]float64(nil), d.Scores...),
+	}
+	return sample, mechs
+}
+
+// observeMetrics computes every metric on each group's records
+// (attribution.Observe) and turns a metric without a value into a
+// *MetricUndefinedError naming the group's value (decomposeError).
+func observeMetrics(spec *Spec, s *attribution.Sample) error {
+	_, err := attribution.Observe(s, spec.Metrics, spec.Threshold, spec.ECEBins)
+	return decomposeError(spec, err)
+}
+
+// undefinedMetric builds the error for metric name in one group.
+func undefinedMetric(spec *Spec, name string, comparison bool) *MetricUndefinedError {
+	g := spec.Groups.Reference
+	if comparison {
+		g = spec.Groups.Comparison
+	}
+	return &MetricUndefinedError{Metric: name, Group: g, Column: spec.Groups.Column, Reason: undefinedReason(name)}
+}
+
+// undefinedReason says what a group lacks when metric name has no value:
+// the denominator of each metric (see metrics.Confusion.Rate).
+func undefinedReason(name string) string {
+	f, _ := metrics.FactOf(name)
+	return f.UndefinedReason()
+}
