@@ -75,71 +75,17 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	// the weight diagnostics are skipped there.
 	diag := chosen == nil
 	for i, mr := range ratios {
-		raw := pick(mr.LogRatio, g.refIdx)
-		if !diag {
-			logr[i] = raw
-			if opt.ClipQuantile != 0 && useRef {
-				if logr[i], _, err = ClipAtQuantiles(raw, opt.ClipQuantile); err != nil {
-					return nil, nil, err
-				}
-			}
-			if useCmp {
-				logrCmp[i] = pick(mr.LogRatio, g.cmpIdx)
-				if opt.ClipQuantile != 0 {
-					if logrCmp[i], _, err = ClipAtQuantiles(logrCmp[i], opt.ClipQuantile); err != nil {
-						return nil, nil, err
-					}
-				}
-			}
-			continue
+		ref, cmp, clipped, err := sideLogRatios(mr, g, opt, useRef, useCmp)
+		if err != nil {
+			return nil, nil, err
 		}
-		rep := MechanismReport{
-			Mechanism:     mr.Mechanism,
-			Learner:       mr.Learner,
-			ParentLearner: mr.ParentLearner,
-			Losses:        mr.Losses,
-			ExtremeShare:  ExtremeShare(raw),
-			TailShape:     TailShape(raw),
-			MeanRatio:     SummariseLogWeights(raw).MeanRatio,
-		}
-		var key []float64
-		if mr.ParentLearner != PriorLearner {
-			// logit P(cmp | pa_i) = logit P(cmp | x_i, pa_i) − log r_i.
-			key = make([]float64, len(raw))
-			for a, r := range g.refIdx {
-				key[a] = mr.JointLogOdds[r] - mr.LogRatio[r]
-			}
-		}
-		rep.WorstStratumMean = WorstStratumMean(raw, key)
-		logr[i] = raw
-		if opt.ClipQuantile != 0 && useRef {
-			if logr[i], rep.ClippedReference, err = ClipAtQuantiles(raw, opt.ClipQuantile); err != nil {
-				return nil, nil, err
-			}
-		}
-		ws := SummariseLogWeights(logr[i])
-		rep.ESS, rep.MaxShare = ws.ESS, ws.MaxShare
+		logr[i] = ref
 		if useCmp {
-			logrCmp[i] = pick(mr.LogRatio, g.cmpIdx)
-			if opt.ClipQuantile != 0 {
-				if logrCmp[i], rep.ClippedComparison, err = ClipAtQuantiles(logrCmp[i], opt.ClipQuantile); err != nil {
-					return nil, nil, err
-				}
-			}
-			neg := make([]float64, len(logrCmp[i]))
-			for r, x := range logrCmp[i] {
-				neg[r] = -x
-			}
-			rep.ComparisonESS = SummariseLogWeights(neg).ESS
-			rep.ComparisonTailShape = TailShape(neg)
-			rep.ComparisonExtremeShare = ExtremeShare(neg)
+			logrCmp[i] = cmp
 		}
-		// Out-of-fold AUC of the (node, parents) classifier; both groups
-		// are present, so it is defined.
-		if rep.AUC, err = metrics.AUC(member, mr.JointLogOdds, nil); err != nil {
-			rep.AUC = math.NaN()
+		if diag {
+			out.Mechanisms = append(out.Mechanisms, mechanismReport(mr, g, ref, cmp, clipped, member))
 		}
-		out.Mechanisms = append(out.Mechanisms, rep)
 	}
 	var sides []*sideEstimate
 	if useRef {
@@ -159,6 +105,78 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	}
 	effectiveRecords(out.Metrics, sides, opt)
 	return out, ratios, nil
+}
+
+// sideLogRatios returns a mechanism's log-ratios at the reference records
+// and, when useCmp, at the comparison records, each clipped to its central
+// ClipQuantile interval (ClipAtQuantiles) when clipping is on; reference
+// ratios are clipped only when the reference side estimates (useRef).
+// clipped counts the clipped records of each side.
+func sideLogRatios(mr MechanismRatio, g groupSplit, opt Options, useRef, useCmp bool) (ref, cmp []float64, clipped [2]int, err error) {
+	ref = pick(mr.LogRatio, g.refIdx)
+	if opt.ClipQuantile != 0 && useRef {
+		if ref, clipped[0], err = ClipAtQuantiles(ref, opt.ClipQuantile); err != nil {
+			return nil, nil, clipped, err
+		}
+	}
+	if useCmp {
+		cmp = pick(mr.LogRatio, g.cmpIdx)
+		if opt.ClipQuantile != 0 {
+			if cmp, clipped[1], err = ClipAtQuantiles(cmp, opt.ClipQuantile); err != nil {
+				return nil, nil, clipped, err
+			}
+		}
+	}
+	return ref, cmp, clipped, nil
+}
+
+// mechanismReport builds the diagnostics of one mechanism: the learners
+// chosen, and over the reference records the extreme share, tail shape,
+// mean ratio and worst-stratum mean ratio of its unclipped ratios and the
+// effective sample size and largest weight share of the (clipped) ref; with
+// comparison log-ratios cmp (nil when unused) the same checks of the
+// inverse ratios 1/r over the comparison records; and the out-of-fold AUC
+// of its (node, parents) classifier over both groups (member: 1 for
+// comparison records).
+func mechanismReport(mr MechanismRatio, g groupSplit, ref, cmp []float64, clipped [2]int, member []float64) MechanismReport {
+	raw := pick(mr.LogRatio, g.refIdx)
+	rep := MechanismReport{
+		Mechanism:         mr.Mechanism,
+		Learner:           mr.Learner,
+		ParentLearner:     mr.ParentLearner,
+		Losses:            mr.Losses,
+		ExtremeShare:      ExtremeShare(raw),
+		TailShape:         TailShape(raw),
+		MeanRatio:         SummariseLogWeights(raw).MeanRatio,
+		ClippedReference:  clipped[0],
+		ClippedComparison: clipped[1],
+	}
+	var key []float64
+	if mr.ParentLearner != PriorLearner {
+		// logit P(cmp | pa_i) = logit P(cmp | x_i, pa_i) − log r_i.
+		key = make([]float64, len(raw))
+		for a, r := range g.refIdx {
+			key[a] = mr.JointLogOdds[r] - mr.LogRatio[r]
+		}
+	}
+	rep.WorstStratumMean = WorstStratumMean(raw, key)
+	ws := SummariseLogWeights(ref)
+	rep.ESS, rep.MaxShare = ws.ESS, ws.MaxShare
+	if cmp != nil {
+		neg := make([]float64, len(cmp))
+		for r, x := range cmp {
+			neg[r] = -x
+		}
+		rep.ComparisonESS = SummariseLogWeights(neg).ESS
+		rep.ComparisonTailShape = TailShape(neg)
+		rep.ComparisonExtremeShare = ExtremeShare(neg)
+	}
+	// Both groups are present, so the AUC is defined.
+	var err error
+	if rep.AUC, err = metrics.AUC(member, mr.JointLogOdds, nil); err != nil {
+		rep.AUC = math.NaN()
+	}
+	return rep
 }
 
 func withDefaults(opt Options) Options {
