@@ -80,23 +80,70 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 	cr := csv.NewReader(io.TeeReader(r, h))
 	cr.FieldsPerRecord = -1
 	cr.ReuseRecord = true
-	derr := func(line int, col string, err error) error {
-		return &DataError{File: name, Line: line, Column: col, Err: err}
+	l := &csvLoader{cr: cr, name: name, spec: spec}
+	if err := l.readHeader(); err != nil {
+		return nil, err
 	}
-	csvErr := func(err error) error {
-		var pe *csv.ParseError
-		if errors.As(err, &pe) {
-			return derr(pe.Line, "", wrapCause(ErrCSVSyntax, pe, "malformed CSV at column %d: %v", pe.Column, pe.Err))
+	if err := l.readRows(); err != nil {
+		return nil, err
+	}
+	if err := l.checkGroups(); err != nil {
+		return nil, err
+	}
+	d := l.d
+	for j := range d.Columns {
+		if d.Columns[j].Categorical {
+			d.Columns[j].Levels, d.Columns[j].Values = codeLevels(l.raw[j])
 		}
-		return derr(0, "", wrapCause(ErrReadFailed, err, "cannot read data file: %v", err))
 	}
+	d.SHA256 = hex.EncodeToString(h.Sum(nil))
+	return d, nil
+}
 
-	header, err := cr.Read()
+// csvLoader holds the state of ReadData between its phases: the header's
+// column positions, the dataset being filled and the per-group counts.
+type csvLoader struct {
+	cr   *csv.Reader
+	name string
+	spec *Spec
+
+	width                        int      // fields of the header
+	groupIdx, labelIdx, scoreIdx int      // their fields
+	names                        []string // graph columns (Spec.Columns)
+	colIdx                       []int    // field of each graph column
+	categorical                  map[string]bool
+
+	d                      *Dataset
+	raw                    [][]string // categorical cells of kept rows
+	rows, seenRef, seenCmp int        // all records, and those of each group
+	rowVals                []float64
+	rowRaw                 []string
+}
+
+// derr builds the *DataError of a problem at line (0: none) and column.
+func (l *csvLoader) derr(line int, col string, err error) error {
+	return &DataError{File: l.name, Line: line, Column: col, Err: err}
+}
+
+// csvErr maps a csv.Reader error, keeping it reachable (errors.As).
+func (l *csvLoader) csvErr(err error) error {
+	var pe *csv.ParseError
+	if errors.As(err, &pe) {
+		return l.derr(pe.Line, "", wrapCause(ErrCSVSyntax, pe, "malformed CSV at column %d: %v", pe.Column, pe.Err))
+	}
+	return l.derr(0, "", wrapCause(ErrReadFailed, err, "cannot read data file: %v", err))
+}
+
+// readHeader reads the header row (a byte-order mark before the first name
+// is ignored), refuses duplicate names and finds every column the spec
+// needs.
+func (l *csvLoader) readHeader() error {
+	header, err := l.cr.Read()
 	if err == io.EOF {
-		return nil, derr(0, "", wrapf(ErrEmptyFile, "the file is empty; it needs a header row and records"))
+		return l.derr(0, "", wrapf(ErrEmptyFile, "the file is empty; it needs a header row and records"))
 	}
 	if err != nil {
-		return nil, csvErr(err)
+		return l.csvErr(err)
 	}
 	pos := map[string]int{}
 	for i, hname := range header {
@@ -105,175 +152,222 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 			hname = strings.TrimPrefix(hname, "\ufeff")
 		}
 		if _, dup := pos[hname]; dup {
-			return nil, derr(1, hname, wrapf(ErrDuplicateHeader, "appears twice in the header (fields %d and %d)", pos[hname]+1, i+1))
+			return l.derr(1, hname, wrapf(ErrDuplicateHeader, "appears twice in the header (fields %d and %d)", pos[hname]+1, i+1))
 		}
 		pos[hname] = i
 	}
-	width := len(header)
+	l.width = len(header)
 	need := func(col string) (int, error) {
 		i, ok := pos[col]
 		if !ok {
-			return 0, derr(1, col, wrapf(ErrMissingColumn, "not found in the header (needed by the spec)"))
+			return 0, l.derr(1, col, wrapf(ErrMissingColumn, "not found in the header (needed by the spec)"))
 		}
 		return i, nil
 	}
-	groupIdx, err := need(spec.Groups.Column)
-	if err != nil {
-		return nil, err
+	spec := l.spec
+	if l.groupIdx, err = need(spec.Groups.Column); err != nil {
+		return err
 	}
-	labelIdx, err := need(spec.Label)
-	if err != nil {
-		return nil, err
+	if l.labelIdx, err = need(spec.Label); err != nil {
+		return err
 	}
-	scoreIdx, err := need(spec.Score)
-	if err != nil {
-		return nil, err
+	if l.scoreIdx, err = need(spec.Score); err != nil {
+		return err
 	}
-	names := spec.Columns()
-	colIdx := make([]int, len(names))
-	categorical := map[string]bool{}
+	l.names = spec.Columns()
+	l.colIdx = make([]int, len(l.names))
+	l.categorical = map[string]bool{}
 	for _, c := range spec.Categorical {
-		categorical[c] = true
+		l.categorical[c] = true
 	}
-	for j, c := range names {
-		if colIdx[j], err = need(c); err != nil {
-			return nil, err
+	for j, c := range l.names {
+		if l.colIdx[j], err = need(c); err != nil {
+			return err
 		}
 	}
-
-	d := &Dataset{Path: name, Columns: make([]Column, len(names))}
-	raw := make([][]string, len(names)) // categorical cells of kept rows
-	for j, c := range names {
-		d.Columns[j] = Column{Name: c, Categorical: categorical[c]}
+	l.d = &Dataset{Path: l.name, Columns: make([]Column, len(l.names))}
+	l.raw = make([][]string, len(l.names))
+	for j, c := range l.names {
+		l.d.Columns[j] = Column{Name: c, Categorical: l.categorical[c]}
 	}
-	var rows, seenRef, seenCmp int // all records, and those of each group
-	rowVals := make([]float64, len(names))
-	rowRaw := make([]string, len(names))
+	l.rowVals = make([]float64, len(l.names))
+	l.rowRaw = make([]string, len(l.names))
+	return nil
+}
+
+// readRows reads every record after the header (readRow).
+func (l *csvLoader) readRows() error {
 	for {
-		rec, err := cr.Read()
+		rec, err := l.cr.Read()
 		if err == io.EOF {
 			break
 		}
 		if err != nil {
-			return nil, csvErr(err)
+			return l.csvErr(err)
 		}
-		rows++
-		line, _ := cr.FieldPos(0)
-		if len(rec) != width {
-			return nil, derr(line, "", wrapf(ErrRaggedRow, "the row has %d fields but the header has %d", len(rec), width))
+		if err := l.readRow(rec); err != nil {
+			return err
 		}
-		cell := func(i int) string { return strings.TrimSpace(rec[i]) }
-		at := func(i int) int { l, _ := cr.FieldPos(i); return l }
+	}
+	if l.rows == 0 {
+		return l.derr(0, "", wrapf(ErrNoRecords, "the file has a header but no records"))
+	}
+	return nil
+}
 
-		g := cell(groupIdx)
-		isCmp := g == spec.Groups.Comparison
-		if isMissing(g) && !spec.DropMissing() {
-			return nil, derr(at(groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %q (set missing: drop to skip such rows)", g))
-		}
-		if !isCmp && g != spec.Groups.Reference {
-			continue
-		}
+// csvRow is one record being read: its fields, its line, and whether a
+// missing value drops it.
+type csvRow struct {
+	l       *csvLoader
+	rec     []string
+	dropped bool
+}
+
+func (r *csvRow) cell(i int) string { return strings.TrimSpace(r.rec[i]) }
+func (r *csvRow) at(i int) int      { line, _ := r.l.cr.FieldPos(i); return line }
+
+// missing reports whether field i (column col) is missing; with missing:
+// drop it marks the row dropped, otherwise it is an error.
+func (r *csvRow) missing(i int, col string) (bool, error) {
+	if !isMissing(r.cell(i)) {
+		return false, nil
+	}
+	if r.l.spec.DropMissing() {
+		r.dropped = true
+		return true, nil
+	}
+	return true, r.l.derr(r.at(i), col, wrapf(ErrMissingValue, "missing value %q (set missing: drop to drop such rows)", r.cell(i)))
+}
+
+// readRow checks one record's width and group, parses its label, score
+// and graph columns, and keeps it unless a missing value drops it (counted
+// per group). Rows of other groups are skipped.
+func (l *csvLoader) readRow(rec []string) error {
+	l.rows++
+	line, _ := l.cr.FieldPos(0)
+	if len(rec) != l.width {
+		return l.derr(line, "", wrapf(ErrRaggedRow, "the row has %d fields but the header has %d", len(rec), l.width))
+	}
+	r := &csvRow{l: l, rec: rec}
+	spec := l.spec
+	g := r.cell(l.groupIdx)
+	isCmp := g == spec.Groups.Comparison
+	if isMissing(g) && !spec.DropMissing() {
+		return l.derr(r.at(l.groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %q (set missing: drop to skip such rows)", g))
+	}
+	if !isCmp && g != spec.Groups.Reference {
+		return nil
+	}
+	if isCmp {
+		l.seenCmp++
+	} else {
+		l.seenRef++
+	}
+	label, score, err := l.parseOutcome(r)
+	if err != nil {
+		return err
+	}
+	if err := l.parseColumns(r, label, score); err != nil {
+		return err
+	}
+	if r.dropped {
 		if isCmp {
-			seenCmp++
+			l.d.DroppedComparison++
 		} else {
-			seenRef++
+			l.d.DroppedReference++
 		}
+		return nil
+	}
+	l.keep(line, label, score, isCmp)
+	return nil
+}
 
-		dropped := false
-		missing := func(i int, col string) (bool, error) {
-			if !isMissing(cell(i)) {
-				return false, nil
-			}
-			if spec.DropMissing() {
-				dropped = true
-				return true, nil
-			}
-			return true, derr(at(i), col, wrapf(ErrMissingValue, "missing value %q (set missing: drop to drop such rows)", cell(i)))
+// parseOutcome parses the row's label and score (zero when missing).
+func (l *csvLoader) parseOutcome(r *csvRow) (label, score float64, err error) {
+	spec := l.spec
+	if m, err := r.missing(l.labelIdx, spec.Label); err != nil {
+		return 0, 0, err
+	} else if !m {
+		if label, err = parseLabel(r.cell(l.labelIdx)); err != nil {
+			return 0, 0, l.derr(r.at(l.labelIdx), spec.Label, err)
 		}
-		var label, score float64
-		if m, err := missing(labelIdx, spec.Label); err != nil {
-			return nil, err
-		} else if !m {
-			if label, err = parseLabel(cell(labelIdx)); err != nil {
-				return nil, derr(at(labelIdx), spec.Label, err)
-			}
+	}
+	if m, err := r.missing(l.scoreIdx, spec.Score); err != nil {
+		return 0, 0, err
+	} else if !m {
+		if score, err = parseScore(r.cell(l.scoreIdx)); err != nil {
+			return 0, 0, l.derr(r.at(l.scoreIdx), spec.Score, err)
 		}
-		if m, err := missing(scoreIdx, spec.Score); err != nil {
-			return nil, err
-		} else if !m {
-			if score, err = parseScore(cell(scoreIdx)); err != nil {
-				return nil, derr(at(scoreIdx), spec.Score, err)
-			}
-		}
-		for j, c := range names {
-			i := colIdx[j]
-			if i == labelIdx || i == scoreIdx {
-				rowVals[j] = label
-				if i == scoreIdx {
-					rowVals[j] = score
-				}
-				continue
-			}
-			m, err := missing(i, c)
-			if err != nil {
-				return nil, err
-			}
-			switch {
-			case m:
-			case categorical[c]:
-				rowRaw[j] = cell(i)
-			default:
-				if rowVals[j], err = parseNumber(cell(i)); err != nil {
-					return nil, derr(at(i), c, err)
-				}
-			}
-		}
-		if dropped {
-			if isCmp {
-				d.DroppedComparison++
-			} else {
-				d.DroppedReference++
+	}
+	return label, score, nil
+}
+
+// parseColumns parses the row's graph columns into rowVals (numbers) and
+// rowRaw (categorical cells); the label and score reuse their values.
+func (l *csvLoader) parseColumns(r *csvRow, label, score float64) error {
+	for j, c := range l.names {
+		i := l.colIdx[j]
+		if i == l.labelIdx || i == l.scoreIdx {
+			l.rowVals[j] = label
+			if i == l.scoreIdx {
+				l.rowVals[j] = score
 			}
 			continue
 		}
-		d.Labels = append(d.Labels, label)
-		d.Scores = append(d.Scores, score)
-		d.Comparison = append(d.Comparison, isCmp)
-		d.Lines = append(d.Lines, line)
-		for j := range names {
-			d.Columns[j].Values = append(d.Columns[j].Values, rowVals[j])
-			if categorical[names[j]] {
-				raw[j] = append(raw[j], rowRaw[j])
+		m, err := r.missing(i, c)
+		if err != nil {
+			return err
+		}
+		switch {
+		case m:
+		case l.categorical[c]:
+			l.rowRaw[j] = r.cell(i)
+		default:
+			if l.rowVals[j], err = parseNumber(r.cell(i)); err != nil {
+				return l.derr(r.at(i), c, err)
 			}
 		}
 	}
-	if rows == 0 {
-		return nil, derr(0, "", wrapf(ErrNoRecords, "the file has a header but no records"))
+	return nil
+}
+
+// keep appends the parsed row to the dataset.
+func (l *csvLoader) keep(line int, label, score float64, isCmp bool) {
+	d := l.d
+	d.Labels = append(d.Labels, label)
+	d.Scores = append(d.Scores, score)
+	d.Comparison = append(d.Comparison, isCmp)
+	d.Lines = append(d.Lines, line)
+	for j := range l.names {
+		d.Columns[j].Values = append(d.Columns[j].Values, l.rowVals[j])
+		if l.categorical[l.names[j]] {
+			l.raw[j] = append(l.raw[j], l.rowRaw[j])
+		}
 	}
+}
+
+// checkGroups refuses a group value that never appears and a group that
+// keeps fewer rows than there are folds.
+func (l *csvLoader) checkGroups() error {
+	spec := l.spec
 	for _, gc := range []struct {
 		value string
 		seen  int
-	}{{spec.Groups.Reference, seenRef}, {spec.Groups.Comparison, seenCmp}} {
+	}{{spec.Groups.Reference, l.seenRef}, {spec.Groups.Comparison, l.seenCmp}} {
 		if gc.seen == 0 {
-			return nil, derr(0, spec.Groups.Column, wrapf(ErrGroupAbsent, "group value %q does not appear in the column", gc.value))
+			return l.derr(0, spec.Groups.Column, wrapf(ErrGroupAbsent, "group value %q does not appear in the column", gc.value))
 		}
 	}
-	nRef, nCmp := d.Counts()
+	nRef, nCmp := l.d.Counts()
 	for _, gc := range []struct {
 		value      string
 		kept, seen int
-	}{{spec.Groups.Reference, nRef, seenRef}, {spec.Groups.Comparison, nCmp, seenCmp}} {
+	}{{spec.Groups.Reference, nRef, l.seenRef}, {spec.Groups.Comparison, nCmp, l.seenCmp}} {
 		if gc.kept < spec.Folds {
-			return nil, derr(0, spec.Groups.Column, wrapf(ErrTooFewRecords, "group %q keeps %d of its %d rows; cross-fitting with %d folds needs at least %d", gc.value, gc.kept, gc.seen, spec.Folds, spec.Folds))
+			return l.derr(0, spec.Groups.Column, wrapf(ErrTooFewRecords, "group %q keeps %d of its %d rows; cross-fitting with %d folds needs at least %d", gc.value, gc.kept, gc.seen, spec.Folds, spec.Folds))
 		}
 	}
-	for j := range d.Columns {
-		if d.Columns[j].Categorical {
-			d.Columns[j].Levels, d.Columns[j].Values = codeLevels(raw[j])
-		}
-	}
-	d.SHA256 = hex.EncodeToString(h.Sum(nil))
-	return d, nil
+	return nil
 }
 
 // isMissing reports whether a trimmed cell is a missing value: empty, NA or
