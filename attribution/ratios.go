@@ -200,17 +200,45 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixed
 // goroutines (classify.Threaded) get an equal share of the workers, so that
 // the busy goroutines do not outnumber them.
 func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt RatioOptions) error {
-	nl := len(opt.Learners)
-	nw := workers.Count(opt.Workers)
-	n := len(y)
-	test := make([][]int, k)
-	train := make([][]int, k)
+	p := newFitPlan(x, y, folds, k, sets, opt)
+	p.resetSets()
+	selFolds, err := p.scoreCandidates()
+	if err != nil {
+		return err
+	}
+	if err := p.completeFolds(selFolds); err != nil {
+		return err
+	}
+	p.finish()
+	return nil
+}
+
+// fitPlan is the work of fitAll: the column sets to fit, the candidate
+// learners and, per fold, its held-out records (test) and the stratified
+// training subsample (train).
+type fitPlan struct {
+	x           *mat.Dense
+	y           []float64
+	k, nl, nw   int
+	sets        []*groupFit
+	opt         RatioOptions
+	test, train [][]int
+}
+
+// fitJob is one fit: a column set, a candidate learner and a fold.
+type fitJob struct{ set, learner, fold int }
+
+// newFitPlan splits the records into folds and subsamples each fold's
+// training records to opt.MaxFitRows (stratifiedSubsample).
+func newFitPlan(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt RatioOptions) *fitPlan {
+	p := &fitPlan{x: x, y: y, k: k, nl: len(opt.Learners), nw: workers.Count(opt.Workers), sets: sets, opt: opt,
+		test: make([][]int, k), train: make([][]int, k)}
 	for r, fo := range folds {
 		for j := 0; j < k; j++ {
 			if j == fo {
-				test[j] = append(test[j], r)
+				p.test[j] = append(p.test[j], r)
 			} else {
-				train[j] = append(train[j], r)
+				p.train[j] = append(p.train[j], r)
 			}
 		}
 	}
@@ -218,98 +246,108 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 	if limit == 0 {
 		limit = DefaultMaxFitRows
 	}
-	for fo := range train {
-		train[fo] = stratifiedSubsample(train[fo], y, limit, opt.Seed, fo)
+	for fo := range p.train {
+		p.train[fo] = stratifiedSubsample(p.train[fo], y, limit, opt.Seed, fo)
 	}
-	for _, f := range sets {
-		f.logOdds = make([][]float64, nl)
-		f.losses = make([]float64, nl)
-		f.oddsMean = make([]float64, nl)
-		f.rounds = make([][]int, nl)
+	return p
+}
+
+// resetSets gives every column set empty per-learner results.
+func (p *fitPlan) resetSets() {
+	for _, f := range p.sets {
+		f.logOdds = make([][]float64, p.nl)
+		f.losses = make([]float64, p.nl)
+		f.oddsMean = make([]float64, p.nl)
+		f.rounds = make([][]int, p.nl)
 		for l := range f.rounds {
-			f.rounds[l] = make([]int, k)
+			f.rounds[l] = make([]int, p.k)
 		}
 		for l := range f.losses {
 			f.losses[l], f.oddsMean[l] = math.NaN(), math.NaN()
 		}
 	}
-	type job struct{ set, learner, fold int }
-	run := func(jobs []job) error {
-		errs := make([]error, len(jobs))
-		threads := max(1, nw/max(1, min(nw, len(jobs))))
-		learners := make([]classify.Learner, nl)
-		for l, learner := range opt.Learners {
-			learners[l] = threadedLearner(learner, threads)
-		}
-		workers.For(nw, len(jobs), func(_, ji int) {
-			jb := jobs[ji]
-			f := sets[jb.set]
-			tr := train[jb.fold]
-			xtr := subMatrix(x, tr, f.cols)
-			ytr := pick(y, tr)
-			seed := opt.Seed*1000003 + uint64((jb.set*nl+jb.learner)*k+jb.fold)
-			learner := learners[jb.learner]
-			if f.fixed != nil {
-				learner = threadedLearner(f.fixed, threads)
-			}
-			model, err := learner.Fit(xtr, ytr, nil, seed)
-			if err != nil {
-				errs[ji] = fmt.Errorf("attribution: fitting %s on columns %v, fold %d: %w", opt.Learners[jb.learner].Name(), f.cols, jb.fold, err)
-				return
-			}
-			if bm, ok := model.(*classify.BoostedModel); ok {
-				f.rounds[jb.learner][jb.fold] = bm.Trees()
-			}
-			dst := make([]float64, len(test[jb.fold]))
-			model.LogOdds(subMatrix(x, test[jb.fold], f.cols), dst)
-			lo := f.logOdds[jb.learner]
-			for a, r := range test[jb.fold] {
-				lo[r] = dst[a]
-			}
-		})
-		for _, err := range errs {
-			if err != nil {
-				return err
-			}
-		}
-		return nil
-	}
+}
 
-	// Phase 1: model selection where there is a choice, on fold 0 alone
-	// for large samples, on every fold for small ones (below
-	// SelectAllFoldsBelow records the held-out part of one fold is too
-	// small to tell the learners apart reliably, and fits are cheap).
+// run fits jobs on p.nw goroutines, each writing the held-out log-odds of
+// its fold into its set's slots; threaded learners get an equal share of
+// the workers. It returns the first error in job order.
+func (p *fitPlan) run(jobs []fitJob) error {
+	errs := make([]error, len(jobs))
+	threads := max(1, p.nw/max(1, min(p.nw, len(jobs))))
+	learners := make([]classify.Learner, p.nl)
+	for l, learner := range p.opt.Learners {
+		learners[l] = threadedLearner(learner, threads)
+	}
+	workers.For(p.nw, len(jobs), func(_, ji int) {
+		jb := jobs[ji]
+		f := p.sets[jb.set]
+		tr := p.train[jb.fold]
+		seed := p.opt.Seed*1000003 + uint64((jb.set*p.nl+jb.learner)*p.k+jb.fold)
+		learner := learners[jb.learner]
+		if f.fixed != nil {
+			learner = threadedLearner(f.fixed, threads)
+		}
+		model, err := learner.Fit(subMatrix(p.x, tr, f.cols), pick(p.y, tr), nil, seed)
+		if err != nil {
+			errs[ji] = fmt.Errorf("attribution: fitting %s on columns %v, fold %d: %w", p.opt.Learners[jb.learner].Name(), f.cols, jb.fold, err)
+			return
+		}
+		if bm, ok := model.(*classify.BoostedModel); ok {
+			f.rounds[jb.learner][jb.fold] = bm.Trees()
+		}
+		dst := make([]float64, len(p.test[jb.fold]))
+		model.LogOdds(subMatrix(p.x, p.test[jb.fold], f.cols), dst)
+		lo := f.logOdds[jb.learner]
+		for a, r := range p.test[jb.fold] {
+			lo[r] = dst[a]
+		}
+	})
+	for _, err := range errs {
+		if err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// scoreCandidates is phase 1, model selection where there is a choice: on
+// fold 0 alone for large samples, on every fold for small ones (below
+// SelectAllFoldsBelow records the held-out part of one fold is too small
+// to tell the learners apart reliably, and fits are cheap). It sets each
+// set's best learner and returns the number of folds used.
+func (p *fitPlan) scoreCandidates() (int, error) {
+	n := len(p.y)
 	selFolds := 1
 	if n < SelectAllFoldsBelow {
-		selFolds = k
+		selFolds = p.k
 	}
-	var jobs []job
-	for si, f := range sets {
-		if f.only < 0 && nl > 1 {
-			for l := 0; l < nl; l++ {
+	var jobs []fitJob
+	for si, f := range p.sets {
+		if f.only < 0 && p.nl > 1 {
+			for l := 0; l < p.nl; l++ {
 				f.logOdds[l] = make([]float64, n)
 				for fo := 0; fo < selFolds; fo++ {
-					jobs = append(jobs, job{si, l, fo})
+					jobs = append(jobs, fitJob{si, l, fo})
 				}
 			}
 		}
 	}
-	if err := run(jobs); err != nil {
-		return err
+	if err := p.run(jobs); err != nil {
+		return 0, err
 	}
 	var selRows []int
 	for fo := 0; fo < selFolds; fo++ {
-		selRows = append(selRows, test[fo]...)
+		selRows = append(selRows, p.test[fo]...)
 	}
-	ySel := pick(y, selRows)
-	for _, f := range sets {
+	ySel := pick(p.y, selRows)
+	for _, f := range p.sets {
 		switch {
 		case f.only >= 0:
 			f.best = f.only
-		case nl == 1:
+		case p.nl == 1:
 			f.best = 0
 		default:
-			for l := 0; l < nl; l++ {
+			for l := 0; l < p.nl; l++ {
 				z := pick(f.logOdds[l], selRows)
 				f.losses[l] = meanLogLoss(ySel, z)
 				f.oddsMean[l] = oddsCalibration(ySel, z)
@@ -317,40 +355,48 @@ func fitAll(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit, opt
 			f.best = selectLearner(f.losses, f.oddsMean)
 		}
 	}
-	// Phase 2: the chosen learner on the folds it has not covered yet.
-	jobs = jobs[:0]
-	for si, f := range sets {
+	return selFolds, nil
+}
+
+// completeFolds is phase 2: the chosen learner on the folds it has not
+// covered yet.
+func (p *fitPlan) completeFolds(selFolds int) error {
+	var jobs []fitJob
+	for si, f := range p.sets {
 		from := 0
 		if f.logOdds[f.best] != nil {
 			from = selFolds // done in phase 1
 		} else {
-			f.logOdds[f.best] = make([]float64, n)
+			f.logOdds[f.best] = make([]float64, len(p.y))
 		}
-		for fo := from; fo < k; fo++ {
-			jobs = append(jobs, job{si, f.best, fo})
+		for fo := from; fo < p.k; fo++ {
+			jobs = append(jobs, fitJob{si, f.best, fo})
 		}
 	}
-	if err := run(jobs); err != nil {
-		return err
-	}
-	for _, f := range sets {
+	return p.run(jobs)
+}
+
+// finish scores the chosen learner on all folds where it was not scored,
+// drops the losing learners' log-odds and sets the learner bootstrap
+// replicates refit (refitLearner).
+func (p *fitPlan) finish() {
+	for _, f := range p.sets {
 		if math.IsNaN(f.losses[f.best]) {
-			f.losses[f.best] = meanLogLoss(y, f.logOdds[f.best])
-			f.oddsMean[f.best] = oddsCalibration(y, f.logOdds[f.best])
+			f.losses[f.best] = meanLogLoss(p.y, f.logOdds[f.best])
+			f.oddsMean[f.best] = oddsCalibration(p.y, f.logOdds[f.best])
 		}
 		for l := range f.logOdds {
 			if l != f.best {
 				f.logOdds[l] = nil
 			}
 		}
-		f.refit = opt.Learners[f.best]
+		f.refit = p.opt.Learners[f.best]
 		if f.fixed != nil {
 			f.refit = f.fixed
 		} else {
 			f.refit = refitLearner(f.refit, f.rounds[f.best])
 		}
 	}
-	return nil
 }
 
 // threadedLearner returns l limited to threads goroutines if it implements
