@@ -91,6 +91,11 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	if o.out != "" {
+		if err := refuseOverwritingInputs(o.out, []string{resultFile, reportFile}, spec.File, spec.DataPath); err != nil {
+			return err
+		}
+	}
 	line := newProgressLine(stderr)
 	defer line.clear()
 	res, err := audit(spec, o.workers, o.intervals, line)

@@ -153,3 +153,25 @@ func writeSynced(path string, data []byte) error {
 	}
 	return f.Close()
 }
+
+// refuseOverwritingInputs returns an *outDirError when one of the output
+// files names (in dir) is the same file as one of the inputs, compared by
+// file identity (os.SameFile: hard links, symbolic links and different
+// spellings of one path are all caught), so that --force can never replace
+// a spec or data file with a result.
+func refuseOverwritingInputs(dir string, names []string, inputs ...string) error {
+	for _, in := range inputs {
+		ii, err := os.Stat(in)
+		if err != nil {
+			continue // a missing input is reported by its loader
+		}
+		for _, name := range names {
+			out := filepath.Join(dir, name)
+			oi, err := os.Stat(out)
+			if err == nil && os.SameFile(ii, oi) {
+				return &outDirError{dir, fmt.Sprintf("its %s is the input file %s; gapwise never writes over an input (choose another --out)", name, in)}
+			}
+		}
+	}
+	return nil
+}

@@ -108,3 +108,47 @@ func TestWriteOutDirFailureLeavesNothing(t *testing.T) {
 		t.Errorf("left behind: %v", entries)
 	}
 }
+
+// TestRefuseOverwritingInputs: an output file that is an input under
+// another name (the same path, a hard link, a symbolic link, a relative
+// spelling) is refused; a different file of the same content is not.
+func TestRefuseOverwritingInputs(t *testing.T) {
+	dir := t.TempDir()
+	data := filepath.Join(dir, "cohort.csv")
+	if err := os.WriteFile(data, []byte("a,b\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cases := []struct {
+		name   string
+		make   func(out string) error
+		refuse bool
+	}{
+		{"hard link", func(out string) error { return os.Link(data, filepath.Join(out, resultFile)) }, true},
+		{"symbolic link", func(out string) error { return os.Symlink(data, filepath.Join(out, reportFile)) }, true},
+		{"copy", func(out string) error { return os.WriteFile(filepath.Join(out, resultFile), []byte("a,b\n"), 0o644) }, false},
+		{"none", func(string) error { return nil }, false},
+	}
+	for _, c := range cases {
+		out := filepath.Join(t.TempDir(), "out")
+		if err := os.Mkdir(out, 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := c.make(out); err != nil {
+			t.Fatal(err)
+		}
+		err := refuseOverwritingInputs(out, []string{resultFile, reportFile}, data)
+		var oe *outDirError
+		if got := errors.As(err, &oe); got != c.refuse {
+			t.Errorf("%s: error %v, want refused %v", c.name, err, c.refuse)
+		}
+	}
+	// The data file's own folder as --out, the data named result.json and
+	// reached by a relative path.
+	if err := os.Rename(data, filepath.Join(dir, resultFile)); err != nil {
+		t.Fatal(err)
+	}
+	t.Chdir(dir)
+	if err := refuseOverwritingInputs(".", []string{resultFile}, "./"+resultFile); err == nil {
+		t.Error("the input itself as an output was accepted")
+	}
+}
