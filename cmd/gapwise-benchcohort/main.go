@@ -1,7 +1,7 @@
 // Command gapwise-benchcohort writes a synthetic benchmark cohort and its
-// spec for timing the CLI (see testdata/bench/time-cli.sh). The data is invented by
-// fairness/synth.BenchTable: a label and a chain of Gaussian findings whose
-// distributions differ between two groups.
+// spec for timing the CLI (see testdata/bench/time-cli.sh). The data is
+// invented by fairness/synth.BenchTable: a label and a chain of Gaussian
+// findings whose distributions differ between two groups.
 //
 //	go run ./cmd/gapwise-benchcohort -rows 200000 -k 8 -out /tmp/bench
 //
