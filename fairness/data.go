@@ -136,7 +136,7 @@ func (l *csvLoader) csvErr(err error) error {
 
 // readHeader reads the header row (a byte-order mark before the first name
 // is ignored), refuses duplicate names and finds every column the spec
-// needs.
+// needs (locateColumns).
 func (l *csvLoader) readHeader() error {
 	header, err := l.cr.Read()
 	if err == io.EOF {
@@ -157,34 +157,38 @@ func (l *csvLoader) readHeader() error {
 		pos[hname] = i
 	}
 	l.width = len(header)
-	need := func(col string) (int, error) {
+	if err := l.locateColumns(pos); err != nil {
+		return err
+	}
+	l.newDataset()
+	return nil
+}
+
+// locateColumns finds the group, label, score and graph columns among the
+// header positions pos, in that order, refusing the first one absent.
+func (l *csvLoader) locateColumns(pos map[string]int) error {
+	spec := l.spec
+	l.names = spec.Columns()
+	wanted := append([]string{spec.Groups.Column, spec.Label, spec.Score}, l.names...)
+	idx := make([]int, len(wanted))
+	for k, col := range wanted {
 		i, ok := pos[col]
 		if !ok {
-			return 0, l.derr(1, col, wrapf(ErrMissingColumn, "not found in the header (needed by the spec)"))
+			return l.derr(1, col, wrapf(ErrMissingColumn, "not found in the header (needed by the spec)"))
 		}
-		return i, nil
+		idx[k] = i
 	}
-	spec := l.spec
-	if l.groupIdx, err = need(spec.Groups.Column); err != nil {
-		return err
-	}
-	if l.labelIdx, err = need(spec.Label); err != nil {
-		return err
-	}
-	if l.scoreIdx, err = need(spec.Score); err != nil {
-		return err
-	}
-	l.names = spec.Columns()
-	l.colIdx = make([]int, len(l.names))
+	l.groupIdx, l.labelIdx, l.scoreIdx, l.colIdx = idx[0], idx[1], idx[2], idx[3:]
 	l.categorical = map[string]bool{}
 	for _, c := range spec.Categorical {
 		l.categorical[c] = true
 	}
-	for j, c := range l.names {
-		if l.colIdx[j], err = need(c); err != nil {
-			return err
-		}
-	}
+	return nil
+}
+
+// newDataset starts the dataset with one empty Column per graph column and
+// sizes the per-row buffers.
+func (l *csvLoader) newDataset() {
 	l.d = &Dataset{Path: l.name, Columns: make([]Column, len(l.names))}
 	l.raw = make([][]string, len(l.names))
 	for j, c := range l.names {
@@ -192,7 +196,6 @@ func (l *csvLoader) readHeader() error {
 	}
 	l.rowVals = make([]float64, len(l.names))
 	l.rowRaw = make([]string, len(l.names))
-	return nil
 }
 
 // readRows reads every record after the header (readRow).
