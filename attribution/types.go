@@ -13,8 +13,9 @@
 // both probabilities coming from cross-fitted group classifiers. The game
 // v(S) = M(P_S) − M(P_∅) is split with Shapley values (Shapley 1953, "A value
 // for n-person games"); the method is Shapley attribution of performance
-// changes to mechanism shifts (Zhang, Singh, Ghassemi & Joshi 2023,
-// "Why did the model fail?", ICML; cited from memory).
+// changes to mechanism shifts (Zhang et al. 2023, "Why did the model
+// fail?": Attributing model performance changes to distribution shifts,
+// ICML 2023).
 package attribution
 
 import (
