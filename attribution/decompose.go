@@ -44,6 +44,14 @@ func splitGroups(s *Sample) groupSplit {
 	return g
 }
 
+// decompose is Decompose that also returns the density ratios; chosen, if
+// non-nil, fixes the learner per column set (a bootstrap replicate, see
+// estimateRatios), and then only the metric splits are computed, not the
+// weight diagnostics. The phases, in order: observe (observed metrics, so
+// that an undefined metric is reported before any fitting),
+// estimateRatios, estimateSides (clipped log-ratios and mechanism
+// diagnostics), splitGapsSides (Shapley values), and for the point
+// estimate sideWeights and effectiveRecords.
 func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, chosen fixedLearners) (*Decomposition, []MechanismRatio, error) {
 	n := len(s.Comparison)
 	if len(s.Labels) != n || len(s.Scores) != n {
@@ -51,8 +59,6 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	}
 	opt = withDefaults(opt)
 	g := splitGroups(s)
-	// Observed metrics first: an undefined metric is the user's problem and
-	// is reported before any fitting.
 	out := &Decomposition{}
 	var err error
 	if out.Metrics, err = observe(metricNames, g, opt); err != nil {
@@ -63,37 +69,12 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 		return nil, nil, err
 	}
 	out.Side = opt.Side.resolve()
-	useRef := out.Side != SideComparison
-	useCmp := out.Side != SideReference
-	logr := make([][]float64, len(mechs))
-	var logrCmp [][]float64
-	if useCmp {
-		logrCmp = make([][]float64, len(mechs))
-	}
-	member := s.comparisonLabels()
-	// A bootstrap replicate (chosen set) needs only the metric splits:
-	// the weight diagnostics are skipped there.
 	diag := chosen == nil
-	for i, mr := range ratios {
-		ref, cmp, clipped, err := sideLogRatios(mr, g, opt, useRef, useCmp)
-		if err != nil {
-			return nil, nil, err
-		}
-		logr[i] = ref
-		if useCmp {
-			logrCmp[i] = cmp
-		}
-		if diag {
-			out.Mechanisms = append(out.Mechanisms, mechanismReport(mr, g, ref, cmp, clipped, member))
-		}
+	sides, reports, err := estimateSides(s, ratios, g, opt, out.Side, diag)
+	if err != nil {
+		return nil, nil, err
 	}
-	var sides []*sideEstimate
-	if useRef {
-		sides = append(sides, newSideEstimate(SideReference, g.refY, g.refS, logr))
-	}
-	if useCmp {
-		sides = append(sides, newSideEstimate(SideComparison, g.cmpY, g.cmpS, logrCmp))
-	}
+	out.Mechanisms = reports
 	if err := splitGapsSides(out.Metrics, sides, opt); err != nil {
 		return nil, nil, err
 	}
@@ -105,6 +86,44 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	}
 	effectiveRecords(out.Metrics, sides, opt)
 	return out, ratios, nil
+}
+
+// estimateSides returns the estimators of the side(s) that estimate
+// (reference first; see Side): each holds that side's labels, scores and
+// per-mechanism log-ratios, clipped by sideLogRatios. With diag it also
+// returns every mechanism's diagnostics (mechanismReport), in mechanism
+// order; without, nil.
+func estimateSides(s *Sample, ratios []MechanismRatio, g groupSplit, opt Options, side Side, diag bool) ([]*sideEstimate, []MechanismReport, error) {
+	useRef := side != SideComparison
+	useCmp := side != SideReference
+	logr := make([][]float64, len(ratios))
+	var logrCmp [][]float64
+	if useCmp {
+		logrCmp = make([][]float64, len(ratios))
+	}
+	member := s.comparisonLabels()
+	var reports []MechanismReport
+	for i, mr := range ratios {
+		ref, cmp, clipped, err := sideLogRatios(mr, g, opt, useRef, useCmp)
+		if err != nil {
+			return nil, nil, err
+		}
+		logr[i] = ref
+		if useCmp {
+			logrCmp[i] = cmp
+		}
+		if diag {
+			reports = append(reports, mechanismReport(mr, g, ref, cmp, clipped, member))
+		}
+	}
+	var sides []*sideEstimate
+	if useRef {
+		sides = append(sides, newSideEstimate(SideReference, g.refY, g.refS, logr))
+	}
+	if useCmp {
+		sides = append(sides, newSideEstimate(SideComparison, g.cmpY, g.cmpS, logrCmp))
+	}
+	return sides, reports, nil
 }
 
 // sideLogRatios returns a mechanism's log-ratios at the reference records
