@@ -95,12 +95,41 @@ func EstimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions) ([]Mechanism
 // per column set so that only that learner is fitted; it must have the name
 // of one of opt.Learners, which it then stands in for.
 func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixedLearners) ([]MechanismRatio, error) {
+	k, err := checkRatioInputs(s, opt)
+	if err != nil {
+		return nil, err
+	}
+	folds := assignFolds(s.Comparison, k, opt.Seed)
+	fs := &fitSets{learners: opt.Learners, chosen: chosen, index: map[string]*groupFit{}}
+	joints := make([]*groupFit, len(mechs))
+	parents := make([]*groupFit, len(mechs))
+	for i, m := range mechs {
+		joints[i] = fs.need(unionCols(m.NodeCols, m.ParentCols))
+		parents[i] = fs.need(m.ParentCols)
+	}
+	if err := fitAll(s.X, s.comparisonLabels(), folds, k, fs.sets, opt); err != nil {
+		return nil, err
+	}
+	nRef, nCmp := s.Counts()
+	prior := math.Log(float64(nCmp) / float64(nRef))
+	out := make([]MechanismRatio, len(mechs))
+	for i, m := range mechs {
+		out[i] = mechanismRatio(m, joints[i], parents[i], prior, opt.Learners)
+	}
+	return out, nil
+}
+
+// checkRatioInputs returns the number of folds (opt.Folds, 5 if zero) after
+// checking that there are candidate learners and that each group has at
+// least one record per fold. A design matrix whose rows do not match the
+// records is a programmer error and panics.
+func checkRatioInputs(s *Sample, opt RatioOptions) (int, error) {
 	n := len(s.Comparison)
 	if s.X == nil || s.X.RawMatrix().Rows != n {
 		panic("attribution: Sample.X rows do not match Sample.Comparison")
 	}
 	if len(opt.Learners) == 0 {
-		return nil, fmt.Errorf("attribution: no candidate learners")
+		return 0, fmt.Errorf("attribution: no candidate learners")
 	}
 	k := opt.Folds
 	if k == 0 {
@@ -108,81 +137,80 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixed
 	}
 	nRef, nCmp := s.Counts()
 	if nRef < k || nCmp < k {
-		return nil, fmt.Errorf("attribution: each group needs at least %d records for %d-fold cross-fitting (reference %d, comparison %d)", k, k, nRef, nCmp)
+		return 0, fmt.Errorf("attribution: each group needs at least %d records for %d-fold cross-fitting (reference %d, comparison %d)", k, k, nRef, nCmp)
 	}
-	folds := assignFolds(s.Comparison, k, opt.Seed)
-	y := make([]float64, n)
-	for i, c := range s.Comparison {
-		if c {
-			y[i] = 1
-		}
-	}
+	return k, nil
+}
 
-	// Distinct column sets to fit, in order of first use.
-	var sets []*groupFit
-	index := map[string]*groupFit{}
-	need := func(cols []int) *groupFit {
-		if len(cols) == 0 {
-			return nil
-		}
-		key := colKey(cols)
-		if f, ok := index[key]; ok {
-			return f
-		}
-		f := &groupFit{cols: cols, only: -1}
-		if fixed, ok := chosen[key]; ok {
-			for l, learner := range opt.Learners {
-				if learner.Name() == fixed.Name() {
-					f.only, f.fixed = l, fixed
-				}
-			}
-		}
-		index[key] = f
-		sets = append(sets, f)
+// fitSets collects the distinct column sets to fit, in order of first use,
+// so that a set shared by several mechanisms (one's joint, another's
+// parents) is fitted once.
+type fitSets struct {
+	learners []classify.Learner
+	chosen   fixedLearners // nil, or the learner a replicate fixes per set
+	sets     []*groupFit
+	index    map[string]*groupFit // by colKey
+}
+
+// need returns the fit of the column set cols, adding it on first use
+// (nil for no columns: the prior stands in). A learner fixed by chosen
+// restricts the fit to the candidate of the same name.
+func (fs *fitSets) need(cols []int) *groupFit {
+	if len(cols) == 0 {
+		return nil
+	}
+	key := colKey(cols)
+	if f, ok := fs.index[key]; ok {
 		return f
 	}
-	joints := make([]*groupFit, len(mechs))
-	parents := make([]*groupFit, len(mechs))
-	for i, m := range mechs {
-		joints[i] = need(unionCols(m.NodeCols, m.ParentCols))
-		parents[i] = need(m.ParentCols)
+	f := &groupFit{cols: cols, only: -1}
+	if fixed, ok := fs.chosen[key]; ok {
+		for l, learner := range fs.learners {
+			if learner.Name() == fixed.Name() {
+				f.only, f.fixed = l, fixed
+			}
+		}
 	}
-	if err := fitAll(s.X, y, folds, k, sets, opt); err != nil {
-		return nil, err
-	}
+	fs.index[key] = f
+	fs.sets = append(fs.sets, f)
+	return f
+}
 
-	prior := math.Log(float64(nCmp) / float64(nRef))
-	out := make([]MechanismRatio, len(mechs))
-	for i, m := range mechs {
-		j := joints[i]
-		mr := MechanismRatio{
-			Mechanism:     m,
-			LogRatio:      make([]float64, n),
-			Learner:       opt.Learners[j.best].Name(),
-			ParentLearner: PriorLearner,
-			JointLogOdds:  j.logOdds[j.best],
-			jointKey:      colKey(j.cols),
-			jointRefit:    j.refit,
-		}
-		for l, learner := range opt.Learners {
-			mr.Losses = append(mr.Losses, LearnerLoss{Learner: learner.Name(), LogLoss: j.losses[l], OddsCheck: j.oddsMean[l]})
-		}
-		if p := parents[i]; p != nil {
-			mr.ParentLearner = opt.Learners[p.best].Name()
-			mr.parentKey = colKey(p.cols)
-			mr.parentRefit = p.refit
-			po := p.logOdds[p.best]
-			for r := range mr.LogRatio {
-				mr.LogRatio[r] = j.logOdds[j.best][r] - po[r]
-			}
-		} else {
-			for r := range mr.LogRatio {
-				mr.LogRatio[r] = j.logOdds[j.best][r] - prior
-			}
-		}
-		out[i] = mr
+// mechanismRatio assembles mechanism m's estimate from the fits of its
+// joint and parent column sets: per record,
+//
+//	log r(x) = logit P(cmp | node, parents) − logit P(cmp | parents),
+//
+// with the parents' term the prior log(n_cmp/n_ref) for a root (p nil),
+// each from the candidate learner with the lowest out-of-fold loss.
+func mechanismRatio(m Mechanism, j, p *groupFit, prior float64, learners []classify.Learner) MechanismRatio {
+	jo := j.logOdds[j.best]
+	mr := MechanismRatio{
+		Mechanism:     m,
+		LogRatio:      make([]float64, len(jo)),
+		Learner:       learners[j.best].Name(),
+		ParentLearner: PriorLearner,
+		JointLogOdds:  jo,
+		jointKey:      colKey(j.cols),
+		jointRefit:    j.refit,
 	}
-	return out, nil
+	for l, learner := range learners {
+		mr.Losses = append(mr.Losses, LearnerLoss{Learner: learner.Name(), LogLoss: j.losses[l], OddsCheck: j.oddsMean[l]})
+	}
+	if p == nil {
+		for r := range mr.LogRatio {
+			mr.LogRatio[r] = jo[r] - prior
+		}
+		return mr
+	}
+	mr.ParentLearner = learners[p.best].Name()
+	mr.parentKey = colKey(p.cols)
+	mr.parentRefit = p.refit
+	po := p.logOdds[p.best]
+	for r := range mr.LogRatio {
+		mr.LogRatio[r] = jo[r] - po[r]
+	}
+	return mr
 }
 
 // fitAll fits the classifiers of every column set and fills the
