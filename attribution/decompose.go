@@ -53,10 +53,7 @@ func splitGroups(s *Sample) groupSplit {
 // diagnostics), splitGapsSides (Shapley values), and for the point
 // estimate sideWeights and effectiveRecords.
 func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, chosen fixedLearners) (*Decomposition, []MechanismRatio, error) {
-	n := len(s.Comparison)
-	if len(s.Labels) != n || len(s.Scores) != n {
-		panic("attribution: Sample slices differ in length")
-	}
+	s.mustAlign()
 	opt = withDefaults(opt)
 	g := splitGroups(s)
 	out := &Decomposition{}
@@ -212,23 +209,36 @@ func withDefaults(opt Options) Options {
 // observed values and their gap, Comparison − Reference; the estimates are
 // left zero), at threshold and with eceBins bins (0: the default). It is
 // the first step of Decompose. A metric without a value in a group gives a
-// *MetricError naming the group.
+// *MetricError naming the group: all metrics are computed on the
+// reference group first, in the order of metricNames, then on the
+// comparison group, so the error names the first such pair in that order.
+// It panics if the Sample's slices differ in length.
 func Observe(s *Sample, metricNames []string, threshold float64, eceBins int) ([]MetricDecomposition, error) {
+	s.mustAlign()
 	return observe(metricNames, splitGroups(s), withDefaults(Options{Threshold: threshold, ECEBins: eceBins}))
 }
 
-// observe computes each metric on the two groups' records, unweighted.
+// observe computes each metric on the two groups' records, unweighted,
+// the reference group's first (see Observe).
 func observe(metricNames []string, g groupSplit, opt Options) ([]MetricDecomposition, error) {
+	groups := []struct {
+		name string
+		y, s []float64
+	}{{GroupReference, g.refY, g.refS}, {GroupComparison, g.cmpY, g.cmpS}}
+	var values [2][]float64
+	for gi, grp := range groups {
+		values[gi] = make([]float64, len(metricNames))
+		for m, name := range metricNames {
+			v, err := metrics.Compute(name, grp.y, grp.s, opt.Threshold, opt.ECEBins, nil)
+			if err != nil {
+				return nil, metricErr(name, grp.name, err)
+			}
+			values[gi][m] = v
+		}
+	}
 	var out []MetricDecomposition
-	for _, name := range metricNames {
-		ref, err := metrics.Compute(name, g.refY, g.refS, opt.Threshold, opt.ECEBins, nil)
-		if err != nil {
-			return nil, metricErr(name, GroupReference, err)
-		}
-		cmp, err := metrics.Compute(name, g.cmpY, g.cmpS, opt.Threshold, opt.ECEBins, nil)
-		if err != nil {
-			return nil, metricErr(name, GroupComparison, err)
-		}
+	for m, name := range metricNames {
+		ref, cmp := values[0][m], values[1][m]
 		out = append(out, MetricDecomposition{Metric: name, Reference: ref, Comparison: cmp, Gap: cmp - ref})
 	}
 	return out, nil
@@ -352,4 +362,12 @@ func (s *Sample) comparisonLabels() []float64 {
 		}
 	}
 	return y
+}
+
+// mustAlign panics unless the Sample's slices have one entry per record.
+func (s *Sample) mustAlign() {
+	n := len(s.Comparison)
+	if len(s.Labels) != n || len(s.Scores) != n {
+		panic("attribution: Sample slices differ in length")
+	}
 }

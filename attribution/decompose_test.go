@@ -1,12 +1,14 @@
 package attribution_test
 
 import (
+	"errors"
 	"math"
 	"math/rand/v2"
 	"testing"
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/classify"
+	"github.com/gapwise/gapwise/metrics"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -124,5 +126,48 @@ func TestDecomposeSamplingProgress(t *testing.T) {
 		if calls[i] != want[i] {
 			t.Errorf("progress calls %v, want %v", calls, want)
 		}
+	}
+}
+
+// observeSample builds a Sample of the given groups (X unused by Observe).
+func observeSample(cmp []bool, labels, scores []float64) *attribution.Sample {
+	return &attribution.Sample{X: mat.NewDense(len(cmp), 1, nil), Comparison: cmp, Labels: labels, Scores: scores}
+}
+
+func TestObserve(t *testing.T) {
+	// Reference: y = 0, 0, 1 with s = 0.2, 0.7, 0.9; comparison: y = 1, 0
+	// with s = 0.8, 0.3; threshold 0.5. By hand: FPR 1/2 and 0/1, TPR 1/1
+	// and 1/1, Brier (0.04+0.49+0.01)/3 = 0.18 and (0.04+0.09)/2 = 0.065.
+	s := observeSample([]bool{false, true, false, true, false}, []float64{0, 1, 0, 0, 1}, []float64{0.2, 0.8, 0.7, 0.3, 0.9})
+	got, err := attribution.Observe(s, []string{metrics.NameFPR, metrics.NameTPR, metrics.NameBrier}, 0.5, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := [][2]float64{{0.5, 0}, {1, 1}, {0.18, 0.065}}
+	if len(got) != len(want) {
+		t.Fatalf("%d metrics, want %d", len(got), len(want))
+	}
+	for m, md := range got {
+		if math.Abs(md.Reference-want[m][0]) > 1e-12 || math.Abs(md.Comparison-want[m][1]) > 1e-12 || md.Gap != md.Comparison-md.Reference {
+			t.Errorf("%s: %+v, want %v", md.Metric, md, want[m])
+		}
+	}
+}
+
+// TestObserveUndefinedOrder: FPR has no negatives in the comparison group
+// and TPR no positives in the reference group. The reference group is
+// checked first, so the error names TPR there: the order in which
+// `gapwise check` and `decompose` have always reported it (the fairness
+// check before Observe existed looped over the groups, then the metrics).
+func TestObserveUndefinedOrder(t *testing.T) {
+	s := observeSample([]bool{false, false, true, true}, []float64{0, 0, 1, 1}, []float64{0.2, 0.7, 0.8, 0.3})
+	_, err := attribution.Observe(s, []string{metrics.NameFPR, metrics.NameTPR}, 0.5, 0)
+	var me *attribution.MetricError
+	if !errors.As(err, &me) || me.Metric != metrics.NameTPR || me.Group != attribution.GroupReference || !errors.Is(err, metrics.ErrUndefined) {
+		t.Errorf("err = %v, want a MetricError for tpr in the reference group", err)
+	}
+	// A failure that is not a missing value is no MetricError.
+	if _, err = attribution.Observe(s, []string{"f1"}, 0.5, 0); err == nil || errors.As(err, &me) {
+		t.Errorf("f1: err = %v, want a plain error", err)
 	}
 }
