@@ -103,28 +103,15 @@ func ratio(name string, num, den float64, what string) (float64, error) {
 	return num / den, nil
 }
 
-// Value returns the named metric computed from the statistics. ECE uses
-// st.Bins bins. AUC cannot be computed from Stats and returns an error, as
-// does an unknown name; a metric with a zero denominator returns an error
-// wrapping ErrUndefined.
+// Value returns the named metric computed from the statistics: a threshold
+// metric from the confusion counts (Confusion.Rate), the others from the
+// per-cell sums. ECE uses st.Bins bins. AUC cannot be computed from Stats
+// and returns an error, as does an unknown name; a metric with a zero
+// denominator returns an error wrapping ErrUndefined.
 func (st *Stats) Value(name string) (float64, error) {
 	tp, fp, tn, fn := st.Confusion()
 	total := tp + fp + tn + fn
 	switch name {
-	case NameFPR:
-		return ratio(name, fp, fp+tn, "negatives")
-	case NameTPR:
-		return ratio(name, tp, tp+fn, "positives")
-	case NameFNR:
-		return ratio(name, fn, tp+fn, "positives")
-	case NamePPV:
-		return ratio(name, tp, tp+fp, "positive decisions")
-	case NameNPV:
-		return ratio(name, tn, tn+fn, "negative decisions")
-	case NameSelectionRate:
-		return ratio(name, tp+fp, total, "records")
-	case NameAccuracy:
-		return ratio(name, tp+tn, total, "records")
 	case NameBrier:
 		// (s−y)² = s² − 2ys + y
 		var sum float64
@@ -160,6 +147,9 @@ func (st *Stats) Value(name string) (float64, error) {
 		return ratio(name, sum, total, "records")
 	case NameAUC:
 		return math.NaN(), fmt.Errorf("metrics: auc cannot be computed from Stats; use AUC on the records")
+	}
+	if IsThreshold(name) {
+		return Confusion{TP: tp, FP: fp, TN: tn, FN: fn}.Rate(name)
 	}
 	return math.NaN(), fmt.Errorf("metrics: unknown metric %q", name)
 }
