@@ -46,3 +46,28 @@ func TestFactsMatchComputation(t *testing.T) {
 		t.Error("an unknown metric has facts")
 	}
 }
+
+// TestFactFlagsAgreeWithValues checks the two flags against the values on
+// the worked example of hand_test.go: a metric has Threshold exactly when
+// its value moves as the threshold goes from 0.5 to 0.8, and Proportion
+// exactly when it is a ratio of weighted confusion counts, i.e. a share of
+// records (Confusion.Rate accepts it).
+func TestFactFlagsAgreeWithValues(t *testing.T) {
+	for _, f := range Facts() {
+		at5, err5 := Compute(f.Name, handLabels, handScores, 0.5, 4, handWeights)
+		at8, err8 := Compute(f.Name, handLabels, handScores, 0.8, 4, handWeights)
+		if err5 != nil || err8 != nil {
+			t.Fatalf("%s: %v, %v", f.Name, err5, err8)
+		}
+		if moved := at5 != at8; moved != f.Threshold {
+			t.Errorf("%s: value %v at 0.5 and %v at 0.8, but Threshold is %v", f.Name, at5, at8, f.Threshold)
+		}
+		_, err := (Confusion{TP: 1, FP: 1, TN: 1, FN: 1}).Rate(f.Name)
+		if share := err == nil; share != f.Proportion {
+			t.Errorf("%s: a share of records is %v but Proportion is %v", f.Name, share, f.Proportion)
+		}
+		if got, ok := FactOf(f.Name); !ok || got != f || IsThreshold(f.Name) != f.Threshold {
+			t.Errorf("%s: FactOf = %+v, %v; IsThreshold %v", f.Name, got, ok, IsThreshold(f.Name))
+		}
+	}
+}

@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"github.com/gapwise/gapwise/fairness"
+	"github.com/gapwise/gapwise/metrics"
 )
 
 // The expected strings are the fixture's numbers rounded by hand (analytic
@@ -138,5 +139,30 @@ func TestUnreliableFollowsVerdict(t *testing.T) {
 				t.Errorf("unreliable = %v, want %v", got, tc.want)
 			}
 		})
+	}
+}
+
+// TestMetricFacts: the report names and formats every metric from its
+// metrics.Fact: the title in running text, and percentages with gaps in
+// points exactly for the proportions (0.25 → "25.0%", +0.09 → "+9.0 pts";
+// other metrics 0.250 and +0.090, by hand).
+func TestMetricFacts(t *testing.T) {
+	for _, f := range metrics.Facts() {
+		if got := MetricTitle(f.Name); got != f.Title || got == "" {
+			t.Errorf("MetricTitle(%s) = %q, want %q", f.Name, got, f.Title)
+		}
+		value, delta := "0.250", "+0.090"
+		if f.Proportion {
+			value, delta = "25.0%", "+9.0 pts"
+		}
+		if got := formatValue(f.Name, 0.25); got != value {
+			t.Errorf("formatValue(%s) = %q, want %q", f.Name, got, value)
+		}
+		if got := formatDelta(f.Name, 0.09); got != delta {
+			t.Errorf("formatDelta(%s) = %q, want %q", f.Name, got, delta)
+		}
+	}
+	if got := MetricTitle("f1"); got != "f1" {
+		t.Errorf("MetricTitle(f1) = %q", got)
 	}
 }
