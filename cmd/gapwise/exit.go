@@ -28,8 +28,9 @@ func (e *runError) Unwrap() error { return e.err }
 
 // exitCode maps an error from executing the root command to an exit
 // status: errors from cobra's parsing, usage errors and input errors
-// (fairness.IsInputError, an output folder that is in the way) give 2,
-// everything else 1.
+// (fairness.IsInputError, an output folder that is in the way) give 2, a
+// write stopped by a signal 128+n (the shell's status for signal n, used
+// only when the signal cannot be re-raised), everything else 1.
 func exitCode(err error) int {
 	if err == nil {
 		return exitOK
@@ -37,6 +38,10 @@ func exitCode(err error) int {
 	var re *runError
 	if !errors.As(err, &re) {
 		return exitInput // cobra: unknown command or flag, missing required flag, ...
+	}
+	var ie *interruptedError
+	if errors.As(err, &ie) {
+		return signalStatus(ie.sig)
 	}
 	var ue *usageError
 	var oe *outDirError

@@ -11,7 +11,9 @@
 //	gapwise --version
 //
 // Exit status: 0 on success, 1 when the tool fails, 2 for bad input or
-// usage (an unknown flag, a bad spec or data file).
+// usage (an unknown flag, a bad spec or data file, an output folder in the
+// way). On SIGINT, SIGTERM or SIGHUP gapwise removes its temporary files
+// and ends by the same signal (the shell shows 128+n: 130 for SIGINT).
 package main
 
 import "os"
@@ -21,5 +23,6 @@ import "os"
 var version = "dev"
 
 func main() {
-	os.Exit(execute(os.Args[1:], os.Stdout, os.Stderr))
+	interrupts = watchSignals()
+	interrupts.exit(execute(os.Args[1:], os.Stdout, os.Stderr))
 }
