@@ -47,7 +47,9 @@ graph's mechanisms, with diagnostics, warnings and assumptions.
 
 With --out DIR it also writes result.json (the machine-readable result) and
 report.html (a standalone page) into DIR. DIR appears only when both files are
-complete; an existing non-empty DIR is refused unless --force is given.
+complete; an existing non-empty DIR is refused unless --force is given, and
+then the two files are replaced together. An output that is the same file as
+the spec or the data is refused.
 
 --intervals N adds percentile bootstrap intervals from N replicates (default
 0: none, which keeps decompose fast) at --level (default 0.95); each replicate
@@ -82,8 +84,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err := o.intervals.check(); err != nil {
 		return err
 	}
+	out := outDir{path: o.out, force: o.force, inputs: []string{o.spec}}
 	if o.out != "" {
-		if err := checkOutDir(o.out, o.force); err != nil {
+		if err := out.check(resultFile, reportFile); err != nil {
 			return err
 		}
 	}
@@ -91,8 +94,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	out.inputs = []string{o.spec, spec.DataPath}
 	if o.out != "" {
-		if err := refuseOverwritingInputs(o.out, []string{resultFile, reportFile}, spec.File, spec.DataPath); err != nil {
+		if err := out.checkInputs(resultFile, reportFile); err != nil {
 			return err
 		}
 	}
@@ -113,7 +117,7 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 		return err
 	}
 	if o.out != "" {
-		if err := writeOutDir(o.out, files, o.force); err != nil {
+		if err := out.write(files); err != nil {
 			return err
 		}
 	}

@@ -2,11 +2,8 @@ package main
 
 import (
 	"bytes"
-	"errors"
 	"fmt"
 	"io"
-	"io/fs"
-	"os"
 	"path/filepath"
 
 	"github.com/spf13/cobra"
@@ -68,8 +65,11 @@ By default the audit adds 95% intervals from 100 fast bootstrap replicates
 }
 
 // runDemo is `gapwise demo`. The cohort and spec are written first (as one
-// folder, atomically); decompose then adds result.json and report.html. A
-// failed audit therefore leaves the inputs in place to inspect.
+// write, see outDir); decompose then adds result.json and report.html. A
+// failed audit therefore leaves the inputs in place to inspect. The demo's
+// inputs are files it makes itself: with --force the folder's cohort.csv
+// and spec.yaml are replaced (by rename, so a file linked to them
+// elsewhere keeps its content; a symbolic link of those names is refused).
 func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if o.rows < 100 {
 		return &usageError{fmt.Sprintf("--rows must be at least 100, got %d", o.rows)}
@@ -85,7 +85,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err := o.intervals.check(); err != nil {
 		return err
 	}
-	if err := checkOutDir(o.out, o.force); err != nil {
+	if err := (outDir{path: o.out, force: o.force}).check(demoData, demoSpec, resultFile, reportFile); err != nil {
 		return err
 	}
 	line := newProgressLine(stderr)
@@ -97,15 +97,11 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 		return err
 	}
 	inputs := []outFile{{demoData, csv.Bytes()}, {demoSpec, synth.AnaemiaSpec(demoData)}}
-	if err := writeOutDir(o.out, inputs, o.force); err != nil {
-		return err
-	}
 	// Outputs of an earlier demo in a forced folder would not match the new
-	// cohort: remove them so that a failed audit leaves only the inputs.
-	for _, f := range []string{resultFile, reportFile} {
-		if err := os.Remove(filepath.Join(o.out, f)); err != nil && !errors.Is(err, fs.ErrNotExist) {
-			return err
-		}
+	// cohort: they leave with the old inputs, so a failed audit leaves only
+	// the new inputs.
+	if err := (outDir{path: o.out, force: o.force}).write(inputs, resultFile, reportFile); err != nil {
+		return err
 	}
 	specPath := filepath.Join(o.out, demoSpec)
 	spec, err := fairness.LoadSpec(specPath)
@@ -120,7 +116,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	if err := writeOutDir(o.out, files, true); err != nil {
+	if err := (outDir{path: o.out, force: true, inputs: []string{specPath, spec.DataPath}}).write(files); err != nil {
 		return err
 	}
 	return report.DemoSummary(stdout, res, report.DemoOutputs{

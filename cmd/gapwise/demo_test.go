@@ -123,7 +123,7 @@ func TestGeneratedSpecsParse(t *testing.T) {
 		if err := tab.WriteCSV(&csv); err != nil {
 			t.Fatal(err)
 		}
-		if err := writeOutDir(dir, []outFile{{"cohort.csv", []byte(csv.String())}, {"spec.yaml", synth.BenchSpec("cohort.csv", k)}}, false); err != nil {
+		if err := (outDir{path: dir}).write([]outFile{{"cohort.csv", []byte(csv.String())}, {"spec.yaml", synth.BenchSpec("cohort.csv", k)}}); err != nil {
 			t.Fatal(err)
 		}
 		var stdout, stderr strings.Builder

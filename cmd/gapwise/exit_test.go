@@ -16,6 +16,10 @@ func TestExitCodes(t *testing.T) {
 	if err := os.WriteFile(notDir, []byte("x"), 0o644); err != nil {
 		t.Fatal(err)
 	}
+	dangling := filepath.Join(dir, "dangling")
+	if err := os.Symlink(filepath.Join(dir, "gone"), dangling); err != nil {
+		t.Fatal(err)
+	}
 	cases := []struct {
 		name   string
 		args   []string
@@ -31,7 +35,9 @@ func TestExitCodes(t *testing.T) {
 		{"spec not found", []string{"decompose", "--spec", filepath.Join(dir, "nope.yaml")}, exitInput, "nope.yaml: spec file not found"},
 		{"check spec not found", []string{"check", "--spec", filepath.Join(dir, "nope.yaml")}, exitInput, "spec file not found"},
 		{"out is a file", []string{"decompose", "--spec", "x.yaml", "--out", notDir}, exitInput, "exists and is not a folder"},
-		{"out under a file", []string{"decompose", "--spec", "x.yaml", "--out", filepath.Join(notDir, "sub")}, exitFailure, "not a directory"},
+		{"out under a file", []string{"decompose", "--spec", "x.yaml", "--out", filepath.Join(notDir, "sub")}, exitInput, "cannot be created: " + notDir + " exists and is not a folder"},
+		{"out a dangling link", []string{"decompose", "--spec", "x.yaml", "--out", dangling}, exitInput, "which does not exist"},
+		{"demo out under a file", []string{"demo", "--out", filepath.Join(notDir, "sub")}, exitInput, "exists and is not a folder"},
 		{"one replicate", []string{"decompose", "--spec", "x.yaml", "--intervals", "1"}, exitInput, "--intervals must be 0 (no intervals) or at least 2, got 1"},
 		{"negative replicates", []string{"decompose", "--spec", "x.yaml", "--intervals", "-5"}, exitInput, "--intervals must be 0"},
 		{"level above 1", []string{"decompose", "--spec", "x.yaml", "--intervals", "50", "--level", "95"}, exitInput, "--level must be strictly between 0 and 1"},

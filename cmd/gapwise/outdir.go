@@ -1,9 +1,7 @@
 package main
 
 import (
-	"errors"
 	"fmt"
-	"io/fs"
 	"os"
 	"path/filepath"
 )
@@ -14,124 +12,116 @@ type outFile struct {
 	data []byte
 }
 
-// outDirError is an output folder that cannot be used as asked, e.g. one
-// that is not empty without --force. It is a usage problem (exit status 2).
+// outDirError is an output folder that cannot be used as asked: one in the
+// way, not writable, or holding an input under an output's name. It is a
+// usage problem (exit status 2).
 type outDirError struct {
 	dir, problem string
 }
 
 func (e *outDirError) Error() string { return fmt.Sprintf("output folder %s: %s", e.dir, e.problem) }
 
-// checkOutDir reports whether dir can receive outputs: it must not exist,
-// be an empty folder, or (with force) be any folder. It is called before
-// the work starts so that a long run does not end in a refusal.
-func checkOutDir(dir string, force bool) error {
-	info, err := os.Stat(dir)
-	if errors.Is(err, fs.ErrNotExist) {
-		return nil
-	}
-	if err != nil {
-		return err
-	}
-	if !info.IsDir() {
-		return &outDirError{dir, "exists and is not a folder"}
-	}
-	empty, err := isEmptyDir(dir)
-	if err != nil {
-		return err
-	}
-	if !empty && !force {
-		return &outDirError{dir, "exists and is not empty (use --force to replace the files gapwise writes there)"}
-	}
-	return nil
+// outDir is an output folder and the rules for writing it.
+//
+// What a write guarantees:
+//   - Each file appears whole: it is written under a temporary name,
+//     flushed to disk (fsync) and renamed, never written in place.
+//   - A folder that does not exist appears only with every file in it: the
+//     files go into a hidden folder beside it, which is renamed to path.
+//   - In an existing folder (with force when it is not empty) the files of
+//     one write change together: they are staged in a hidden folder inside
+//     it (.gapwise-tmp-*), then every old file of the same names (and of
+//     the retired names) is moved out into the stage before any new one is
+//     moved in. At no moment, not even after a crash, does the folder hold
+//     a new file beside an old one; other files are left alone. A failed
+//     move is rolled back.
+//   - SIGINT, SIGTERM and SIGHUP are held back while writing (see
+//     interruptGuard): the temporary files are removed and the folder is
+//     left as it was; the final moves are never interrupted halfway.
+//   - No output is the same file as an input (compared by identity, so hard
+//     links, symbolic links and different spellings of a path are caught),
+//     and an existing output name must be a regular file: it is replaced by
+//     rename, so a link is never written through.
+//   - A symbolic link to a folder is written through; it is never replaced.
+//
+// What cannot be guaranteed: a crash (power loss, SIGKILL, the kernel's
+// out-of-memory killer) while the files are moved leaves the folder with
+// only part of one write's files and the rest in the hidden stage folder;
+// a crash before leaves a hidden temporary folder. Neither is removed by a
+// later run (another gapwise may be using it); both can be deleted.
+type outDir struct {
+	path   string   // the folder, as given
+	force  bool     // a non-empty folder may receive files
+	inputs []string // files the run reads: no output may be one of them
 }
 
-func isEmptyDir(dir string) (bool, error) {
-	entries, err := os.ReadDir(dir)
-	if err != nil {
-		return false, err
+// write places files in d (see outDir) after checking it again, and moves
+// the files named in retire, if present, out of the folder together with
+// the old files (so that stale outputs never sit beside new inputs).
+// Missing parent folders are created, and removed again on failure.
+func (d outDir) write(files []outFile, retire ...string) error {
+	names := make([]string, 0, len(files)+len(retire))
+	for _, f := range files {
+		names = append(names, f.name)
 	}
-	return len(entries) == 0, nil
+	exists, err := d.inspect(append(names, retire...))
+	if err != nil {
+		return err
+	}
+	if err := interrupts.begin(); err != nil {
+		return err
+	}
+	defer interrupts.end()
+	if exists {
+		return d.swapIn(files, retire)
+	}
+	return d.create(files)
 }
 
-// writeOutDir places files in dir so that a reader never sees a partial
-// set. When dir does not exist (or is empty) the files are written into a
-// temporary folder beside it, which is then renamed to dir: dir appears
-// only if every file was written. When dir holds other files (allowed by
-// force), each file is written to a temporary file in dir and renamed over
-// its target, so each file is replaced whole; other files are left alone.
-// Missing parent folders are created.
-func writeOutDir(dir string, files []outFile, force bool) error {
-	if err := checkOutDir(dir, force); err != nil {
-		return err
-	}
-	if _, err := os.Stat(dir); err == nil {
-		empty, err := isEmptyDir(dir)
-		if err != nil {
-			return err
-		}
-		if !empty {
-			return replaceFiles(dir, files)
-		}
-		if err := os.Remove(dir); err != nil { // an empty folder: rebuild it whole
-			return err
-		}
-	}
-	parent := filepath.Dir(filepath.Clean(dir))
-	if err := os.MkdirAll(parent, 0o755); err != nil {
-		return err
-	}
-	tmp, err := os.MkdirTemp(parent, "."+filepath.Base(dir)+".tmp-")
+// create writes files into a new folder d.path: a hidden temporary folder
+// beside it, renamed to d.path once every file is on disk.
+func (d outDir) create(files []outFile) (err error) {
+	parent := filepath.Dir(filepath.Clean(d.path))
+	made, err := mkdirParents(parent)
 	if err != nil {
 		return err
 	}
-	committed := false
+	tmp := ""
 	defer func() {
-		if !committed {
-			os.RemoveAll(tmp)
+		if err != nil {
+			if tmp != "" {
+				os.RemoveAll(tmp)
+			}
+			removeEmpty(made)
 		}
 	}()
-	for _, f := range files {
-		if err := writeSynced(filepath.Join(tmp, f.name), f.data); err != nil {
-			return err
-		}
-	}
-	if err := os.Chmod(tmp, 0o755); err != nil { // MkdirTemp makes it 0700
+	if tmp, err = os.MkdirTemp(parent, "."+filepath.Base(d.path)+".tmp-"); err != nil {
 		return err
 	}
-	if err := os.Rename(tmp, dir); err != nil {
+	if err = stageFiles(tmp, files); err != nil {
 		return err
 	}
-	committed = true
+	if err = os.Chmod(tmp, 0o755); err != nil { // MkdirTemp makes it 0700
+		return err
+	}
+	if err = interrupts.checkpoint("before rename"); err != nil {
+		return err
+	}
+	if err = os.Rename(tmp, d.path); err != nil {
+		return err
+	}
+	syncDir(parent)
 	return nil
 }
 
-// replaceFiles writes each file to a temporary file in dir and renames it
-// over its target.
-func replaceFiles(dir string, files []outFile) error {
+// stageFiles writes each file into dir, checking for a signal after each.
+func stageFiles(dir string, files []outFile) error {
 	for _, f := range files {
-		tmp, err := os.CreateTemp(dir, "."+f.name+".tmp-")
-		if err != nil {
+		if err := writeSynced(filepath.Join(dir, f.name), f.data); err != nil {
 			return err
 		}
-		name := tmp.Name()
-		_, werr := tmp.Write(f.data)
-		if werr == nil {
-			werr = tmp.Sync()
-		}
-		cerr := tmp.Close()
-		if werr == nil {
-			werr = cerr
-		}
-		if werr == nil {
-			werr = os.Chmod(name, 0o644)
-		}
-		if werr == nil {
-			werr = os.Rename(name, filepath.Join(dir, f.name))
-		}
-		if werr != nil {
-			os.Remove(name)
-			return werr
+		if err := interrupts.checkpoint("staged " + f.name); err != nil {
+			return err
 		}
 	}
 	return nil
@@ -154,24 +144,41 @@ func writeSynced(path string, data []byte) error {
 	return f.Close()
 }
 
-// refuseOverwritingInputs returns an *outDirError when one of the output
-// files names (in dir) is the same file as one of the inputs, compared by
-// file identity (os.SameFile: hard links, symbolic links and different
-// spellings of one path are all caught), so that --force can never replace
-// a spec or data file with a result.
-func refuseOverwritingInputs(dir string, names []string, inputs ...string) error {
-	for _, in := range inputs {
-		ii, err := os.Stat(in)
-		if err != nil {
-			continue // a missing input is reported by its loader
-		}
-		for _, name := range names {
-			out := filepath.Join(dir, name)
-			oi, err := os.Stat(out)
-			if err == nil && os.SameFile(ii, oi) {
-				return &outDirError{dir, fmt.Sprintf("its %s is the input file %s; gapwise never writes over an input (choose another --out)", name, in)}
-			}
-		}
+// syncDir flushes a folder's entries (the renames in it) to disk. It is
+// best effort: some systems cannot sync a folder, and the files themselves
+// are already synced.
+func syncDir(dir string) {
+	if f, err := os.Open(dir); err == nil {
+		f.Sync()
+		f.Close()
 	}
-	return nil
+}
+
+// mkdirParents creates dir and its missing parents, returning the folders
+// it created, outermost first.
+func mkdirParents(dir string) ([]string, error) {
+	var missing []string
+	for p := filepath.Clean(dir); ; p = filepath.Dir(p) {
+		if _, err := os.Lstat(p); err == nil || filepath.Dir(p) == p {
+			break
+		}
+		missing = append(missing, p)
+	}
+	var made []string
+	for i := len(missing) - 1; i >= 0; i-- {
+		if err := os.Mkdir(missing[i], 0o755); err != nil {
+			removeEmpty(made)
+			return nil, err
+		}
+		made = append(made, missing[i])
+	}
+	return made, nil
+}
+
+// removeEmpty removes the folders made by mkdirParents, innermost first,
+// if they are still empty.
+func removeEmpty(made []string) {
+	for i := len(made) - 1; i >= 0; i-- {
+		os.Remove(made[i])
+	}
 }

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
@@ -16,11 +17,37 @@ func readFile(t *testing.T, path string) string {
 	return string(b)
 }
 
+func writeFile(t *testing.T, path, data string) {
+	t.Helper()
+	if err := os.WriteFile(path, []byte(data), 0o644); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// entryNames lists a folder's entries, hidden ones included.
+func entryNames(t *testing.T, dir string) []string {
+	t.Helper()
+	entries, err := os.ReadDir(dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var names []string
+	for _, e := range entries {
+		names = append(names, e.Name())
+	}
+	return names
+}
+
+// pair is a result.json and report.html of one generation.
+func pair(gen string) []outFile {
+	return []outFile{{resultFile, []byte("result " + gen)}, {reportFile, []byte("report " + gen)}}
+}
+
 func TestWriteOutDirCreatesWhole(t *testing.T) {
 	root := t.TempDir()
 	for _, dir := range []string{filepath.Join(root, "new"), filepath.Join(root, "a", "b", "deep")} {
 		files := []outFile{{"result.json", []byte("{}\n")}, {"report.html", []byte("<p>")}}
-		if err := writeOutDir(dir, files, false); err != nil {
+		if err := (outDir{path: dir}).write(files); err != nil {
 			t.Fatal(err)
 		}
 		if got := readFile(t, filepath.Join(dir, "report.html")); got != "<p>" {
@@ -39,27 +66,27 @@ func TestWriteOutDirCreatesWhole(t *testing.T) {
 
 func TestWriteOutDirEmptyExisting(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "out")
-	if err := os.Mkdir(dir, 0o755); err != nil {
+	if err := os.Mkdir(dir, 0o750); err != nil {
 		t.Fatal(err)
 	}
-	if err := writeOutDir(dir, []outFile{{"result.json", []byte("x")}}, false); err != nil {
+	if err := (outDir{path: dir}).write([]outFile{{"result.json", []byte("x")}}); err != nil {
 		t.Fatal(err)
 	}
 	if got := readFile(t, filepath.Join(dir, "result.json")); got != "x" {
 		t.Errorf("result.json = %q", got)
+	}
+	// The folder itself is kept, not rebuilt: its mode is unchanged.
+	if info, _ := os.Stat(dir); info.Mode().Perm() != 0o750 {
+		t.Errorf("folder mode %v, want the original 0750", info.Mode().Perm())
 	}
 }
 
 func TestWriteOutDirRefusesNonEmpty(t *testing.T) {
 	dir := t.TempDir()
 	keep := filepath.Join(dir, "notes.txt")
-	if err := os.WriteFile(keep, []byte("mine"), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(filepath.Join(dir, "result.json"), []byte("old"), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	err := writeOutDir(dir, []outFile{{"result.json", []byte("new")}}, false)
+	writeFile(t, keep, "mine")
+	writeFile(t, filepath.Join(dir, "result.json"), "old")
+	err := (outDir{path: dir}).write([]outFile{{"result.json", []byte("new")}})
 	var oe *outDirError
 	if !errors.As(err, &oe) {
 		t.Fatalf("got %v, want an outDirError", err)
@@ -68,7 +95,7 @@ func TestWriteOutDirRefusesNonEmpty(t *testing.T) {
 		t.Errorf("refused write changed result.json to %q", got)
 	}
 	// With force the named files are replaced and others kept.
-	if err := writeOutDir(dir, []outFile{{"result.json", []byte("new")}, {"report.html", []byte("h")}}, true); err != nil {
+	if err := (outDir{path: dir, force: true}).write([]outFile{{"result.json", []byte("new")}, {"report.html", []byte("h")}}); err != nil {
 		t.Fatal(err)
 	}
 	if got := readFile(t, filepath.Join(dir, "result.json")); got != "new" {
@@ -77,35 +104,77 @@ func TestWriteOutDirRefusesNonEmpty(t *testing.T) {
 	if got := readFile(t, keep); got != "mine" {
 		t.Errorf("other file changed to %q", got)
 	}
-	entries, _ := os.ReadDir(dir)
-	if len(entries) != 3 {
-		t.Errorf("folder holds %d entries, want 3 (no temporary files)", len(entries))
+	if names := entryNames(t, dir); len(names) != 3 {
+		t.Errorf("folder holds %v, want 3 entries (no temporary files)", names)
 	}
 }
 
 func TestWriteOutDirNotAFolder(t *testing.T) {
 	path := filepath.Join(t.TempDir(), "file")
-	if err := os.WriteFile(path, []byte("x"), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	writeFile(t, path, "x")
 	var oe *outDirError
-	if err := writeOutDir(path, nil, true); !errors.As(err, &oe) {
+	if err := (outDir{path: path, force: true}).write(nil); !errors.As(err, &oe) {
 		t.Fatalf("got %v, want an outDirError", err)
 	}
 }
 
 // TestWriteOutDirFailureLeavesNothing: when a file cannot be written the
-// folder must not appear, and no temporary folder may remain.
+// folder must not appear, nor the parents made for it, and no temporary
+// folder may remain.
 func TestWriteOutDirFailureLeavesNothing(t *testing.T) {
-	root := t.TempDir()
-	dir := filepath.Join(root, "out")
-	files := []outFile{{"result.json", []byte("{}")}, {"missing-sub/report.html", []byte("x")}}
-	if err := writeOutDir(dir, files, false); err == nil {
-		t.Fatal("no error for an unwritable file")
+	for _, sub := range []string{"out", filepath.Join("a", "b", "out")} {
+		root := t.TempDir()
+		files := []outFile{{"result.json", []byte("{}")}, {"missing-sub/report.html", []byte("x")}}
+		if err := (outDir{path: filepath.Join(root, sub)}).write(files); err == nil {
+			t.Fatal("no error for an unwritable file")
+		}
+		if names := entryNames(t, root); len(names) != 0 {
+			t.Errorf("%s: left behind: %v", sub, names)
+		}
 	}
-	entries, _ := os.ReadDir(root)
-	if len(entries) != 0 {
-		t.Errorf("left behind: %v", entries)
+}
+
+// TestWriteOutDirRetires: the retired names leave with the old generation
+// (demo: stale outputs of an earlier cohort), other files stay.
+func TestWriteOutDirRetires(t *testing.T) {
+	dir := t.TempDir()
+	for _, f := range []string{demoData, demoSpec, resultFile, reportFile, "keep.txt"} {
+		writeFile(t, filepath.Join(dir, f), "old "+f)
+	}
+	inputs := []outFile{{demoData, []byte("new cohort")}, {demoSpec, []byte("new spec")}}
+	if err := (outDir{path: dir, force: true}).write(inputs, resultFile, reportFile); err != nil {
+		t.Fatal(err)
+	}
+	want := []string{demoData, "keep.txt", demoSpec}
+	if got := entryNames(t, dir); strings.Join(got, " ") != strings.Join(want, " ") {
+		t.Errorf("folder holds %v, want %v", got, want)
+	}
+	if got := readFile(t, filepath.Join(dir, demoData)); got != "new cohort" {
+		t.Errorf("cohort.csv = %q", got)
+	}
+}
+
+// TestWriteOutDirHardLinkedTarget: an existing output that is a hard link
+// of a file elsewhere is replaced by rename; the file elsewhere keeps its
+// content (rename never writes into an existing file; POSIX rename(2)).
+func TestWriteOutDirHardLinkedTarget(t *testing.T) {
+	root := t.TempDir()
+	dir, elsewhere := filepath.Join(root, "out"), filepath.Join(root, "precious.csv")
+	if err := os.Mkdir(dir, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	writeFile(t, elsewhere, "precious")
+	if err := os.Link(elsewhere, filepath.Join(dir, demoData)); err != nil {
+		t.Skipf("no hard links here: %v", err)
+	}
+	if err := (outDir{path: dir, force: true}).write([]outFile{{demoData, []byte("new")}}); err != nil {
+		t.Fatal(err)
+	}
+	if got := readFile(t, elsewhere); got != "precious" {
+		t.Errorf("file linked elsewhere changed to %q", got)
+	}
+	if got := readFile(t, filepath.Join(dir, demoData)); got != "new" {
+		t.Errorf("cohort.csv = %q", got)
 	}
 }
 
@@ -136,7 +205,7 @@ func TestRefuseOverwritingInputs(t *testing.T) {
 		if err := c.make(out); err != nil {
 			t.Fatal(err)
 		}
-		err := refuseOverwritingInputs(out, []string{resultFile, reportFile}, data)
+		err := (outDir{path: out, inputs: []string{data}}).checkInputs(resultFile, reportFile)
 		var oe *outDirError
 		if got := errors.As(err, &oe); got != c.refuse {
 			t.Errorf("%s: error %v, want refused %v", c.name, err, c.refuse)
@@ -148,7 +217,7 @@ func TestRefuseOverwritingInputs(t *testing.T) {
 		t.Fatal(err)
 	}
 	t.Chdir(dir)
-	if err := refuseOverwritingInputs(".", []string{resultFile}, "./"+resultFile); err == nil {
+	if err := (outDir{path: ".", inputs: []string{"./" + resultFile}}).checkInputs(resultFile); err == nil {
 		t.Error("the input itself as an output was accepted")
 	}
 }
