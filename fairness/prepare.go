@@ -111,18 +111,13 @@ func observeMetrics(spec *Spec, s *attribution.Sample) error {
 	return decomposeError(spec, err)
 }
 
-// undefinedMetric builds the error for metric name in one group.
+// undefinedMetric builds the error for metric name in one group; the
+// reason is that of the metric's row in the facts table (metrics.FactOf).
 func undefinedMetric(spec *Spec, name string, comparison bool) *MetricUndefinedError {
 	g := spec.Groups.Reference
 	if comparison {
 		g = spec.Groups.Comparison
 	}
-	return &MetricUndefinedError{Metric: name, Group: g, Column: spec.Groups.Column, Reason: undefinedReason(name)}
-}
-
-// undefinedReason says what a group lacks when metric name has no value:
-// the denominator of each metric (see metrics.Confusion.Rate).
-func undefinedReason(name string) string {
 	f, _ := metrics.FactOf(name)
-	return f.UndefinedReason()
+	return &MetricUndefinedError{Metric: name, Group: g, Column: spec.Groups.Column, Reason: f.UndefinedReason()}
 }

@@ -51,3 +51,30 @@ func TestUndefinedReasonsFromFacts(t *testing.T) {
 		t.Errorf("nil maps to %v", err)
 	}
 }
+
+// TestUndefinedMessagesUnchanged pins the sentence users see for every
+// metric undefined in a group: the messages of the baseline binary at
+// 07b2ed3, before the reasons moved into the metrics facts table (its
+// switch in fairness/plan.go, copied by hand).
+func TestUndefinedMessagesUnchanged(t *testing.T) {
+	spec, err := ParseSpec("spec.yaml", []byte(exampleSpec))
+	if err != nil {
+		t.Fatal(err)
+	}
+	baseline := map[string]string{
+		"fpr": "it has no negatives", "tpr": "it has no positives", "fnr": "it has no positives",
+		"ppv": "no record is decided positive at this threshold", "npv": "no record is decided negative at this threshold",
+		"selection_rate": "it has no records", "accuracy": "it has no records", "brier": "it has no records",
+		"log_loss": "it has no records", "calibration_in_the_large": "it has no records", "ece": "it has no records",
+		"auc": "it needs both positives and negatives",
+	}
+	if len(baseline) != len(metrics.Names()) {
+		t.Errorf("baseline has %d metrics, the facts table %d", len(baseline), len(metrics.Names()))
+	}
+	for _, name := range metrics.Names() {
+		want := `metric ` + name + ` is undefined in group "north" (clinic): ` + baseline[name]
+		if got := undefinedMetric(spec, name, false).Error(); got != want {
+			t.Errorf("got %q, want %q", got, want)
+		}
+	}
+}

@@ -6,6 +6,17 @@ import (
 	"testing"
 )
 
+// TestNamesAsDocumented: the facts table holds exactly the twelve metrics
+// the README documents for the spec key `metrics`, in that order (Names is
+// read off the table, so this is the check from outside it).
+func TestNamesAsDocumented(t *testing.T) {
+	want := []string{"fpr", "tpr", "fnr", "ppv", "npv", "selection_rate", "accuracy",
+		"brier", "log_loss", "calibration_in_the_large", "ece", "auc"}
+	if got := Names(); !slices.Equal(got, want) {
+		t.Errorf("Names() = %v, want %v", got, want)
+	}
+}
+
 // TestFactsMatchComputation: the facts table lists exactly the metrics
 // Compute supports, each with a title, and its Counts field says exactly
 // when Compute finds the metric undefined: on a sample without the
