@@ -15,6 +15,10 @@ type RunOptions struct {
 	Workers int    // goroutines for estimation; 0 means GOMAXPROCS
 	Version string // recorded in Result.Tool
 
+	// Intervals, if non-nil, replaces the spec's intervals key for this
+	// run (Replicates 0: no intervals); nil runs what spec.Intervals asks
+	// for. The CLI's bootstrap flags set it.
+	Intervals *Intervals
 	// Progress, if non-nil, is called after each bootstrap replicate.
 	Progress func(done, total int)
 	// SamplingProgress, if non-nil, is called after each batch of sampled
@@ -63,9 +67,9 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	}
 	var dec *attribution.Decomposition
 	var boot *attribution.BootstrapSummary
-	if spec.Intervals.Replicates > 0 {
+	if iv := opt.intervals(spec); iv.Replicates != 0 {
 		dec, boot, err = attribution.DecomposeWithIntervals(sample, mechs, spec.Metrics, aopt, attribution.BootstrapOptions{
-			Intervals: spec.Intervals,
+			Intervals: iv,
 			Progress:  opt.Progress,
 		})
 	} else {
@@ -86,6 +90,15 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		return nil, err
 	}
 	return r, nil
+}
+
+// intervals returns the bootstrap settings of a run: opt.Intervals when
+// set, otherwise the spec's intervals key.
+func (opt RunOptions) intervals(spec *Spec) Intervals {
+	if opt.Intervals != nil {
+		return *opt.Intervals
+	}
+	return spec.Intervals
 }
 
 // candidateLearners returns the learners a classifier setting stands for

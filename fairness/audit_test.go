@@ -326,6 +326,40 @@ func TestRunAutoAndBootstrap(t *testing.T) {
 	}
 }
 
+// TestRunIntervalsOverride: RunOptions.Intervals wins over the spec's
+// intervals key, both for other settings and for none at all, and leaves
+// the spec as it was.
+func TestRunIntervalsOverride(t *testing.T) {
+	spec := writeAudit(t, smallSpec+"intervals: {replicates: 20, level: 0.9, keep_ratios: true}\n", smallData(160))
+	asked := spec.Intervals
+	cases := []struct {
+		name     string
+		override Intervals
+		want     *IntervalSettings // nil: no bootstrap ran
+	}{
+		{"other settings", Intervals{Replicates: 6, Level: 0.8, KeepRatios: true},
+			&IntervalSettings{Intervals: Intervals{Replicates: 6, Level: 0.8, KeepRatios: true}}},
+		{"none", Intervals{Replicates: 0, Level: 0.9, KeepRatios: true}, nil},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			r, err := Run(spec, RunOptions{Workers: 2, Intervals: &c.override})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := r.Settings.Intervals; (got == nil) != (c.want == nil) || got != nil && *got != *c.want {
+				t.Errorf("settings.intervals %+v, want %+v", got, c.want)
+			}
+			if hasCI := r.Metrics[0].GapCI != nil; hasCI != (c.want != nil) {
+				t.Errorf("gap interval present %v, want %v", hasCI, c.want != nil)
+			}
+			if spec.Intervals != asked {
+				t.Errorf("Run changed spec.Intervals to %+v", spec.Intervals)
+			}
+		})
+	}
+}
+
 func TestDecomposeError(t *testing.T) {
 	spec, err := ParseSpec("spec.yaml", []byte(exampleSpec))
 	if err != nil {

@@ -79,8 +79,8 @@ type Spec struct {
 	// attribution.DefaultExactLimit).
 	ExactLimit int
 	// Intervals holds the intervals key (Replicates 0: no intervals). Run
-	// reads it; a caller that overrides it (the CLI's flags do) sets it
-	// before calling Run.
+	// reads it unless RunOptions.Intervals overrides it (the CLI's flags
+	// do).
 	Intervals Intervals
 	Synthetic bool
 	Title     string

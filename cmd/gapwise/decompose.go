@@ -177,8 +177,8 @@ func outputFiles(res *fairness.Result) ([]outFile, error) {
 // audit runs fairness.Run on spec with the bootstrap settings of the spec
 // and the flags, showing progress on line.
 func audit(spec *fairness.Spec, workers int, iv intervalOptions, line *progressLine) (*fairness.Result, error) {
-	ro := fairness.RunOptions{Workers: workers, Version: version, Progress: line.bootstrap(), SamplingProgress: line.sampling()}
-	iv.apply(spec)
+	ro := fairness.RunOptions{Workers: workers, Version: version, Intervals: iv.override(spec.Intervals),
+		Progress: line.bootstrap(), SamplingProgress: line.sampling()}
 	line.show("gapwise: estimating %d mechanisms for %d metrics ...", len(spec.Graph), len(spec.Metrics))
 	return fairness.Run(spec, ro)
 }

@@ -69,8 +69,8 @@ func TestDecomposeDeterministic(t *testing.T) {
 		t.Fatalf("JSON output does not parse: %v", err)
 	}
 	checkSums(t, &res)
-	if iv := res.Settings.Intervals; iv == nil || iv.Replicates != testIntervals.replicates || iv.Level != 0.95 || !iv.KeepRatios {
-		t.Errorf("settings.intervals %+v, want %d fast replicates at 0.95", iv, testIntervals.replicates)
+	if iv := res.Settings.Intervals; iv == nil || iv.Replicates != testIntervals.flags.Replicates || iv.Level != 0.95 || !iv.KeepRatios {
+		t.Errorf("settings.intervals %+v, want %d fast replicates at 0.95", iv, testIntervals.flags.Replicates)
 	}
 	for _, m := range res.Metrics {
 		if m.GapCI == nil || m.GapCI.Low > m.GapCI.High {

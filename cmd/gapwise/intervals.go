@@ -19,9 +19,9 @@ const (
 // flag that was given overrides the spec's intervals key; one left at its
 // default gives way to the spec (the *Set fields say which were given).
 type intervalOptions struct {
-	replicates int     // --intervals: bootstrap replicates, 0 for none
-	level      float64 // --level
-	fast       bool    // --fast-intervals: keep the fitted ratios
+	// flags holds --intervals (replicates, 0 for none), --level and
+	// --fast-intervals (keep the fitted ratios).
+	flags fairness.Intervals
 
 	replicatesSet, levelSet, fastSet bool
 }
@@ -30,9 +30,9 @@ type intervalOptions struct {
 // with the given defaults.
 func bindIntervalFlags(cmd *cobra.Command, o *intervalOptions, replicates int, fast bool) {
 	f := cmd.Flags()
-	f.IntVar(&o.replicates, flagIntervals, replicates, "bootstrap replicates for percentile intervals (0: no intervals)")
-	f.Float64Var(&o.level, flagLevel, fairness.DefaultIntervalLevel, "level of the bootstrap intervals, strictly between 0 and 1")
-	f.BoolVar(&o.fast, flagFastIntervals, fast, "bootstrap with the fitted density ratios instead of refitting the classifiers (faster, narrower intervals)")
+	f.IntVar(&o.flags.Replicates, flagIntervals, replicates, "bootstrap replicates for percentile intervals (0: no intervals)")
+	f.Float64Var(&o.flags.Level, flagLevel, fairness.DefaultIntervalLevel, "level of the bootstrap intervals, strictly between 0 and 1")
+	f.BoolVar(&o.flags.KeepRatios, flagFastIntervals, fast, "bootstrap with the fitted density ratios instead of refitting the classifiers (faster, narrower intervals)")
 }
 
 // markSet records which bootstrap flags were given on the command line.
@@ -45,31 +45,36 @@ func (o *intervalOptions) markSet(cmd *cobra.Command) {
 
 // check rejects flag values the bootstrap cannot use.
 func (o intervalOptions) check() error {
-	if o.replicatesSet && (o.replicates < 0 || o.replicates == 1) {
-		return &usageError{fmt.Sprintf("--%s must be 0 (no intervals) or at least 2, got %d", flagIntervals, o.replicates)}
+	if o.replicatesSet && (o.flags.Replicates < 0 || o.flags.Replicates == 1) {
+		return &usageError{fmt.Sprintf("--%s must be 0 (no intervals) or at least 2, got %d", flagIntervals, o.flags.Replicates)}
 	}
-	if o.replicatesSet && o.replicates > fairness.MaxReplicates {
-		return &usageError{fmt.Sprintf("--%s must be at most %d, got %d", flagIntervals, fairness.MaxReplicates, o.replicates)}
+	if o.replicatesSet && o.flags.Replicates > fairness.MaxReplicates {
+		return &usageError{fmt.Sprintf("--%s must be at most %d, got %d", flagIntervals, fairness.MaxReplicates, o.flags.Replicates)}
 	}
-	if o.levelSet && !(o.level > 0 && o.level < 1) {
-		return &usageError{fmt.Sprintf("--%s must be strictly between 0 and 1 (e.g. 0.95), got %v", flagLevel, o.level)}
+	if o.levelSet && !(o.flags.Level > 0 && o.flags.Level < 1) {
+		return &usageError{fmt.Sprintf("--%s must be strictly between 0 and 1 (e.g. 0.95), got %v", flagLevel, o.flags.Level)}
 	}
 	return nil
 }
 
-// apply overrides the spec's intervals key (which fairness.Run reads)
-// with each bootstrap flag that was given.
-func (o intervalOptions) apply(spec *fairness.Spec) {
-	iv := &spec.Intervals
+// override returns the settings for fairness.RunOptions.Intervals: the
+// spec's intervals key with each bootstrap flag that was given in its
+// place, or nil when no flag was given (Run then reads the spec).
+func (o intervalOptions) override(spec fairness.Intervals) *fairness.Intervals {
+	if !o.replicatesSet && !o.levelSet && !o.fastSet {
+		return nil
+	}
+	iv := spec
 	if o.replicatesSet {
-		iv.Replicates = o.replicates
+		iv.Replicates = o.flags.Replicates
 	}
 	if o.levelSet {
-		iv.Level = o.level
+		iv.Level = o.flags.Level
 	}
 	if o.fastSet {
-		iv.KeepRatios = o.fast
+		iv.KeepRatios = o.flags.KeepRatios
 	}
+	return &iv
 }
 
 // allSet treats every bootstrap flag as given, for commands (demo) whose

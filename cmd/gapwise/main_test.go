@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"sync"
 	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
 )
 
 // testRows is the size of the demo cohort the tests audit: big enough for
@@ -14,7 +16,7 @@ const testRows = 12000
 
 // testIntervals are the bootstrap settings of the shared demo run: a few
 // fast replicates, enough for every output to carry intervals.
-var testIntervals = intervalOptions{replicates: 20, level: 0.95, fast: true}.allSet()
+var testIntervals = intervalOptions{flags: fairness.Intervals{Replicates: 20, Level: 0.95, KeepRatios: true}}.allSet()
 
 var (
 	shared       string // folder holding the shared demo, removed by TestMain
