@@ -22,7 +22,7 @@ func Names() []string { return []string{NameLinear, NameExpanded, NameBoosted} }
 // Learners returns the learners a choice stands for: one learner name,
 // several joined by "+" (e.g. "linear+boosted"), or Auto for all of
 // Names. Each learner has its default settings. An unknown name is an
-// error naming it.
+// *UnknownLearnerError naming it.
 func Learners(choice string) ([]Learner, error) {
 	if choice == Auto {
 		choice = strings.Join(Names(), "+")
@@ -37,10 +37,26 @@ func Learners(choice string) ([]Learner, error) {
 		case NameBoosted:
 			out = append(out, NewBoosted())
 		default:
-			return nil, fmt.Errorf("classify: unknown learner %q (want %s, a \"+\"-joined set, or %s)", name, strings.Join(Names(), ", "), Auto)
+			return nil, &UnknownLearnerError{Name: name}
 		}
 	}
 	return out, nil
+}
+
+// UnknownLearnerError is the error of Learners for a name that is neither
+// a built-in learner nor Auto.
+type UnknownLearnerError struct {
+	Name string // the name as given
+}
+
+func (e *UnknownLearnerError) Error() string {
+	return fmt.Sprintf("classify: unknown learner %q (want %s)", e.Name, Choices())
+}
+
+// Choices describes in words what Learners accepts, e.g. for an error
+// message: `linear, expanded, boosted, a "+"-joined set, or auto`.
+func Choices() string {
+	return strings.Join(Names(), ", ") + `, a "+"-joined set, or ` + Auto
 }
 
 // NamesOf returns the names of ls, in order.

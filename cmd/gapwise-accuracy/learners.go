@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 
 	"github.com/gapwise/gapwise/attribution/classify"
@@ -12,8 +13,9 @@ import (
 // (classify.Learners).
 func learnerSet(choice string) ([]classify.Learner, error) {
 	ls, err := classify.Learners(choice)
-	if err != nil {
-		return nil, fmt.Errorf("-learners %q: %w", choice, err)
+	var unknown *classify.UnknownLearnerError
+	if errors.As(err, &unknown) {
+		return nil, fmt.Errorf("-learners: unknown learner %q in %q (want %s)", unknown.Name, choice, classify.Choices())
 	}
-	return ls, nil
+	return ls, err
 }

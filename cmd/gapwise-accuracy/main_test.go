@@ -45,8 +45,11 @@ func TestParseFlagsRejectsBadInput(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if _, err := learnerSet("linear+nope"); err == nil {
-		t.Error("learnerSet accepted an unknown learner")
+	// The message as the study printed it before classify owned the
+	// learner names (learners.go at 07b2ed3).
+	want := `-learners: unknown learner "nope" in "linear+nope" (want linear, expanded, boosted, a "+"-joined set, or auto)`
+	if _, err := learnerSet("linear+nope"); err == nil || err.Error() != want {
+		t.Errorf("learnerSet(linear+nope): error %v, want %s", err, want)
 	}
 	if _, err := selectCases([]string{"nope"}); err == nil {
 		t.Error("selectCases accepted an unknown case")
