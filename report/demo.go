@@ -26,28 +26,30 @@ func DemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) error {
 	return err
 }
 
-// writeDemoSummary builds the text of DemoSummary.
+// writeDemoSummary builds the text of DemoSummary; names and paths are
+// printed through Printable.
 func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
 	g := res.Groups
+	ref, cmp, pt := Printable(g.Reference), Printable(g.Comparison), Printable
 	fmt.Fprintf(w, "Anaemia screening (SYNTHETIC demo data): %s %d records, %s %d records\n\n",
-		g.Reference, g.NReference, g.Comparison, g.NComparison)
+		ref, g.NReference, cmp, g.NComparison)
 	name := 0
 	for _, m := range res.Metrics {
 		name = max(name, len(m.Metric))
 	}
 	for _, m := range res.Metrics {
-		line := fmt.Sprintf("  %-*s  %s %.4f  %s %.4f  gap %+.4f", name, m.Metric, g.Reference, m.Reference, g.Comparison, m.Comparison, m.Gap)
+		line := fmt.Sprintf("  %-*s  %s %.4f  %s %.4f  gap %+.4f", name, pt(m.Metric), ref, m.Reference, cmp, m.Comparison, m.Gap)
 		if m.GapCI != nil {
 			line += fmt.Sprintf(" [%+.4f, %+.4f]", m.GapCI.Low, m.GapCI.High)
 		}
 		if top, ok := Largest(m.Contributions); ok {
-			line += fmt.Sprintf("  largest: %s %+.4f", top.Mechanism, top.Value)
+			line += fmt.Sprintf("  largest: %s %+.4f", pt(top.Mechanism), top.Value)
 		}
 		fmt.Fprintln(w, line)
 	}
-	fmt.Fprintf(w, "\nWrote %s, %s, %s and %s in %s\n", out.Data, out.Spec, out.Result, out.Report, out.Dir)
+	fmt.Fprintf(w, "\nWrote %s, %s, %s and %s in %s\n", pt(out.Data), pt(out.Spec), pt(out.Result), pt(out.Report), pt(out.Dir))
 	fmt.Fprintf(w, "Open %s in a browser, or run: gapwise decompose --spec %s\n",
-		filepath.Join(out.Dir, out.Report), filepath.Join(out.Dir, out.Spec))
+		pt(filepath.Join(out.Dir, out.Report)), pt(filepath.Join(out.Dir, out.Spec)))
 }
 
 // Largest returns the contribution of largest magnitude (the first on ties).

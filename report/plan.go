@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/gapwise/gapwise/fairness"
 )
@@ -18,24 +19,26 @@ func Plan(w io.Writer, spec *fairness.Spec, p *fairness.PlanInfo) error {
 	return err
 }
 
-// writePlan builds the text of Plan.
+// writePlan builds the text of Plan. Every string from the spec or the
+// data is printed through Printable.
 func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
+	pt, list := Printable, func(items []string) string { return Printable(strings.Join(items, ", ")) }
 	title := p.Title
 	if title == "" {
 		title = spec.File
 	}
-	fmt.Fprintf(b, "%s: spec and data are valid\n", title)
+	fmt.Fprintf(b, "%s: spec and data are valid\n", pt(title))
 	if p.Synthetic {
 		fmt.Fprintln(b, "SYNTHETIC DATA: the records are invented and describe no real patients.")
 	}
 	g := p.Groups
-	fmt.Fprintf(b, "\n  data        %s\n", spec.DataPath)
-	fmt.Fprintf(b, "  label       %s\n", p.Label)
-	fmt.Fprintf(b, "  score       %s (positive when >= %v)\n", p.Score, p.Threshold)
+	fmt.Fprintf(b, "\n  data        %s\n", pt(spec.DataPath))
+	fmt.Fprintf(b, "  label       %s\n", pt(p.Label))
+	fmt.Fprintf(b, "  score       %s (positive when >= %v)\n", pt(p.Score), p.Threshold)
 	fmt.Fprintf(b, "  groups      column %s: reference %s (%d records, %d dropped), comparison %s (%d records, %d dropped)\n",
-		g.Column, g.Reference, g.NReference, g.DroppedReference, g.Comparison, g.NComparison, g.DroppedComparison)
-	fmt.Fprintf(b, "  metrics     %s\n", strings.Join(p.Metrics, ", "))
-	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, seed %d\n", p.Classifier, strings.Join(p.Learners, ", "), p.Folds, spec.Seed)
+		pt(g.Column), pt(g.Reference), g.NReference, g.DroppedReference, pt(g.Comparison), g.NComparison, g.DroppedComparison)
+	fmt.Fprintf(b, "  metrics     %s\n", list(p.Metrics))
+	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, seed %d\n", pt(p.Classifier), list(p.Learners), p.Folds, spec.Seed)
 	fmt.Fprintf(b, "  features    %d encoded columns\n", p.Features)
 	if iv := spec.Intervals; iv.Replicates > 0 {
 		mode := "refitting the classifiers"
@@ -46,21 +49,28 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	} else {
 		fmt.Fprintf(b, "  intervals   none (spec key intervals or decompose --intervals N)\n")
 	}
-
-	fmt.Fprintf(b, "\n%d mechanisms:\n", len(p.Nodes))
-	wMech, wCols := len("mechanism"), len("columns")
-	for _, n := range p.Nodes {
-		wMech = max(wMech, len([]rune(n.Mechanism)))
-		wCols = max(wCols, len(strings.Join(n.Columns, ", ")))
-	}
-	fmt.Fprintf(b, "  %-*s  %-*s  %s\n", wMech, "mechanism", wCols, "columns", "features")
-	for _, n := range p.Nodes {
-		fmt.Fprintf(b, "  %-*s  %-*s  %8d\n", wMech, n.Mechanism, wCols, strings.Join(n.Columns, ", "), n.Features)
-	}
+	writePlanNodes(b, p.Nodes)
 	if len(p.Warnings) > 0 {
 		fmt.Fprintln(b, "\nWarnings:")
 		for _, w := range p.Warnings {
-			fmt.Fprintf(b, "  - %s\n", w)
+			fmt.Fprintf(b, "  - %s\n", pt(w.String()))
 		}
+	}
+}
+
+// writePlanNodes prints the mechanisms, their columns and their encoded
+// features as aligned columns, widths counted after escaping.
+func writePlanNodes(b *strings.Builder, nodes []fairness.PlanNode) {
+	fmt.Fprintf(b, "\n%d mechanisms:\n", len(nodes))
+	mech, cols := make([]string, len(nodes)), make([]string, len(nodes))
+	wMech, wCols := len("mechanism"), len("columns")
+	for i, n := range nodes {
+		mech[i], cols[i] = Printable(n.Mechanism), Printable(strings.Join(n.Columns, ", "))
+		wMech = max(wMech, utf8.RuneCountInString(mech[i]))
+		wCols = max(wCols, utf8.RuneCountInString(cols[i]))
+	}
+	fmt.Fprintf(b, "  %-*s  %-*s  %s\n", wMech, "mechanism", wCols, "columns", "features")
+	for i, n := range nodes {
+		fmt.Fprintf(b, "  %-*s  %-*s  %8d\n", wMech, mech[i], wCols, cols[i], n.Features)
 	}
 }

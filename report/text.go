@@ -37,8 +37,10 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 // textWriter accumulates the report; bufio.Writer keeps the first error.
 type textWriter struct{ w *bufio.Writer }
 
+// line prints one line, with every control character in it, user text's
+// included, shown escaped (Printable): the report's own text has none.
 func (t *textWriter) line(format string, args ...any) {
-	fmt.Fprintf(t.w, format+"\n", args...)
+	fmt.Fprintln(t.w, Printable(fmt.Sprintf(format, args...)))
 }
 
 func (t *textWriter) header(res *fairness.Result) {

@@ -15,8 +15,14 @@ type textTable struct {
 	noHeader bool
 }
 
+// add appends a row; control characters in the cells are shown escaped
+// (Printable) and so count at their printed width.
 func (t *textTable) add(cells ...string) {
-	t.rows = append(t.rows, cells)
+	row := make([]string, len(cells))
+	for i, c := range cells {
+		row[i] = Printable(c)
+	}
+	t.rows = append(t.rows, row)
 }
 
 // dropEmpty removes columns that are empty in every row.

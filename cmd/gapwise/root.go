@@ -1,10 +1,14 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
+	"strings"
 
 	"github.com/spf13/cobra"
+
+	"github.com/gapwise/gapwise/report"
 )
 
 // newRootCmd builds the gapwise command tree writing results to stdout and
@@ -44,7 +48,7 @@ clinical or legal findings.`,
 func execute(args []string, stdout, stderr io.Writer) (code int) {
 	defer func() {
 		if v := recover(); v != nil {
-			fmt.Fprintf(stderr, "gapwise: internal error: %v\ngapwise: this is a bug in gapwise, not a problem with the input; please report it with the command line used\n", v)
+			fmt.Fprintf(stderr, "gapwise: internal error: %s\ngapwise: this is a bug in gapwise, not a problem with the input; please report it with the command line used\n", report.Printable(fmt.Sprint(v)))
 			code = exitFailure
 		}
 	}()
@@ -53,7 +57,27 @@ func execute(args []string, stdout, stderr io.Writer) (code int) {
 	err := root.Execute()
 	code = exitCode(err)
 	if err != nil {
-		fmt.Fprintf(stderr, "gapwise: %v\n", err)
+		fmt.Fprintf(stderr, "gapwise: %s\n", errorText(err))
 	}
 	return code
+}
+
+// errorText is the message of err as printed on the terminal: control
+// characters and bidirectional controls in it (from file names, keys and
+// cells the message quotes) are shown escaped by report.Printable, the
+// same function that the text reports use. Errors of the commands are one
+// line and escaped whole; cobra's own parse errors keep the line breaks
+// and indenting tabs of their layout ("Did you mean this?\n\tdecompose").
+func errorText(err error) string {
+	msg := err.Error()
+	var re *runError
+	if errors.As(err, &re) {
+		return report.Printable(msg)
+	}
+	lines := strings.Split(msg, "\n")
+	for i, l := range lines {
+		rest := strings.TrimLeft(l, "\t")
+		lines[i] = l[:len(l)-len(rest)] + report.Printable(rest)
+	}
+	return strings.Join(lines, "\n")
 }

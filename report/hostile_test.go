@@ -1,0 +1,101 @@
+package report
+
+import (
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"github.com/gapwise/gapwise/fairness"
+)
+
+// hostileTexts are user texts (titles, group values, names) that try to
+// break out of where a report prints them: into HTML (script and image
+// tags, javascript: links), into Markdown (links, images, emphasis, code,
+// headings, lists, block quotes, table cells, line breaks, backticks,
+// escapes and entities that should stay text) and into the terminal (ANSI
+// colour, an OSC window title ended by BEL, CR overwriting, C1 CSI, DEL,
+// NUL, bidi overrides and isolates, invalid UTF-8). The classes are
+// common practice in injection testing; the terminal ones are ECMA-48
+// sequences and the bidi ones the Unicode Bidi_Control characters.
+var hostileTexts = []string{
+	`<script>alert(1)</script>`,
+	`<img src=x onerror=alert(1)>`,
+	`<a href="javascript:alert(1)">x</a>`,
+	`[click](javascript:alert(1))`,
+	`![x](javascript:alert(1))`,
+	`<javascript:alert(1)>`,
+	`*em* _em_ **strong** ~~gone~~ $x$`,
+	"line\n# heading\n- item\n1. first\n> quote\n---\n<div onclick=alert(1)>",
+	"`code` ``two`` ```three",
+	"`",
+	"x | y | z",
+	`\*not* \\ \`,
+	`&lt;script&gt; &amp; &#60;b&#62;`,
+	`{: onclick="alert(1)"} 'quoted'`,
+	"- leading dash",
+	"+ plus",
+	"12. twelve",
+	"3) three",
+	"# hash",
+	"\x1b[31mred\x1b[0m",
+	"\x1b]0;title\x07",
+	"over\rwrite",
+	"\u202eevil\u202c and \u2066isolate\u2069",
+	"c1 \u009b31m del \x7f nul \x00 bell \a",
+	"bad \xff\xfe utf8",
+}
+
+// hostileResult is handResult with s in every place that holds user text:
+// the title, the group column and values, label and score, node,
+// mechanism, column and metric names, learners, the warnings (quoting s
+// in backticks as fairness does), the assumptions and the input paths.
+// Each place gets s with a different prefix, so that the places stay
+// distinct.
+func hostileResult(s string) *fairness.Result {
+	r := handResult()
+	r.Title = "T" + s
+	r.Groups.Column, r.Groups.Reference, r.Groups.Comparison = "G"+s, "R"+s, "C"+s
+	r.Label, r.Score = "L"+s, "S"+s
+	r.Tool.Version = "V" + s
+	r.Settings.Learners = []string{"learner" + s}
+	r.Inputs.SpecFile, r.Inputs.DataFile = "spec"+s+".yaml", "data"+s+".csv"
+	r.Assumptions = append(r.Assumptions, "A"+s)
+	for i := range r.Metrics {
+		m := &r.Metrics[i]
+		if i == 1 {
+			m.Metric = "M" + s // a metric without a title of its own
+		}
+		for j := range m.Contributions {
+			c := &m.Contributions[j]
+			c.Mechanism = c.Node + s + " | " + s
+			c.Node += s
+		}
+	}
+	for i := range r.Mechanisms {
+		mr := &r.Mechanisms[i]
+		mr.Mechanism = mr.Node + s + " | " + s
+		mr.Node += s
+		for j := range mr.Parents {
+			mr.Parents[j] += s
+		}
+		mr.Columns = []string{"col" + s}
+	}
+	r.Warnings = append(r.Warnings, fairness.Warning{Kind: fairness.KindPoorOverlap, Severity: fairness.SeverityCaution,
+		Message: "the groups are nearly separable on `W" + s + "`; W" + s})
+	return r
+}
+
+// terminalUnsafe returns the first character of out that a terminal would
+// act on: a control character other than newline, a bidi control, or a
+// byte that is not UTF-8; ok is false when there is none.
+func terminalUnsafe(out string) (r rune, ok bool) {
+	for i, c := range out {
+		switch {
+		case c == utf8.RuneError && !strings.HasPrefix(out[i:], "\uFFFD"):
+			return c, true
+		case c != '\n' && (unicode.Is(unicode.Cc, c) || unicode.Is(unicode.Bidi_Control, c)):
+			return c, true
+		}
+	}
+	return 0, false
+}
