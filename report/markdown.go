@@ -19,65 +19,85 @@ import (
 func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 	bw := bufio.NewWriter(w)
 	p := func(format string, args ...any) { fmt.Fprintf(bw, format, args...) }
-
-	if res.Title != "" {
-		p("## %s\n\n", mdText(res.Title))
-		p("Gap audit of `%s` for %s vs %s.\n\n", mdText(res.Score), mdText(res.Groups.Comparison), mdText(res.Groups.Reference))
-	} else {
-		p("## Gap audit: `%s` for %s vs %s\n\n", mdText(res.Score), mdText(res.Groups.Comparison), mdText(res.Groups.Reference))
-	}
-	if res.Synthetic {
-		p("> **Synthetic data.** These numbers come from an invented cohort and describe no real patients.\n\n")
-	}
-	p("Groups by `%s`: reference %s (%d records), comparison %s (%d records). Label `%s`, decision threshold %s.\n\n",
-		mdText(res.Groups.Column), mdText(res.Groups.Reference), res.Groups.NReference,
-		mdText(res.Groups.Comparison), res.Groups.NComparison, mdText(res.Label), formatThreshold(res.Threshold))
-	for _, m := range res.Metrics {
-		p("%s\n\n", Summary(res, m))
-	}
-	if iv := intervalSetting(res); iv != "" {
-		p("Intervals in brackets: %s.\n\n", iv)
-	}
-
-	p("### Metrics by group\n\n")
-	p("| Metric | %s (reference) | %s (comparison) | Gap |\n", mdCell(res.Groups.Reference), mdCell(res.Groups.Comparison))
-	p("| --- | ---: | ---: | ---: |\n")
-	for _, m := range res.Metrics {
-		p("| %s | %s | %s | %s |\n", mdCell(MetricTitle(m.Metric)),
-			withInterval(formatValue(m.Metric, m.Reference), formatValueInterval(m.Metric, m.ReferenceCI)),
-			withInterval(formatValue(m.Metric, m.Comparison), formatValueInterval(m.Metric, m.ComparisonCI)),
-			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m)))
-	}
-	p("\n")
-
+	mdHeader(p, res)
+	mdGroupTable(p, res)
 	flags := unreliable(res)
 	for _, m := range res.Metrics {
-		p("### Decomposition of the %s gap\n\n", mdText(MetricTitle(m.Metric)))
-		p("| Mechanism | Contribution | %s | Alone | Gap if equalised |\n", intervalName(res))
-		p("| --- | ---: | ---: | ---: | ---: |\n")
-		for _, c := range m.Contributions {
-			name := "`" + mdCell(c.Mechanism) + "`"
-			if _, ok := flags[c.Node]; ok {
-				name += " (unreliable)"
-			}
-			p("| %s | %s | %s | %s | %s |\n", name, formatDelta(m.Metric, c.Value),
-				orDash(formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)),
-				formatDelta(m.Metric, c.Alone), formatDelta(m.Metric, c.IfEqualised))
-		}
-		p("| Sum of contributions | %s | | | |\n", formatDelta(m.Metric, m.Estimated))
-		p("| Residual (not assigned) | %s | | | |\n", formatDelta(m.Metric, m.Residual))
-		p("| Observed gap | %s | %s | | |\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)))
+		mdDecomposition(p, res, m, flags)
 	}
 	if len(res.Warnings) > 0 {
 		p("### Warnings\n\n")
 		for _, w := range res.Warnings {
-			p("- %s\n", mdText(w.Message))
+			p("- %s\n", mdSentence(w.Message))
 		}
 		p("\n")
 	}
 	p("_Statistical estimates under the stated causal assumptions, not clinical or legal findings. %s %s, seed %d._\n",
 		mdText(res.Tool.Name), mdText(res.Tool.Version), res.Seed)
 	return bw.Flush()
+}
+
+// mdPrinter prints formatted Markdown; every string argument that comes
+// from the Result has passed through mdText, mdCode, mdCodeCell or
+// mdSentence (markdown_escape.go).
+type mdPrinter func(format string, args ...any)
+
+// mdHeader prints the heading, the synthetic-data note, the groups, the
+// summary of every metric and how the intervals were made.
+func mdHeader(p mdPrinter, res *fairness.Result) {
+	g := res.Groups
+	if res.Title != "" {
+		p("## %s\n\n", mdText(res.Title))
+		p("Gap audit of %s for %s vs %s.\n\n", mdCode(res.Score), mdText(g.Comparison), mdText(g.Reference))
+	} else {
+		p("## Gap audit: %s for %s vs %s\n\n", mdCode(res.Score), mdText(g.Comparison), mdText(g.Reference))
+	}
+	if res.Synthetic {
+		p("> **Synthetic data.** These numbers come from an invented cohort and describe no real patients.\n\n")
+	}
+	p("Groups by %s: reference %s (%d records), comparison %s (%d records). Label %s, decision threshold %s.\n\n",
+		mdCode(g.Column), mdText(g.Reference), g.NReference,
+		mdText(g.Comparison), g.NComparison, mdCode(res.Label), formatThreshold(res.Threshold))
+	for _, m := range res.Metrics {
+		p("%s\n\n", summaryText(res, m, markdownInline))
+	}
+	if iv := intervalSetting(res); iv != "" {
+		p("Intervals in brackets: %s.\n\n", mdText(iv))
+	}
+}
+
+// mdGroupTable prints the two groups' metric values and the gaps.
+func mdGroupTable(p mdPrinter, res *fairness.Result) {
+	p("### Metrics by group\n\n")
+	p("| Metric | %s (reference) | %s (comparison) | Gap |\n", mdText(res.Groups.Reference), mdText(res.Groups.Comparison))
+	p("| --- | ---: | ---: | ---: |\n")
+	for _, m := range res.Metrics {
+		p("| %s | %s | %s | %s |\n", mdText(MetricTitle(m.Metric)),
+			withInterval(formatValue(m.Metric, m.Reference), formatValueInterval(m.Metric, m.ReferenceCI)),
+			withInterval(formatValue(m.Metric, m.Comparison), formatValueInterval(m.Metric, m.ComparisonCI)),
+			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m)))
+	}
+	p("\n")
+}
+
+// mdDecomposition prints one metric's contributions, their sum, the
+// residual and the observed gap; flags marks unreliable mechanisms.
+func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult, flags map[string]string) {
+	p("### Decomposition of the %s gap\n\n", mdText(MetricTitle(m.Metric)))
+	p("| Mechanism | Contribution | %s | Alone | Gap if equalised |\n", mdText(intervalName(res)))
+	p("| --- | ---: | ---: | ---: | ---: |\n")
+	for _, c := range m.Contributions {
+		name := mdCodeCell(c.Mechanism)
+		if _, ok := flags[c.Node]; ok {
+			name += " (unreliable)"
+		}
+		p("| %s | %s | %s | %s | %s |\n", name, formatDelta(m.Metric, c.Value),
+			orDash(formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)),
+			formatDelta(m.Metric, c.Alone), formatDelta(m.Metric, c.IfEqualised))
+	}
+	p("| Sum of contributions | %s | | | |\n", formatDelta(m.Metric, m.Estimated))
+	p("| Residual (not assigned) | %s | | | |\n", formatDelta(m.Metric, m.Residual))
+	p("| Observed gap | %s | %s | | |\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)))
 }
 
 // formatThreshold prints the decision threshold with up to four decimals.
@@ -101,13 +121,3 @@ func orDash(s string) string {
 	}
 	return s
 }
-
-// mdCell escapes text for a Markdown table cell: pipes would end the cell
-// and newlines the row.
-func mdCell(s string) string {
-	s = strings.ReplaceAll(s, "|", `\|`)
-	return strings.Join(strings.Fields(s), " ")
-}
-
-// mdText flattens text onto one line for Markdown running text.
-func mdText(s string) string { return strings.Join(strings.Fields(s), " ") }

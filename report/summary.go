@@ -150,14 +150,14 @@ func trimNegZero(s string) string {
 // mechanismPhrase describes a mechanism in words: the distribution of a
 // root node, or a node given its parents; the label is read as how often
 // it occurs.
-func mechanismPhrase(res *fairness.Result, node string) string {
+func mechanismPhrase(res *fairness.Result, node string, st inlineStyle) string {
 	var parents []string
 	for _, m := range res.Mechanisms {
 		if m.Node == node {
 			parents = m.Parents
 		}
 	}
-	q := func(s string) string { return "`" + s + "`" }
+	q := st.code
 	var qp []string
 	for _, p := range parents {
 		qp = append(qp, q(p))
@@ -198,7 +198,13 @@ const summaryMentions = 4
 // which ones narrow rather than widen the gap, calls unreliable ones so,
 // and states the residual.
 func Summary(res *fairness.Result, m fairness.MetricResult) string {
-	title := MetricTitle(m.Metric)
+	return summaryText(res, m, plainInline)
+}
+
+// summaryText is Summary with user text (group values, node names, the
+// metric's title) written in the style st.
+func summaryText(res *fairness.Result, m fairness.MetricResult, st inlineStyle) string {
+	title := st.text(MetricTitle(m.Metric))
 	unit := "points"
 	if !isProportion(m.Metric) {
 		unit = ""
@@ -215,7 +221,7 @@ func Summary(res *fairness.Result, m fairness.MetricResult) string {
 		verb = " comes from "
 	}
 	var b strings.Builder
-	ref, cmp := res.Groups.Reference, res.Groups.Comparison
+	ref, cmp := st.text(res.Groups.Reference), st.text(res.Groups.Comparison)
 	gapWord := "gap"
 	if isProportion(m.Metric) {
 		gapWord = formatMagnitude(m.Metric, m.Gap) + "-point gap"
@@ -269,9 +275,9 @@ func Summary(res *fairness.Result, m fairness.MetricResult) string {
 			caution = " — unreliable: " + why
 		}
 		if (c.Value > 0) == (m.Gap > 0) {
-			widen = append(widen, amount(c.Value)+ci+verb+mechanismPhrase(res, c.Node)+caution)
+			widen = append(widen, amount(c.Value)+ci+verb+mechanismPhrase(res, c.Node, st)+caution)
 		} else {
-			narrow = append(narrow, mechanismPhrase(res, c.Node)+" narrows it by "+amount(c.Value)+ci+caution)
+			narrow = append(narrow, mechanismPhrase(res, c.Node, st)+" narrows it by "+amount(c.Value)+ci+caution)
 		}
 	}
 	switch {

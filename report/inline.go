@@ -1,0 +1,19 @@
+package report
+
+// inlineStyle is how a sentence of the report (the summary of a metric)
+// writes user text: as running text, and as code (node names).
+type inlineStyle struct {
+	text, code func(string) string
+}
+
+// plainInline leaves text as it is and marks code with backticks: the
+// Markdown-style text that Summary returns and the HTML page renders
+// with codeSpans.
+var plainInline = inlineStyle{
+	text: func(s string) string { return s },
+	code: func(s string) string { return "`" + s + "`" },
+}
+
+// markdownInline escapes text for the Markdown report (mdText) and writes
+// code as code spans (mdCode).
+var markdownInline = inlineStyle{text: mdText, code: mdCode}
