@@ -68,11 +68,12 @@ func lastLines(s string, n int) string {
 }
 
 // consoleProblems returns the log lines that report a script error, a
-// console message or a blocked request.
+// console message, a blocked request or a Content-Security-Policy
+// violation (which Chromium logs as a console message).
 func consoleProblems(stderr string) []string {
 	var out []string
 	for _, l := range strings.Split(stderr, "\n") {
-		if strings.Contains(l, "CONSOLE") || strings.Contains(l, "Uncaught") || strings.Contains(l, "Refused to") {
+		if strings.Contains(l, "CONSOLE") || strings.Contains(l, "Uncaught") || strings.Contains(l, "Refused to") || strings.Contains(l, "Content Security Policy") {
 			out = append(out, l)
 		}
 	}

@@ -41,7 +41,10 @@ const drillNodes = 3
 // largest contributions, estimation diagnostics and warnings, assumptions
 // and cautions, and a reproducibility footer. All scripts (ECharts 6.1.0,
 // vendored under assets/ with its licence), styles and data are inline: the
-// page makes no network request. Sections that need res.Details say so
+// page makes no network request. Its Content-Security-Policy admits
+// those scripts and the style element by their SHA-256 hashes only
+// (pagePolicy), so markup that an escaping bug let in could not run.
+// Sections that need res.Details say so
 // when it is nil; intervals appear only where the Result has them. It
 // returns an error if the data cannot be encoded or w fails.
 func WriteHTML(w io.Writer, res *fairness.Result) error {
@@ -73,10 +76,9 @@ type page struct {
 	Warnings     []template.HTML
 	Assumptions  []string
 	Settings     []keyValue
-	DataJSON     template.JS
-	EChartsJS    template.JS
-	ReportJS     template.JS
-	CSS          template.CSS
+	Scripts      []template.JS     // the text of each script element, in order
+	CSS          template.CSS      // the text of the style element
+	Policy       template.HTMLAttr // content="…" of the Content-Security-Policy
 	LowESSShare  string
 	HasIntervals bool
 	DrillNodes   int
@@ -124,8 +126,8 @@ type confusionView struct {
 	Group, Role           string
 	N, Events, Prevalence string
 	TP, FP, TN, FN        string
-	TPShade, FPShade      string // CSS opacity of the cell's tint
-	TNShade, FNShade      string
+	TPShade, FPShade      tint // the cell's shade
+	TNShade, FNShade      tint
 }
 
 type reliabilityRow struct {
@@ -165,9 +167,6 @@ func newPage(res *fairness.Result) (*page, error) {
 		Cohort:          filepath.Base(res.Inputs.DataFile), // the footer has the full path
 		Threshold:       formatThreshold(res.Threshold),
 		Assumptions:     res.Assumptions,
-		EChartsJS:       template.JS(echartsJS),
-		ReportJS:        template.JS(reportJS),
-		CSS:             template.CSS(reportCSS),
 		LowESSShare:     fmt.Sprintf("%.0f%%", 100*fairness.WarnESSShare),
 		DrillNodes:      drillNodes,
 	}
@@ -176,11 +175,6 @@ func newPage(res *fairness.Result) (*page, error) {
 	}
 	if res.Title != "" {
 		p.Title = res.Title
-	}
-	for _, s := range []string{echartsJS, reportJS} {
-		if strings.Contains(strings.ToLower(s), "</script") {
-			panic("report: an embedded script contains </script and cannot be inlined")
-		}
 	}
 	data := chartData{Walk: map[string]chartOption{}, Graph: map[string]chartOption{}, Columns: map[string]chartOption{},
 		Order: map[string][]string{}, Top: map[string][]string{}}
@@ -279,7 +273,7 @@ func newPage(res *fairness.Result) (*page, error) {
 	if err != nil {
 		return nil, err
 	}
-	p.DataJSON = template.JS(js)
+	p.inline([]string{echartsJS, "window.gapwiseData = " + js + ";", reportJS}, reportCSS+tintRules(p.Confusion))
 	return p, nil
 }
 
@@ -360,11 +354,11 @@ func columnOrder(res *fairness.Result, m fairness.MetricResult, nodeOfColumn map
 // share of the group's records.
 func confusion(name, role string, g fairness.GroupDetails) confusionView {
 	total := g.Confusion.TP + g.Confusion.FP + g.Confusion.TN + g.Confusion.FN
-	shade := func(v float64) string {
+	shade := func(v float64) tint {
 		if total <= 0 {
 			return "0"
 		}
-		return fmt.Sprintf("%.2f", 0.08+0.6*v/total)
+		return tint(fmt.Sprintf("%.2f", 0.08+0.6*v/total))
 	}
 	prev := "n/a"
 	if g.N > 0 {
