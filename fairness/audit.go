@@ -149,71 +149,10 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		columns[n.Node] = n.Columns
 	}
 	for _, m := range dec.Mechanisms {
-		mr := MechanismResult{
-			Node:             m.Mechanism.Node,
-			Mechanism:        m.Mechanism.Label(),
-			Parents:          append([]string{}, m.Mechanism.Parents...),
-			Columns:          append([]string{}, columns[m.Mechanism.Node]...),
-			Classifier:       m.Learner,
-			ParentClassifier: m.ParentLearner,
-			Losses:           []LearnerLoss{},
-			AUC:              m.AUC,
-			ESS:              m.ESS,
-			MaxShare:         m.MaxShare,
-			MeanRatio:        m.MeanRatio,
-
-			ExtremeShare:      m.ExtremeShare,
-			WorstStratumMean:  m.WorstStratumMean,
-			ComparisonESS:     m.ComparisonESS,
-			TailShape:         finite(m.TailShape),
-			ClippedReference:  m.ClippedReference,
-			ClippedComparison: m.ClippedComparison,
-		}
-		if m.ComparisonESS > 0 {
-			mr.ComparisonTailShape = finite(m.ComparisonTailShape)
-			mr.ComparisonExtremeShare = finite(m.ComparisonExtremeShare)
-		}
-		if groups.NReference > 0 {
-			mr.ESSShare = m.ESS / float64(groups.NReference)
-		}
-		for _, l := range m.Losses {
-			mr.Losses = append(mr.Losses, LearnerLoss{Classifier: l.Learner, LogLoss: l.LogLoss, OddsCheck: l.OddsCheck})
-		}
-		r.Mechanisms = append(r.Mechanisms, mr)
+		r.Mechanisms = append(r.Mechanisms, mechanismResult(m, columns[m.Mechanism.Node], groups.NReference))
 	}
 	for _, md := range dec.Metrics {
-		res := MetricResult{
-			Metric:           md.Metric,
-			Reference:        md.Reference,
-			Comparison:       md.Comparison,
-			Gap:              md.Gap,
-			Estimated:        md.Estimated,
-			Residual:         md.Residual,
-			EffectiveRecords: md.EffectiveRecords,
-			ReferenceCI:      interval(md.ReferenceCI),
-			ComparisonCI:     interval(md.ComparisonCI),
-			GapCI:            interval(md.GapCI),
-			Contributions:    []Contribution{},
-		}
-		for i, m := range dec.Mechanisms {
-			c := Contribution{
-				Node:        m.Mechanism.Node,
-				Mechanism:   m.Mechanism.Label(),
-				Value:       md.Contributions[i],
-				Alone:       md.Alone[i],
-				IfEqualised: md.IfEqualised[i],
-			}
-			if i < len(md.ContributionCIs) {
-				lo, hi := md.ContributionCIs[i].Low, md.ContributionCIs[i].High
-				c.CILow, c.CIHigh = &lo, &hi
-			}
-			if i < len(md.StdErrors) {
-				se := md.StdErrors[i]
-				c.StdError = &se
-			}
-			res.Contributions = append(res.Contributions, c)
-		}
-		r.Metrics = append(r.Metrics, res)
+		r.Metrics = append(r.Metrics, metricResult(md, dec.Mechanisms))
 	}
 	for _, w := range dec.Weights {
 		r.Weights = append(r.Weights, WeightSide{
@@ -226,6 +165,79 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		})
 	}
 	return r
+}
+
+// mechanismResult maps one mechanism's diagnostics; nRef is the size of
+// the reference group, for the ESS share.
+func mechanismResult(m attribution.MechanismReport, columns []string, nRef int) MechanismResult {
+	mr := MechanismResult{
+		Node:             m.Mechanism.Node,
+		Mechanism:        m.Mechanism.Label(),
+		Parents:          append([]string{}, m.Mechanism.Parents...),
+		Columns:          append([]string{}, columns...),
+		Classifier:       m.Learner,
+		ParentClassifier: m.ParentLearner,
+		Losses:           []LearnerLoss{},
+		AUC:              m.AUC,
+		ESS:              m.ESS,
+		MaxShare:         m.MaxShare,
+		MeanRatio:        m.MeanRatio,
+
+		ExtremeShare:      m.ExtremeShare,
+		WorstStratumMean:  m.WorstStratumMean,
+		ComparisonESS:     m.ComparisonESS,
+		TailShape:         finite(m.TailShape),
+		ClippedReference:  m.ClippedReference,
+		ClippedComparison: m.ClippedComparison,
+	}
+	if m.ComparisonESS > 0 {
+		mr.ComparisonTailShape = finite(m.ComparisonTailShape)
+		mr.ComparisonExtremeShare = finite(m.ComparisonExtremeShare)
+	}
+	if nRef > 0 {
+		mr.ESSShare = m.ESS / float64(nRef)
+	}
+	for _, l := range m.Losses {
+		mr.Losses = append(mr.Losses, LearnerLoss{Classifier: l.Learner, LogLoss: l.LogLoss, OddsCheck: l.OddsCheck})
+	}
+	return mr
+}
+
+// metricResult maps one metric's split, with one contribution per
+// mechanism in graph order.
+func metricResult(md attribution.MetricDecomposition, mechs []attribution.MechanismReport) MetricResult {
+	res := MetricResult{
+		Metric:           md.Metric,
+		Reference:        md.Reference,
+		Comparison:       md.Comparison,
+		Gap:              md.Gap,
+		Estimated:        md.Estimated,
+		Residual:         md.Residual,
+		EffectiveRecords: md.EffectiveRecords,
+		ReferenceCI:      interval(md.ReferenceCI),
+		ComparisonCI:     interval(md.ComparisonCI),
+		GapCI:            interval(md.GapCI),
+		Contributions:    []Contribution{},
+	}
+	for i, m := range mechs {
+		c := Contribution{
+			Node:        m.Mechanism.Node,
+			Mechanism:   m.Mechanism.Label(),
+			Value:       md.Contributions[i],
+			Alone:       md.Alone[i],
+			IfEqualised: md.IfEqualised[i],
+		}
+		if i < len(md.ContributionCIs) {
+			lo, hi := md.ContributionCIs[i].Low, md.ContributionCIs[i].High
+			c.CILow, c.CIHigh = &lo, &hi
+		}
+		if i < len(md.StdErrors) {
+			se := md.StdErrors[i]
+			c.StdError = &se
+		}
+		res.Contributions = append(res.Contributions, c)
+	}
+	return res
 }
 
 // hybridWeight names the mechanisms of a coalition by their nodes.
