@@ -5,12 +5,12 @@ import (
 	"encoding/csv"
 	"encoding/hex"
 	"errors"
+	"fmt"
 	"io"
 	"io/fs"
 	"math"
 	"os"
 	"sort"
-	"strconv"
 	"strings"
 )
 
@@ -34,6 +34,14 @@ type Dataset struct {
 	Lines      []int     // 1-based CSV line of each kept row
 
 	DroppedReference, DroppedComparison int // rows dropped for missing values (missing: drop)
+
+	// Excluded counts the rows of other groups per group value (see
+	// ExcludedValue), most rows first; ExcludedRows is their total,
+	// including values beyond the ones listed. MissingGroupRows counts rows
+	// skipped because their group value is missing (missing: drop).
+	Excluded         []ExcludedValue
+	ExcludedRows     int
+	MissingGroupRows int
 }
 
 // Counts returns the number of kept reference and comparison rows.
@@ -63,21 +71,33 @@ func LoadData(spec *Spec) (*Dataset, error) {
 
 // ReadData reads CSV records with a header row from r; name identifies the
 // file in errors. It keeps the rows whose group column holds the reference
-// or comparison value and ignores rows of other groups.
+// or comparison value; rows of other groups are not audited but counted
+// per group value (Dataset.Excluded).
+//
+// The file is CSV (RFC 4180, with either line ending) in UTF-8; a UTF-8
+// byte-order mark before the header is skipped, and text that is not
+// valid UTF-8 (or a UTF-16 file) is refused, naming its line and column.
+// Header fields left unnamed (as spreadsheet exports write for empty
+// trailing columns) are ignored when every cell under them is blank, and a
+// row may then omit them; a value under an unnamed field is refused.
 //
 // Cells are trimmed of surrounding blanks. A cell that is empty, "NA" or
 // "NaN" (any case) is missing: with spec.Missing = "error" it is an error,
 // with "drop" the row is dropped and counted per group (a row whose group
-// value is missing belongs to neither group and is skipped uncounted). The
-// label accepts
-// 0, 1, true and false (any case); the score must be a number in [0, 1];
-// other graph columns must be finite numbers unless listed as categorical,
-// in which case their levels are sorted and coded 0, 1, ... in that order.
-// Every problem is a *DataError carrying the line and column involved.
-// Each group must keep at least spec.Folds rows.
+// value is missing belongs to neither group and is counted as such). The
+// label accepts 0, 1, true and false (any case); the score must be a number
+// in [0, 1]; other graph columns must be finite numbers unless listed as
+// categorical, in which case their levels are sorted and coded 0, 1, ...
+// in that order. Numbers are decimal with an optional exponent
+// (parseDecimal). Every problem is a *DataError carrying the line and
+// column involved. Each group must keep at least spec.Folds rows.
 func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 	h := sha256.New()
-	cr := csv.NewReader(io.TeeReader(r, h))
+	text, err := skipBOM(io.TeeReader(r, h))
+	if err != nil {
+		return nil, (&csvLoader{name: name}).textErr(err)
+	}
+	cr := csv.NewReader(text)
 	cr.FieldsPerRecord = -1
 	cr.ReuseRecord = true
 	l := &csvLoader{cr: cr, name: name, spec: spec}
@@ -96,6 +116,8 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 			d.Columns[j].Levels, d.Columns[j].Values = codeLevels(l.raw[j])
 		}
 	}
+	d.Excluded = l.excluded.list(spec.Groups.Reference, spec.Groups.Comparison)
+	d.ExcludedRows, d.MissingGroupRows = l.excluded.total(), l.excluded.missingRows
 	d.SHA256 = hex.EncodeToString(h.Sum(nil))
 	return d, nil
 }
@@ -108,6 +130,8 @@ type csvLoader struct {
 	spec *Spec
 
 	width                        int      // fields of the header
+	named                        int      // fields up to the last named one
+	header                       []string // trimmed names; "" for unnamed fields
 	groupIdx, labelIdx, scoreIdx int      // their fields
 	names                        []string // graph columns (Spec.Columns)
 	colIdx                       []int    // field of each graph column
@@ -118,11 +142,21 @@ type csvLoader struct {
 	rows, seenRef, seenCmp int        // all records, and those of each group
 	rowVals                []float64
 	rowRaw                 []string
+	excluded               excludedCounter // rows of other groups
 }
 
 // derr builds the *DataError of a problem at line (0: none) and column.
 func (l *csvLoader) derr(line int, col string, err error) error {
 	return &DataError{File: l.name, Line: line, Column: col, Err: err}
+}
+
+// textErr maps an error of the text layer (skipBOM): an encoding error
+// passes as is, anything else is a read failure.
+func (l *csvLoader) textErr(err error) error {
+	if errors.Is(err, ErrEncoding) {
+		return l.derr(0, "", err)
+	}
+	return l.csvErr(err)
 }
 
 // csvErr maps a csv.Reader error, keeping it reachable (errors.As).
@@ -134,9 +168,9 @@ func (l *csvLoader) csvErr(err error) error {
 	return l.derr(0, "", wrapCause(ErrReadFailed, err, "cannot read data file: %v", err))
 }
 
-// readHeader reads the header row (a byte-order mark before the first name
-// is ignored), refuses duplicate names and finds every column the spec
-// needs (locateColumns).
+// readHeader reads the header row, refuses invalid UTF-8 and duplicate
+// names, notes the unnamed fields and finds every column the spec needs
+// (locateColumns).
 func (l *csvLoader) readHeader() error {
 	header, err := l.cr.Read()
 	if err == io.EOF {
@@ -145,16 +179,23 @@ func (l *csvLoader) readHeader() error {
 	if err != nil {
 		return l.csvErr(err)
 	}
+	l.header = make([]string, len(header))
 	pos := map[string]int{}
 	for i, hname := range header {
+		if err := checkUTF8(hname); err != nil {
+			line, col := l.cr.FieldPos(i)
+			return l.derr(line, "", fmt.Errorf("header field %d (starting at byte %d of the line): %w", i+1, col, err))
+		}
 		hname = strings.TrimSpace(hname)
-		if i == 0 {
-			hname = strings.TrimPrefix(hname, "\ufeff")
+		l.header[i] = hname
+		if hname == "" {
+			continue
 		}
 		if _, dup := pos[hname]; dup {
 			return l.derr(1, hname, wrapf(ErrDuplicateHeader, "appears twice in the header (fields %d and %d)", pos[hname]+1, i+1))
 		}
 		pos[hname] = i
+		l.named = i + 1
 	}
 	l.width = len(header)
 	if err := l.locateColumns(pos); err != nil {
@@ -226,8 +267,13 @@ type csvRow struct {
 	dropped bool
 }
 
-func (r *csvRow) cell(i int) string { return strings.TrimSpace(r.rec[i]) }
-func (r *csvRow) at(i int) int      { line, _ := r.l.cr.FieldPos(i); return line }
+func (r *csvRow) cell(i int) string {
+	if i >= len(r.rec) {
+		return "" // an omitted trailing unnamed field
+	}
+	return strings.TrimSpace(r.rec[i])
+}
+func (r *csvRow) at(i int) int { line, _ := r.l.cr.FieldPos(i); return line }
 
 // missing reports whether field i (column col) is missing; with missing:
 // drop it marks the row dropped, otherwise it is an error.
@@ -247,18 +293,23 @@ func (r *csvRow) missing(i int, col string) (bool, error) {
 // per group). Rows of other groups are skipped.
 func (l *csvLoader) readRow(rec []string) error {
 	l.rows++
-	line, _ := l.cr.FieldPos(0)
-	if len(rec) != l.width {
-		return l.derr(line, "", wrapf(ErrRaggedRow, "the row has %d fields but the header has %d", len(rec), l.width))
+	if err := l.checkFields(rec); err != nil {
+		return err
 	}
+	line, _ := l.cr.FieldPos(0)
 	r := &csvRow{l: l, rec: rec}
 	spec := l.spec
 	g := r.cell(l.groupIdx)
 	isCmp := g == spec.Groups.Comparison
-	if isMissing(g) && !spec.DropMissing() {
-		return l.derr(r.at(l.groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %q (set missing: drop to skip such rows)", g))
+	if isMissing(g) {
+		if !spec.DropMissing() {
+			return l.derr(r.at(l.groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %q (set missing: drop to skip such rows)", g))
+		}
+		l.excluded.missingRows++
+		return nil
 	}
 	if !isCmp && g != spec.Groups.Reference {
+		l.excluded.add(g)
 		return nil
 	}
 	if isCmp {
@@ -282,6 +333,31 @@ func (l *csvLoader) readRow(rec []string) error {
 		return nil
 	}
 	l.keep(line, label, score, isCmp)
+	return nil
+}
+
+// checkFields checks a record's width against the header (a row may omit
+// or add trailing fields that are unnamed in the header, or beyond it, as
+// long as they are blank), that every field is UTF-8 text, and that no
+// unnamed field holds a value.
+func (l *csvLoader) checkFields(rec []string) error {
+	if len(rec) < l.named {
+		line, _ := l.cr.FieldPos(0)
+		return l.derr(line, "", wrapf(ErrRaggedRow, "the row has %d fields but the header has %d", len(rec), l.width))
+	}
+	for i, f := range rec {
+		if err := checkUTF8(f); err != nil {
+			line, col := l.cr.FieldPos(i)
+			return l.derr(line, fieldName(l.header, i), fmt.Errorf("field %d (starting at byte %d of the line): %w", i+1, col, err))
+		}
+		if (i >= l.width || l.header[i] == "") && strings.TrimSpace(f) != "" {
+			line, col := l.cr.FieldPos(i)
+			if i >= l.width {
+				return l.derr(line, "", wrapf(ErrRaggedRow, "the row has %d fields but the header has %d (field %d, starting at byte %d of the line, holds %q)", len(rec), l.width, i+1, col, f))
+			}
+			return l.derr(line, "", wrapf(ErrUnnamedColumn, "field %d (starting at byte %d of the line) holds %q but has no name in the header; name the column or delete it", i+1, col, f))
+		}
+	}
 	return nil
 }
 
@@ -388,8 +464,8 @@ func parseLabel(cell string) (float64, error) {
 	case strings.EqualFold(cell, "false"):
 		return 0, nil
 	}
-	v, err := strconv.ParseFloat(cell, 64)
-	if err != nil || (v != 0 && v != 1) {
+	v, ok := parseDecimal(cell)
+	if !ok || (v != 0 && v != 1) {
 		return 0, wrapf(ErrNotBinary, "label %q is not 0, 1, true or false", cell)
 	}
 	return v, nil
@@ -397,8 +473,8 @@ func parseLabel(cell string) (float64, error) {
 
 // parseScore accepts a number in [0, 1].
 func parseScore(cell string) (float64, error) {
-	v, err := strconv.ParseFloat(cell, 64)
-	if err != nil && !errors.Is(err, strconv.ErrRange) {
+	v, ok := parseDecimal(cell)
+	if !ok {
 		return 0, wrapf(ErrNotNumeric, "score %q is not a number", cell)
 	}
 	if !(v >= 0 && v <= 1) {
@@ -407,11 +483,11 @@ func parseScore(cell string) (float64, error) {
 	return v, nil
 }
 
-// parseNumber accepts a finite number.
+// parseNumber accepts a finite number in the grammar of parseDecimal.
 func parseNumber(cell string) (float64, error) {
-	v, err := strconv.ParseFloat(cell, 64)
-	if err != nil && !errors.Is(err, strconv.ErrRange) {
-		return 0, wrapf(ErrNotNumeric, "%q is not a number (list the column under categorical: if it holds categories)", cell)
+	v, ok := parseDecimal(cell)
+	if !ok {
+		return 0, wrapf(ErrNotNumeric, "%q is not a number (numbers are decimal with an optional exponent, e.g. 12.4 or 1.5e-3; list the column under categorical: if it holds categories)", cell)
 	}
 	if math.IsInf(v, 0) || math.IsNaN(v) {
 		return 0, wrapf(ErrNotNumeric, "%q is not a finite number", cell)

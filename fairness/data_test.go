@@ -63,6 +63,9 @@ func TestReadDataValid(t *testing.T) {
 		Scores:     []float64{0.7, 1, 0, 0.25, 0.5},
 		Comparison: []bool{false, true, false, true, true},
 		Lines:      []int{2, 4, 5, 6, 7},
+		Excluded:   []ExcludedValue{{Value: "east", Rows: 1}},
+
+		ExcludedRows: 1,
 	}
 	if !reflect.DeepEqual(d, want) {
 		t.Errorf("got  %+v\nwant %+v", d, want)
@@ -116,12 +119,13 @@ func TestReadDataErrors(t *testing.T) {
 		{"ragged long", head + "north,F,1,11.5,80,0.7,9\n", ErrRaggedRow, 2, "", "7 fields"},
 		{"csv quote", head + "north,\"F,1,11.5,80,0.7\nsouth\"x,1\n", ErrCSVSyntax, 3, "", "malformed CSV"},
 		{"not numeric", head + ok + "north,F,1,\"12,4\",80,0.7\n", ErrNotNumeric, 6, "hb", `"12,4" is not a number`},
-		{"infinite", head + ok + "north,F,1,12,Inf,0.7\n", ErrNotNumeric, 6, "mcv", "not a finite number"},
+		{"infinite", head + ok + "north,F,1,12,Inf,0.7\n", ErrNotNumeric, 6, "mcv", `"Inf" is not a number`},
+		{"overflow", head + ok + "north,F,1,12,1e400,0.7\n", ErrNotNumeric, 6, "mcv", "not a finite number"},
 		{"label 2", head + "north,F,2,11.5,80,0.7\n", ErrNotBinary, 2, "dx", `label "2"`},
 		{"label yes", head + "north,F,yes,11.5,80,0.7\n", ErrNotBinary, 2, "dx", `label "yes"`},
 		{"score above", head + "north,F,1,11.5,80,1.01\n", ErrScoreRange, 2, "score", `score "1.01" is outside [0, 1]`},
 		{"score negative", head + "north,F,1,11.5,80,-0.1\n", ErrScoreRange, 2, "score", "outside"},
-		{"score inf", head + "north,F,1,11.5,80,+Inf\n", ErrScoreRange, 2, "score", "outside"},
+		{"score inf", head + "north,F,1,11.5,80,+Inf\n", ErrNotNumeric, 2, "score", `score "+Inf" is not a number`},
 		{"score text", head + "north,F,1,11.5,80,high\n", ErrNotNumeric, 2, "score", `score "high"`},
 		{"score nan", head + "north,F,1,11.5,80,NaN\n", ErrMissingValue, 2, "score", `missing value "NaN"`},
 		{"missing value", head + "north,F,1,NA,80,0.3\n", ErrMissingValue, 2, "hb", "missing: drop"},
@@ -181,7 +185,7 @@ folds: 2
 	_, err := ReadData(strings.NewReader("clinic,hb,dx,score\nnorth,13.1,0,0.2\nsouth,\"12,4\",1,0.8\n"), "cohort.csv", spec)
 	fmt.Println(err)
 	// Output:
-	// cohort.csv:3: column "hb": "12,4" is not a number (list the column under categorical: if it holds categories)
+	// cohort.csv:3: column "hb": "12,4" is not a number (numbers are decimal with an optional exponent, e.g. 12.4 or 1.5e-3; list the column under categorical: if it holds categories)
 }
 
 func BenchmarkReadData(b *testing.B) {

@@ -46,6 +46,8 @@ var (
 	ErrMissingValue    = errors.New("missing value")
 	ErrGroupAbsent     = errors.New("group value absent")
 	ErrTooFewRecords   = errors.New("too few records in a group")
+	ErrEncoding        = errors.New("text is not UTF-8")
+	ErrUnnamedColumn   = errors.New("value in a column without a name")
 )
 
 // SpecError is a problem in the spec file. Line is 1-based (0 when unknown)

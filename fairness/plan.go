@@ -56,8 +56,8 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 		Classifier: spec.Classifier,
 		Learners:   classify.NamesOf(learners),
 		Folds:      spec.Folds,
-		Warnings:   droppedWarnings(groupInfo(spec, d)),
 	}
+	info.Warnings = dataWarnings(info.Groups)
 	for i, n := range spec.Graph {
 		info.Nodes = append(info.Nodes, PlanNode{
 			Node:      n.Node,

@@ -46,6 +46,9 @@ func groupInfo(spec *Spec, d *Dataset) GroupInfo {
 		NComparison:       nCmp,
 		DroppedReference:  d.DroppedReference,
 		DroppedComparison: d.DroppedComparison,
+		Excluded:          append([]ExcludedValue{}, d.Excluded...),
+		ExcludedRows:      d.ExcludedRows,
+		MissingGroupRows:  d.MissingGroupRows,
 	}
 }
 

@@ -79,6 +79,14 @@ type GroupInfo struct {
 	NComparison       int    `json:"n_comparison"`
 	DroppedReference  int    `json:"dropped_reference"`  // rows dropped for missing values
 	DroppedComparison int    `json:"dropped_comparison"` // rows dropped for missing values
+
+	// Rows not audited because their group value is another one, counted
+	// per value (most rows first; at most 1,000 values are listed, and
+	// ExcludedRows counts all), and rows whose group value is missing
+	// (missing: drop).
+	Excluded         []ExcludedValue `json:"excluded_values"`
+	ExcludedRows     int             `json:"excluded_rows"`
+	MissingGroupRows int             `json:"missing_group_rows"`
 }
 
 // MetricResult is one audited metric. Gap = Comparison − Reference and

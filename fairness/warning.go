@@ -35,6 +35,10 @@ type WarningKind string
 const (
 	// KindRowsDropped (note): rows were dropped for missing values.
 	KindRowsDropped WarningKind = "rows_dropped"
+	// KindGroupValueNearMiss (caution): rows were excluded whose group
+	// value differs from the reference or comparison value only in letter
+	// case, white space or invisible characters (ExcludedValue.Resembles).
+	KindGroupValueNearMiss WarningKind = "group_value_near_miss"
 	// KindPoorOverlap (unreliable): the out-of-fold AUC of a mechanism's
 	// group classifier is at least WarnAUC.
 	KindPoorOverlap WarningKind = "poor_overlap"

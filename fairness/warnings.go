@@ -42,7 +42,7 @@ const (
 )
 
 // Warnings lists the problems a reader of r should know about, in a fixed
-// order: dropped rows; then per mechanism in graph order its overlap (AUC,
+// order: dropped rows and group values resembling a chosen one; then per mechanism in graph order its overlap (AUC,
 // extreme ratios), effective sample size, heavy tail, largest weight
 // share, mean ratio overall and per stratum of the parents, and clipping;
 // then per side of estimation its worst hybrid; then per metric its
@@ -54,7 +54,7 @@ const (
 // since the combination leans on the better one. Each check's kind and
 // severity are listed with the Kind… constants.
 func Warnings(r *Result) []Warning {
-	out := droppedWarnings(r.Groups)
+	out := dataWarnings(r.Groups)
 	for _, m := range r.Mechanisms {
 		out = append(out, mechanismWarnings(r, m)...)
 	}
@@ -182,6 +182,12 @@ func nodeList(nodes []string) string {
 		q[i] = "`" + n + "`"
 	}
 	return strings.Join(q, ", ")
+}
+
+// dataWarnings reports, about the rows of the data file, those dropped for
+// missing values and the excluded group values that resemble a chosen one.
+func dataWarnings(g GroupInfo) []Warning {
+	return append(droppedWarnings(g), excludedWarnings(g)...)
 }
 
 // droppedWarnings reports rows dropped for missing values; never nil.

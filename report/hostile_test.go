@@ -46,7 +46,7 @@ var hostileTexts = []string{
 }
 
 // hostileResult is handResult with s in every place that holds user text:
-// the title, the group column and values, label and score, node,
+// the title, the group column and values (an excluded one too), label and score, node,
 // mechanism, column and metric names, learners, the warnings (quoting s
 // in backticks as fairness does), the assumptions and the input paths.
 // Each place gets s with a different prefix, so that the places stay
@@ -55,6 +55,8 @@ func hostileResult(s string) *fairness.Result {
 	r := handResult()
 	r.Title = "T" + s
 	r.Groups.Column, r.Groups.Reference, r.Groups.Comparison = "G"+s, "R"+s, "C"+s
+	r.Groups.Excluded = []fairness.ExcludedValue{{Value: "E" + s, Rows: 2, Resembles: "R" + s}}
+	r.Groups.ExcludedRows = 2
 	r.Label, r.Score = "L"+s, "S"+s
 	r.Tool.Version = "V" + s
 	r.Settings.Learners = []string{"learner" + s}

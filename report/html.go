@@ -67,6 +67,7 @@ type page struct {
 	Title        string
 	Cohort       string
 	Threshold    string
+	Excluded     string // rows left out for their group value (excludedSentence)
 	Metrics      []metricView
 	Mechanisms   []mechanismView
 	Confusion    []confusionView
@@ -166,6 +167,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		Diagnostics:     diagnostics(res),
 		Cohort:          filepath.Base(res.Inputs.DataFile), // the footer has the full path
 		Threshold:       formatThreshold(res.Threshold),
+		Excluded:        excludedSentence(res.Groups),
 		Assumptions:     res.Assumptions,
 		LowESSShare:     fmt.Sprintf("%.0f%%", 100*fairness.WarnESSShare),
 		DrillNodes:      drillNodes,

@@ -58,6 +58,9 @@ func mdHeader(p mdPrinter, res *fairness.Result) {
 	p("Groups by %s: reference %s (%d records), comparison %s (%d records). Label %s, decision threshold %s.\n\n",
 		mdCode(g.Column), mdText(g.Reference), g.NReference,
 		mdText(g.Comparison), g.NComparison, mdCode(res.Label), formatThreshold(res.Threshold))
+	if s := excludedSentence(g); s != "" {
+		p("%s\n\n", mdText(s))
+	}
 	for _, m := range res.Metrics {
 		p("%s\n\n", summaryText(res, m, markdownInline))
 	}

@@ -37,6 +37,9 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	fmt.Fprintf(b, "  score       %s (positive when >= %v)\n", pt(p.Score), p.Threshold)
 	fmt.Fprintf(b, "  groups      column %s: reference %s (%d records, %d dropped), comparison %s (%d records, %d dropped)\n",
 		pt(g.Column), pt(g.Reference), g.NReference, g.DroppedReference, pt(g.Comparison), g.NComparison, g.DroppedComparison)
+	if s := excludedSentence(g); s != "" {
+		fmt.Fprintf(b, "  excluded    %s\n", pt(s))
+	}
 	fmt.Fprintf(b, "  metrics     %s\n", list(p.Metrics))
 	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, seed %d\n", pt(p.Classifier), list(p.Learners), p.Folds, spec.Seed)
 	fmt.Fprintf(b, "  features    %d encoded columns\n", p.Features)

@@ -62,6 +62,9 @@ func (t *textWriter) groups(res *fairness.Result) {
 	tab.add("reference", g.Reference, fmt.Sprint(g.NReference), fmt.Sprint(g.DroppedReference))
 	tab.add("comparison", g.Comparison, fmt.Sprint(g.NComparison), fmt.Sprint(g.DroppedComparison))
 	tab.write(t.w, "  ")
+	if s := excludedSentence(g); s != "" {
+		t.line("  %s", s)
+	}
 	t.line("")
 }
 
