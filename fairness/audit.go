@@ -113,13 +113,14 @@ func candidateLearners(name string) (learners []classify.Learner, ok bool) {
 func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learners []classify.Learner, opt RunOptions) *Result {
 	groups := groupInfo(spec, d)
 	r := &Result{
-		Tool:      ToolInfo{Name: ToolName, Version: opt.Version},
-		Title:     spec.Title,
-		Groups:    groups,
-		Label:     spec.Label,
-		Score:     spec.Score,
-		Threshold: spec.Threshold,
-		Seed:      spec.Seed,
+		Tool:        ToolInfo{Name: ToolName, Version: opt.Version},
+		Title:       spec.Title,
+		Groups:      groups,
+		Label:       spec.Label,
+		LabelValues: d.LabelValues,
+		Score:       spec.Score,
+		Threshold:   spec.Threshold,
+		Seed:        spec.Seed,
 		Settings: Settings{
 			Folds:       spec.Folds,
 			Classifier:  spec.Classifier,
@@ -152,7 +153,9 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		r.Mechanisms = append(r.Mechanisms, mechanismResult(m, columns[m.Mechanism.Node], groups.NReference))
 	}
 	for _, md := range dec.Metrics {
-		r.Metrics = append(r.Metrics, metricResult(md, dec.Mechanisms))
+		mr := metricResult(md, dec.Mechanisms)
+		mr.RecordsReference, mr.RecordsComparison = metricBasis(spec, d, md.Metric)
+		r.Metrics = append(r.Metrics, mr)
 	}
 	for _, w := range dec.Weights {
 		r.Weights = append(r.Weights, WeightSide{

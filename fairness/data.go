@@ -42,6 +42,10 @@ type Dataset struct {
 	Excluded         []ExcludedValue
 	ExcludedRows     int
 	MissingGroupRows int
+
+	// LabelValues is how label words were read (spec key positive); nil
+	// when the labels are 0/1 or true/false.
+	LabelValues *LabelValues
 }
 
 // Counts returns the number of kept reference and comparison rows.
@@ -85,8 +89,9 @@ func LoadData(spec *Spec) (*Dataset, error) {
 // "NaN" (any case) is missing: with spec.Missing = "error" it is an error,
 // with "drop" the row is dropped and counted per group (a row whose group
 // value is missing belongs to neither group and is counted as such). The
-// label accepts 0, 1, true and false (any case); the score must be a number
-// in [0, 1]; other graph columns must be finite numbers unless listed as
+// label accepts 0, 1, true and false (any case), or with spec.Positive
+// the two values of a label column of words (labelCoder); the score must
+// be a number in [0, 1]; other graph columns must be finite numbers unless listed as
 // categorical, in which case their levels are sorted and coded 0, 1, ...
 // in that order. Numbers are decimal with an optional exponent
 // (parseDecimal). Every problem is a *DataError carrying the line and
@@ -107,6 +112,9 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 	if err := l.readRows(); err != nil {
 		return nil, err
 	}
+	if err := l.labels.check(); err != nil {
+		return nil, l.derr(0, spec.Label, err)
+	}
 	if err := l.checkGroups(); err != nil {
 		return nil, err
 	}
@@ -116,6 +124,7 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 			d.Columns[j].Levels, d.Columns[j].Values = codeLevels(l.raw[j])
 		}
 	}
+	d.LabelValues = l.labels.values()
 	d.Excluded = l.excluded.list(spec.Groups.Reference, spec.Groups.Comparison)
 	d.ExcludedRows, d.MissingGroupRows = l.excluded.total(), l.excluded.missingRows
 	d.SHA256 = hex.EncodeToString(h.Sum(nil))
@@ -143,6 +152,7 @@ type csvLoader struct {
 	rowVals                []float64
 	rowRaw                 []string
 	excluded               excludedCounter // rows of other groups
+	labels                 labelCoder      // reads the label cells (spec key positive)
 }
 
 // derr builds the *DataError of a problem at line (0: none) and column.
@@ -231,6 +241,7 @@ func (l *csvLoader) locateColumns(pos map[string]int) error {
 // sizes the per-row buffers.
 func (l *csvLoader) newDataset() {
 	l.d = &Dataset{Path: l.name, Columns: make([]Column, len(l.names))}
+	l.labels = labelCoder{positive: l.spec.Positive}
 	l.raw = make([][]string, len(l.names))
 	for j, c := range l.names {
 		l.d.Columns[j] = Column{Name: c, Categorical: l.categorical[c]}
@@ -367,7 +378,7 @@ func (l *csvLoader) parseOutcome(r *csvRow) (label, score float64, err error) {
 	if m, err := r.missing(l.labelIdx, spec.Label); err != nil {
 		return 0, 0, err
 	} else if !m {
-		if label, err = parseLabel(r.cell(l.labelIdx)); err != nil {
+		if label, err = l.labels.code(r.cell(l.labelIdx), r.at(l.labelIdx)); err != nil {
 			return 0, 0, l.derr(r.at(l.labelIdx), spec.Label, err)
 		}
 	}

@@ -7,19 +7,20 @@ import (
 // PlanInfo describes what an audit would estimate, without fitting
 // anything: it is what `gapwise check` prints.
 type PlanInfo struct {
-	Title      string
-	Synthetic  bool
-	Label      string
-	Score      string
-	Threshold  float64
-	Groups     GroupInfo
-	Metrics    []string
-	Nodes      []PlanNode // in spec order
-	Features   int        // columns of the encoded feature matrix
-	Classifier string
-	Learners   []string // candidate learners per mechanism
-	Folds      int
-	Warnings   []Warning // problems visible before fitting, e.g. dropped rows
+	Title       string
+	Synthetic   bool
+	Label       string
+	LabelValues *LabelValues // nil unless the spec names the positive value
+	Score       string
+	Threshold   float64
+	Groups      GroupInfo
+	Metrics     []string
+	Nodes       []PlanNode // in spec order
+	Features    int        // columns of the encoded feature matrix
+	Classifier  string
+	Learners    []string // candidate learners per mechanism
+	Folds       int
+	Warnings    []Warning // problems visible before fitting, e.g. dropped rows
 }
 
 // PlanNode is one mechanism of the plan.
@@ -45,17 +46,18 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 	}
 	learners, _ := candidateLearners(spec.Classifier)
 	info := &PlanInfo{
-		Title:      spec.Title,
-		Synthetic:  spec.Synthetic,
-		Label:      spec.Label,
-		Score:      spec.Score,
-		Threshold:  spec.Threshold,
-		Groups:     groupInfo(spec, d),
-		Metrics:    append([]string(nil), spec.Metrics...),
-		Features:   sample.X.RawMatrix().Cols,
-		Classifier: spec.Classifier,
-		Learners:   classify.NamesOf(learners),
-		Folds:      spec.Folds,
+		Title:       spec.Title,
+		Synthetic:   spec.Synthetic,
+		Label:       spec.Label,
+		LabelValues: d.LabelValues,
+		Score:       spec.Score,
+		Threshold:   spec.Threshold,
+		Groups:      groupInfo(spec, d),
+		Metrics:     append([]string(nil), spec.Metrics...),
+		Features:    sample.X.RawMatrix().Cols,
+		Classifier:  spec.Classifier,
+		Learners:    classify.NamesOf(learners),
+		Folds:       spec.Folds,
 	}
 	info.Warnings = dataWarnings(info.Groups)
 	for i, n := range spec.Graph {

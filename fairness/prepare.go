@@ -44,12 +44,40 @@ func groupInfo(spec *Spec, d *Dataset) GroupInfo {
 		Comparison:        spec.Groups.Comparison,
 		NReference:        nRef,
 		NComparison:       nCmp,
+		EventsReference:   events(d, false),
+		EventsComparison:  events(d, true),
 		DroppedReference:  d.DroppedReference,
 		DroppedComparison: d.DroppedComparison,
 		Excluded:          append([]ExcludedValue{}, d.Excluded...),
 		ExcludedRows:      d.ExcludedRows,
 		MissingGroupRows:  d.MissingGroupRows,
 	}
+}
+
+// events counts the records with label 1 in one group.
+func events(d *Dataset, comparison bool) int {
+	n := 0
+	for i, y := range d.Labels {
+		if y == 1 && d.Comparison[i] == comparison {
+			n++
+		}
+	}
+	return n
+}
+
+// metricBasis returns how many records of each group the metric rests on
+// (metrics.Fact.Basis).
+func metricBasis(spec *Spec, d *Dataset, metric string) (ref, cmp int) {
+	f, _ := metrics.FactOf(metric)
+	var ys, ss [2][]float64
+	for i, y := range d.Labels {
+		g := 0
+		if d.Comparison[i] {
+			g = 1
+		}
+		ys[g], ss[g] = append(ys[g], y), append(ss[g], d.Scores[i])
+	}
+	return f.Basis(ys[0], ss[0], spec.Threshold), f.Basis(ys[1], ss[1], spec.Threshold)
 }
 
 // encode builds the attribution sample and one mechanism per graph node.

@@ -9,15 +9,18 @@ import "github.com/gapwise/gapwise/attribution"
 type Result struct {
 	Tool ToolInfo `json:"tool"`
 	// Title is the spec's free-text title, shown by the reports.
-	Title      string            `json:"title,omitempty"`
-	Groups     GroupInfo         `json:"groups"`
-	Label      string            `json:"label"`
-	Score      string            `json:"score"`
-	Threshold  float64           `json:"threshold"`
-	Seed       uint64            `json:"seed"`
-	Settings   Settings          `json:"settings"`
-	Metrics    []MetricResult    `json:"metrics"`
-	Mechanisms []MechanismResult `json:"mechanisms"`
+	Title  string    `json:"title,omitempty"`
+	Groups GroupInfo `json:"groups"`
+	Label  string    `json:"label"`
+	// LabelValues, present when the spec names the positive label value,
+	// says which value was counted as the outcome and which as 0.
+	LabelValues *LabelValues      `json:"label_values,omitempty"`
+	Score       string            `json:"score"`
+	Threshold   float64           `json:"threshold"`
+	Seed        uint64            `json:"seed"`
+	Settings    Settings          `json:"settings"`
+	Metrics     []MetricResult    `json:"metrics"`
+	Mechanisms  []MechanismResult `json:"mechanisms"`
 	// Weights describes, per side of estimation used, the weights that
 	// emulate the hybrid distributions.
 	Weights []WeightSide `json:"weights"`
@@ -77,6 +80,8 @@ type GroupInfo struct {
 	Comparison        string `json:"comparison"`
 	NReference        int    `json:"n_reference"`
 	NComparison       int    `json:"n_comparison"`
+	EventsReference   int    `json:"events_reference"`   // records with label 1
+	EventsComparison  int    `json:"events_comparison"`  // records with label 1
 	DroppedReference  int    `json:"dropped_reference"`  // rows dropped for missing values
 	DroppedComparison int    `json:"dropped_comparison"` // rows dropped for missing values
 
@@ -102,6 +107,11 @@ type MetricResult struct {
 	// of the far end of the gap, over the records the metric counts
 	// (attribution.MetricDecomposition.EffectiveRecords).
 	EffectiveRecords float64 `json:"effective_records"`
+	// RecordsReference and RecordsComparison count the records the metric
+	// rests on in each group (metrics.Fact.Basis: the negatives for the
+	// FPR, the positives for the FNR, ...).
+	RecordsReference  int `json:"records_reference"`
+	RecordsComparison int `json:"records_comparison"`
 	// Intervals are present when the bootstrap ran.
 	ReferenceCI   *Interval      `json:"reference_ci,omitempty"`
 	ComparisonCI  *Interval      `json:"comparison_ci,omitempty"`

@@ -27,6 +27,7 @@ import (
 //
 //	data: cohort.csv     # CSV with a header row; relative to the spec's folder
 //	label: dx            # 0/1 outcome column; must be a column of a graph node
+//	positive: died       # the label value that is the outcome, when the label column holds words
 //	score: score         # the model's probability in [0, 1]
 //	threshold: 0.4       # positive decision when score >= threshold, in (0, 1)
 //	groups: {column: clinic, reference: north, comparison: south}
@@ -56,7 +57,10 @@ type Spec struct {
 	Data     string // data path as written in the spec
 	DataPath string // data path resolved against the spec's folder
 
-	Label     string
+	Label string
+	// Positive, when set, is the label value counted as the outcome (1);
+	// the column must then hold it and at most one other value (0).
+	Positive  string
 	Score     string
 	Threshold float64
 	Groups    GroupSpec
@@ -262,6 +266,9 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		s.Data, err = p.str(k.Value, v)
 	case "label":
 		s.Label, err = p.str(k.Value, v)
+	case "positive":
+		s.Positive, err = p.str(k.Value, v)
+		s.Positive = strings.TrimSpace(s.Positive)
 	case "score":
 		s.Score, err = p.str(k.Value, v)
 	case "threshold":

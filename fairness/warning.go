@@ -39,6 +39,13 @@ const (
 	// value differs from the reference or comparison value only in letter
 	// case, white space or invisible characters (ExcludedValue.Resembles).
 	KindGroupValueNearMiss WarningKind = "group_value_near_miss"
+	// KindFewRecords (caution, or unreliable below WarnVeryFewRecords): a
+	// metric rests on fewer than WarnFewRecords records of a group (e.g.
+	// an FNR from seven deaths).
+	KindFewRecords WarningKind = "few_records"
+	// KindSmallGroup: a group is too small for the fold count (caution)
+	// or smaller than the accuracy study's StudiedGroupSize (note).
+	KindSmallGroup WarningKind = "small_group"
 	// KindPoorOverlap (unreliable): the out-of-fold AUC of a mechanism's
 	// group classifier is at least WarnAUC.
 	KindPoorOverlap WarningKind = "poor_overlap"

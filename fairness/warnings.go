@@ -42,7 +42,8 @@ const (
 )
 
 // Warnings lists the problems a reader of r should know about, in a fixed
-// order: dropped rows and group values resembling a chosen one; then per mechanism in graph order its overlap (AUC,
+// order: dropped rows and group values resembling a chosen one; metrics
+// resting on few records and small groups; then per mechanism in graph order its overlap (AUC,
 // extreme ratios), effective sample size, heavy tail, largest weight
 // share, mean ratio overall and per stratum of the parents, and clipping;
 // then per side of estimation its worst hybrid; then per metric its
@@ -54,7 +55,7 @@ const (
 // since the combination leans on the better one. Each check's kind and
 // severity are listed with the Kind… constants.
 func Warnings(r *Result) []Warning {
-	out := dataWarnings(r.Groups)
+	out := append(dataWarnings(r.Groups), sampleSizeWarnings(r)...)
 	for _, m := range r.Mechanisms {
 		out = append(out, mechanismWarnings(r, m)...)
 	}

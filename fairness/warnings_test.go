@@ -24,8 +24,8 @@ func warningsBase() *Result {
 	return &Result{
 		Groups:     GroupInfo{Reference: "north", Comparison: "south", NReference: 12000, NComparison: 9000},
 		Mechanisms: []MechanismResult{healthy},
-		Metrics:    []MetricResult{{Metric: "fnr", Gap: 0.09, Estimated: 0.08, Residual: 0.01, EffectiveRecords: 2500}},
-		Settings:   Settings{EstimateFrom: "reference"},
+		Metrics:    []MetricResult{{Metric: "fnr", Gap: 0.09, Estimated: 0.08, Residual: 0.01, EffectiveRecords: 2500, RecordsReference: 3000, RecordsComparison: 2000}},
+		Settings:   Settings{EstimateFrom: "reference", Folds: 5},
 		Weights: []WeightSide{
 			{Side: "reference", Records: 12000, Worst: HybridWeight{ComparisonNodes: []string{"age"}, ESS: 9000}},
 		},
@@ -42,8 +42,14 @@ func TestWarnings(t *testing.T) {
 		{"none", func(r *Result) {}, nil},
 		{"dropped", func(r *Result) { r.Groups.DroppedReference, r.Groups.DroppedComparison = 1200, 3 }, []string{`1,200 rows of group "north" and 3 rows of group "south" were dropped`}},
 		{"ess share", func(r *Result) { r.Mechanisms[0].ESS = 1199 }, []string{"the contribution of `age` rests on 1,199 effective records out of 12,000; treat it as unreliable"}},
-		{"ess floor", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 99.6 }, []string{"rests on 100 effective records out of 500"}},
-		{"ess fine", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 100 }, nil},
+		{"ess floor", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 99.6 }, []string{`group "north" has 500 records, fewer than the 800 per group`, "rests on 100 effective records out of 500"}},
+		{"ess fine", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 100 }, []string{`group "north" has 500 records`}},
+		// An FNR from 7 positives with value 3/7: p̃ = 5/11, SE √(p̃(1−p̃)/11) = 0.150 (computed by hand).
+		{"few records", func(r *Result) { r.Metrics[0].RecordsComparison, r.Metrics[0].Comparison = 7, 3.0/7 }, []string{`fnr in group "south" rests on 7 positives: its value has a standard error of about 0.15`}},
+		{"few records caution", func(r *Result) { r.Metrics[0].RecordsReference = 29 }, []string{`fnr in group "north" rests on 29 positives`}},
+		{"records enough", func(r *Result) { r.Metrics[0].RecordsReference = 30 }, nil},
+		{"few records not a share", func(r *Result) { r.Metrics[0].Metric, r.Metrics[0].RecordsReference = "brier", 12 }, []string{`brier in group "north" rests on 12 records; its value, the gap and the contributions are imprecise`}},
+		{"folds too many", func(r *Result) { r.Groups.NComparison, r.Settings.Folds = 190, 10 }, []string{`group "south" has 190 records: with 10 folds each held-out fold holds about 19 of them`}},
 		{"max share", func(r *Result) { r.Mechanisms[0].MaxShare = 0.073 }, []string{"a single record carries 7.3% of the weight for `age`"}},
 		{"mean low", func(r *Result) { r.Mechanisms[0].MeanRatio = 0.85 }, []string{"average 0.850 over the reference records instead of 1"}},
 		{"mean high", func(r *Result) { r.Mechanisms[0].MeanRatio = 1.2 }, []string{"average 1.200"}},

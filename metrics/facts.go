@@ -73,3 +73,59 @@ func (f Fact) UndefinedReason() string {
 	}
 	return "it has no records"
 }
+
+// BasisNoun names, in the plural, the records Basis counts: "positives",
+// "negatives", "records decided positive", ...
+func (f Fact) BasisNoun() string {
+	switch f.Counts {
+	case Negatives:
+		return "negatives"
+	case Positives:
+		return "positives"
+	case DecidedPositive:
+		return "records decided positive"
+	case DecidedNegative:
+		return "records decided negative"
+	case BothClasses:
+		return "records in the rarer class"
+	}
+	return "records"
+}
+
+// Basis returns how many records a metric rests on in a sample with the
+// given labels (0/1) and scores: the records it counts (negatives for the
+// FPR, positives for the TPR and FNR, records decided positive, score ≥
+// threshold, for the PPV, decided negative for the NPV, every record for
+// the others), and for the AUC the smaller of the two classes, since its
+// precision is limited by the rarer one (Hanley & McNeil 1982, Radiology
+// 143:29, cited from memory). It panics when labels and scores differ in
+// length.
+func (f Fact) Basis(labels, scores []float64, threshold float64) int {
+	if len(labels) != len(scores) {
+		panic("metrics: Basis: labels and scores differ in length")
+	}
+	var pos, neg, decPos int
+	for i, y := range labels {
+		if y == 1 {
+			pos++
+		} else {
+			neg++
+		}
+		if scores[i] >= threshold {
+			decPos++
+		}
+	}
+	switch f.Counts {
+	case Negatives:
+		return neg
+	case Positives:
+		return pos
+	case DecidedPositive:
+		return decPos
+	case DecidedNegative:
+		return len(labels) - decPos
+	case BothClasses:
+		return min(pos, neg)
+	}
+	return len(labels)
+}

@@ -82,3 +82,25 @@ func TestFactFlagsAgreeWithValues(t *testing.T) {
 		}
 	}
 }
+
+// TestFactBasis: the records a metric rests on, on a hand-counted sample
+// of five (labels 0 1 1 1 0, scores .9 .8 .1 .6 .2, threshold 0.5: two
+// negatives, three positives, three decided positive), and zero exactly
+// on the samples where the metric is undefined (those of
+// TestFactsMatchComputation).
+func TestFactBasis(t *testing.T) {
+	ys, ss := []float64{0, 1, 1, 1, 0}, []float64{0.9, 0.8, 0.1, 0.6, 0.2}
+	want := map[string]int{NameFPR: 2, NameTPR: 3, NameFNR: 3, NamePPV: 3, NameNPV: 2, NameSelectionRate: 5,
+		NameAccuracy: 5, NameBrier: 5, NameLogLoss: 5, NameCalibrationInTheLarge: 5, NameECE: 5, NameAUC: 2}
+	for _, f := range Facts() {
+		if got := f.Basis(ys, ss, 0.5); got != want[f.Name] {
+			t.Errorf("%s rests on %d records, want %d", f.Name, got, want[f.Name])
+		}
+		for _, s := range [][2][]float64{{{1, 1}, {0.2, 0.8}}, {{0, 0}, {0.2, 0.8}}, {{0, 1}, {0.1, 0.2}}, {{0, 1}, {0.7, 0.9}}, {{}, {}}} {
+			_, err := Compute(f.Name, s[0], s[1], 0.5, 2, nil)
+			if undefined := errors.Is(err, ErrUndefined); undefined != (f.Basis(s[0], s[1], 0.5) == 0) {
+				t.Errorf("%s on %v: undefined %v but basis %d", f.Name, s, undefined, f.Basis(s[0], s[1], 0.5))
+			}
+		}
+	}
+}

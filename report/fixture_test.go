@@ -12,7 +12,7 @@ func ptr(v float64) *float64 { return &v }
 func handResult() *fairness.Result {
 	return &fairness.Result{
 		Tool:      fairness.ToolInfo{Name: "gapwise", Version: "0.1.0-test"},
-		Groups:    fairness.GroupInfo{Column: "sex", Reference: "men", Comparison: "women", NReference: 1200, NComparison: 1100, DroppedReference: 3, DroppedComparison: 0},
+		Groups:    fairness.GroupInfo{Column: "sex", Reference: "men", Comparison: "women", NReference: 1200, NComparison: 1100, EventsReference: 200, EventsComparison: 190, DroppedReference: 3, DroppedComparison: 0},
 		Label:     "anaemia",
 		Score:     "risk",
 		Threshold: 0.35,
@@ -20,7 +20,7 @@ func handResult() *fairness.Result {
 		Settings:  fairness.Settings{Folds: 5, Classifier: "auto", ECEBins: 10, Learners: []string{"linear", "quadratic"}},
 		Metrics: []fairness.MetricResult{
 			{
-				Metric: "fnr", Reference: 0.12, Comparison: 0.21, Gap: 0.09, Estimated: 0.079, Residual: 0.011,
+				Metric: "fnr", Reference: 0.12, Comparison: 0.21, Gap: 0.09, Estimated: 0.079, Residual: 0.011, RecordsReference: 200, RecordsComparison: 190,
 				ReferenceCI: &fairness.Interval{Low: 0.101, High: 0.139},
 				GapCI:       &fairness.Interval{Low: 0.061, High: 0.118},
 				Contributions: []fairness.Contribution{
@@ -31,7 +31,7 @@ func handResult() *fairness.Result {
 				},
 			},
 			{
-				Metric: "brier", Reference: 0.0812, Comparison: 0.0745, Gap: -0.0067, Estimated: -0.006, Residual: -0.0007,
+				Metric: "brier", Reference: 0.0812, Comparison: 0.0745, Gap: -0.0067, Estimated: -0.006, Residual: -0.0007, RecordsReference: 1200, RecordsComparison: 1100,
 				Contributions: []fairness.Contribution{
 					{Node: "age", Mechanism: "age", Value: 0.001, Alone: 0.001, IfEqualised: -0.007},
 					{Node: "anaemia", Mechanism: "anaemia | age", Value: -0.004, Alone: -0.004, IfEqualised: -0.002},

@@ -67,6 +67,7 @@ type page struct {
 	Title        string
 	Cohort       string
 	Threshold    string
+	LabelWords   string // how label words were read (labelWords), or ""
 	Excluded     string // rows left out for their group value (excludedSentence)
 	Metrics      []metricView
 	Mechanisms   []mechanismView
@@ -99,6 +100,7 @@ type metricView struct {
 	Reference, Comparison, Gap       string
 	ReferenceCI, ComparisonCI, GapCI string
 	Estimated, Residual              string
+	Basis                            string // records each group's value rests on (basisPair)
 	Rows                             []contributionRow
 	Selected                         bool
 	TopNodes                         []string
@@ -168,6 +170,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		Cohort:          filepath.Base(res.Inputs.DataFile), // the footer has the full path
 		Threshold:       formatThreshold(res.Threshold),
 		Excluded:        excludedSentence(res.Groups),
+		LabelWords:      labelWords(res.LabelValues),
 		Assumptions:     res.Assumptions,
 		LowESSShare:     fmt.Sprintf("%.0f%%", 100*fairness.WarnESSShare),
 		DrillNodes:      drillNodes,
@@ -193,7 +196,8 @@ func newPage(res *fairness.Result) (*page, error) {
 			Reference: formatValue(m.Metric, m.Reference), Comparison: formatValue(m.Metric, m.Comparison),
 			Gap: formatDelta(m.Metric, m.Gap), ReferenceCI: formatValueInterval(m.Metric, m.ReferenceCI),
 			ComparisonCI: formatValueInterval(m.Metric, m.ComparisonCI), GapCI: formatGapInterval(m),
-			Estimated: formatDelta(m.Metric, m.Estimated), Residual: formatDelta(m.Metric, m.Residual)}
+			Estimated: formatDelta(m.Metric, m.Estimated), Residual: formatDelta(m.Metric, m.Residual),
+			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison)}
 		for _, c := range m.Contributions {
 			dir := "zero"
 			switch {

@@ -55,9 +55,9 @@ func mdHeader(p mdPrinter, res *fairness.Result) {
 	if res.Synthetic {
 		p("> **Synthetic data.** These numbers come from an invented cohort and describe no real patients.\n\n")
 	}
-	p("Groups by %s: reference %s (%d records), comparison %s (%d records). Label %s, decision threshold %s.\n\n",
-		mdCode(g.Column), mdText(g.Reference), g.NReference,
-		mdText(g.Comparison), g.NComparison, mdCode(res.Label), formatThreshold(res.Threshold))
+	p("Groups by %s: reference %s (%d records, %d events), comparison %s (%d records, %d events). Label %s%s, decision threshold %s.\n\n",
+		mdCode(g.Column), mdText(g.Reference), g.NReference, g.EventsReference,
+		mdText(g.Comparison), g.NComparison, g.EventsComparison, mdCode(res.Label), mdText(labelWords(res.LabelValues)), formatThreshold(res.Threshold))
 	if s := excludedSentence(g); s != "" {
 		p("%s\n\n", mdText(s))
 	}
@@ -72,13 +72,14 @@ func mdHeader(p mdPrinter, res *fairness.Result) {
 // mdGroupTable prints the two groups' metric values and the gaps.
 func mdGroupTable(p mdPrinter, res *fairness.Result) {
 	p("### Metrics by group\n\n")
-	p("| Metric | %s (reference) | %s (comparison) | Gap |\n", mdText(res.Groups.Reference), mdText(res.Groups.Comparison))
-	p("| --- | ---: | ---: | ---: |\n")
+	p("| Metric | %s (reference) | %s (comparison) | Gap | From |\n", mdText(res.Groups.Reference), mdText(res.Groups.Comparison))
+	p("| --- | ---: | ---: | ---: | --- |\n")
 	for _, m := range res.Metrics {
-		p("| %s | %s | %s | %s |\n", mdText(MetricTitle(m.Metric)),
+		p("| %s | %s | %s | %s | %s |\n", mdText(MetricTitle(m.Metric)),
 			withInterval(formatValue(m.Metric, m.Reference), formatValueInterval(m.Metric, m.ReferenceCI)),
 			withInterval(formatValue(m.Metric, m.Comparison), formatValueInterval(m.Metric, m.ComparisonCI)),
-			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m)))
+			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m)),
+			mdText(basisPair(m.Metric, m.RecordsReference, m.RecordsComparison)))
 	}
 	p("\n")
 }

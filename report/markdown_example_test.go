@@ -10,12 +10,12 @@ import (
 func ExampleWriteMarkdown() {
 	res := &fairness.Result{
 		Tool:      fairness.ToolInfo{Name: "gapwise", Version: "dev"},
-		Groups:    fairness.GroupInfo{Column: "sex", Reference: "men", Comparison: "women", NReference: 500, NComparison: 480},
+		Groups:    fairness.GroupInfo{Column: "sex", Reference: "men", Comparison: "women", NReference: 500, NComparison: 480, EventsReference: 50, EventsComparison: 48},
 		Label:     "anaemia",
 		Score:     "risk",
 		Threshold: 0.5,
 		Metrics: []fairness.MetricResult{{
-			Metric: "fnr", Reference: 0.10, Comparison: 0.16, Gap: 0.06, Estimated: 0.055, Residual: 0.005,
+			Metric: "fnr", Reference: 0.10, Comparison: 0.16, Gap: 0.06, Estimated: 0.055, Residual: 0.005, RecordsReference: 50, RecordsComparison: 48,
 			Contributions: []fairness.Contribution{
 				{Node: "age", Mechanism: "age", Value: -0.01, Alone: -0.01, IfEqualised: 0.07},
 				{Node: "hb", Mechanism: "hb | anaemia", Value: 0.065, Alone: 0.06, IfEqualised: -0.005},
@@ -32,15 +32,15 @@ func ExampleWriteMarkdown() {
 	// Output:
 	// ## Gap audit: `risk` for women vs men
 	//
-	// Groups by `sex`: reference men (500 records), comparison women (480 records). Label `anaemia`, decision threshold 0.5.
+	// Groups by `sex`: reference men (500 records, 50 events), comparison women (480 records, 48 events). Label `anaemia`, decision threshold 0.5.
 	//
 	// The false-negative rate is 16.0% for women and 10.0% for men (reference group). Of the 6.0-point gap (higher for women), 6.5 points come from how `hb` presents given `anaemia`; the mix of `age` narrows it by 1.0 points. The contributions add up to +5.5 pts; the remaining +0.5 pts (residual) is estimation error the method cannot assign.
 	//
 	// ### Metrics by group
 	//
-	// | Metric | men (reference) | women (comparison) | Gap |
-	// | --- | ---: | ---: | ---: |
-	// | false-negative rate | 10.0% | 16.0% | +6.0 pts |
+	// | Metric | men (reference) | women (comparison) | Gap | From |
+	// | --- | ---: | ---: | ---: | --- |
+	// | false-negative rate | 10.0% | 16.0% | +6.0 pts | 50 / 48 positives |
 	//
 	// ### Decomposition of the false-negative rate gap
 	//

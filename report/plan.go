@@ -33,10 +33,10 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	}
 	g := p.Groups
 	fmt.Fprintf(b, "\n  data        %s\n", pt(spec.DataPath))
-	fmt.Fprintf(b, "  label       %s\n", pt(p.Label))
+	fmt.Fprintf(b, "  label       %s%s\n", pt(p.Label), pt(labelWords(p.LabelValues)))
 	fmt.Fprintf(b, "  score       %s (positive when >= %v)\n", pt(p.Score), p.Threshold)
-	fmt.Fprintf(b, "  groups      column %s: reference %s (%d records, %d dropped), comparison %s (%d records, %d dropped)\n",
-		pt(g.Column), pt(g.Reference), g.NReference, g.DroppedReference, pt(g.Comparison), g.NComparison, g.DroppedComparison)
+	fmt.Fprintf(b, "  groups      column %s: reference %s (%d records, %d events, %d dropped), comparison %s (%d records, %d events, %d dropped)\n",
+		pt(g.Column), pt(g.Reference), g.NReference, g.EventsReference, g.DroppedReference, pt(g.Comparison), g.NComparison, g.EventsComparison, g.DroppedComparison)
 	if s := excludedSentence(g); s != "" {
 		fmt.Fprintf(b, "  excluded    %s\n", pt(s))
 	}

@@ -47,8 +47,8 @@ func (t *textWriter) header(res *fairness.Result) {
 	if res.Title != "" {
 		t.line("%s", strings.Join(strings.Fields(res.Title), " "))
 	}
-	t.line("%s %s: audit of %q against label %q, positive when score >= %s",
-		res.Tool.Name, res.Tool.Version, res.Score, res.Label, trimFloat(res.Threshold))
+	t.line("%s %s: audit of %q against label %q%s, positive when score >= %s",
+		res.Tool.Name, res.Tool.Version, res.Score, res.Label, labelWords(res.LabelValues), trimFloat(res.Threshold))
 	if res.Synthetic {
 		t.line("SYNTHETIC DATA: the records are invented and describe no real patients.")
 	}
@@ -58,9 +58,9 @@ func (t *textWriter) header(res *fairness.Result) {
 func (t *textWriter) groups(res *fairness.Result) {
 	g := res.Groups
 	t.line("Groups (column %q)", g.Column)
-	tab := textTable{header: []string{"role", "value", "records", "dropped"}, right: []bool{false, false, true, true}}
-	tab.add("reference", g.Reference, fmt.Sprint(g.NReference), fmt.Sprint(g.DroppedReference))
-	tab.add("comparison", g.Comparison, fmt.Sprint(g.NComparison), fmt.Sprint(g.DroppedComparison))
+	tab := textTable{header: []string{"role", "value", "records", "events", "dropped"}, right: []bool{false, false, true, true, true}}
+	tab.add("reference", g.Reference, fmt.Sprint(g.NReference), fmt.Sprint(g.EventsReference), fmt.Sprint(g.DroppedReference))
+	tab.add("comparison", g.Comparison, fmt.Sprint(g.NComparison), fmt.Sprint(g.EventsComparison), fmt.Sprint(g.DroppedComparison))
 	tab.write(t.w, "  ")
 	if s := excludedSentence(g); s != "" {
 		t.line("  %s", s)
@@ -70,10 +70,10 @@ func (t *textWriter) groups(res *fairness.Result) {
 
 func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	t.line("%s (%s)", m.Metric, MetricTitle(m.Metric))
-	vals := textTable{header: []string{"", "value", intervalName(res)}, right: []bool{false, true, true}}
-	vals.add("reference", fixed(m.Reference), interval(m.ReferenceCI, fixed))
-	vals.add("comparison", fixed(m.Comparison), interval(m.ComparisonCI, fixed))
-	vals.add("gap (comparison - reference)", signed(m.Gap), interval(m.GapCI, signed))
+	vals := textTable{header: []string{"", "value", intervalName(res), "from"}, right: []bool{false, true, true, true}}
+	vals.add("reference", fixed(m.Reference), interval(m.ReferenceCI, fixed), basis(m.Metric, m.RecordsReference))
+	vals.add("comparison", fixed(m.Comparison), interval(m.ComparisonCI, fixed), basis(m.Metric, m.RecordsComparison))
+	vals.add("gap (comparison - reference)", signed(m.Gap), interval(m.GapCI, signed), "")
 	vals.dropEmpty()
 	vals.write(t.w, "  ")
 	t.line("")

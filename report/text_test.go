@@ -166,12 +166,12 @@ func BenchmarkWriteText(b *testing.B) {
 func ExampleWriteText() {
 	res := &fairness.Result{
 		Tool:      fairness.ToolInfo{Name: "gapwise", Version: "v1.0.0"},
-		Groups:    fairness.GroupInfo{Column: "clinic", Reference: "north", Comparison: "south", NReference: 800, NComparison: 700},
+		Groups:    fairness.GroupInfo{Column: "clinic", Reference: "north", Comparison: "south", NReference: 800, NComparison: 700, EventsReference: 120, EventsComparison: 90},
 		Label:     "dx",
 		Score:     "risk",
 		Threshold: 0.5,
 		Metrics: []fairness.MetricResult{{
-			Metric: "fpr", Reference: 0.10, Comparison: 0.16, Gap: 0.06, Estimated: 0.055, Residual: 0.005,
+			Metric: "fpr", Reference: 0.10, Comparison: 0.16, Gap: 0.06, Estimated: 0.055, Residual: 0.005, RecordsReference: 680, RecordsComparison: 610,
 			Contributions: []fairness.Contribution{
 				{Node: "age", Mechanism: "age", Value: 0.015, Alone: 0.01, IfEqualised: 0.045},
 				{Node: "lab", Mechanism: "lab | dx, age", Value: 0.04, Alone: 0.035, IfEqualised: 0.02},
@@ -186,14 +186,14 @@ func ExampleWriteText() {
 	// gapwise v1.0.0: audit of "risk" against label "dx", positive when score >= 0.5
 	//
 	// Groups (column "clinic")
-	//   role        value  records  dropped
-	//   reference   north      800        0
-	//   comparison  south      700        0
+	//   role        value  records  events  dropped
+	//   reference   north      800     120        0
+	//   comparison  south      700      90        0
 	//
 	// fpr (false-positive rate)
-	//                                   value
-	//   reference                      0.1000
-	//   comparison                     0.1600
+	//                                   value           from
+	//   reference                      0.1000  680 negatives
+	//   comparison                     0.1600  610 negatives
 	//   gap (comparison - reference)  +0.0600
 	//
 	//   mechanism             contribution    alone  gap if equalised

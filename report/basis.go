@@ -1,0 +1,62 @@
+package report
+
+import (
+	"fmt"
+
+	"github.com/gapwise/gapwise/fairness"
+	"github.com/gapwise/gapwise/metrics"
+)
+
+// basis says how many records a metric's group value rests on, "340
+// positives", from fairness.MetricResult's RecordsReference or
+// RecordsComparison; "" for a result without the count (zero records never
+// reach a report: such a metric is undefined).
+func basis(metric string, n int) string {
+	if n <= 0 {
+		return ""
+	}
+	f, ok := metrics.FactOf(metric)
+	noun := "records"
+	if ok {
+		noun = f.BasisNoun()
+	}
+	if n == 1 {
+		return "1 of the " + noun
+	}
+	return fmt.Sprintf("%s %s", thousandsText(n), noun)
+}
+
+// thousandsText formats n with commas between groups of three digits.
+func thousandsText(n int) string {
+	s := fmt.Sprint(n)
+	for i := len(s) - 3; i > 0; i -= 3 {
+		s = s[:i] + "," + s[i:]
+	}
+	return s
+}
+
+// basisPair reads "340 / 120 positives" (reference / comparison), or ""
+// without counts.
+func basisPair(metric string, ref, cmp int) string {
+	if ref <= 0 || cmp <= 0 {
+		return ""
+	}
+	f, _ := metrics.FactOf(metric)
+	noun := "records"
+	if f.Name != "" {
+		noun = f.BasisNoun()
+	}
+	return fmt.Sprintf("%s / %s %s", thousandsText(ref), thousandsText(cmp), noun)
+}
+
+// labelWords says how label words were read, ` (positive "died", 0
+// "alive")`, or "" when the labels were 0/1.
+func labelWords(v *fairness.LabelValues) string {
+	if v == nil {
+		return ""
+	}
+	if v.Negative == "" {
+		return fmt.Sprintf(" (positive %q, no other value)", v.Positive)
+	}
+	return fmt.Sprintf(" (positive %q, other %q)", v.Positive, v.Negative)
+}
