@@ -118,6 +118,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		Groups:      groups,
 		Label:       spec.Label,
 		LabelValues: d.LabelValues,
+		ModelInputs: modelInputs(spec),
 		Score:       spec.Score,
 		Threshold:   spec.Threshold,
 		Seed:        spec.Seed,

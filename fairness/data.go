@@ -27,6 +27,10 @@ type Dataset struct {
 	Path    string
 	SHA256  string   // hex SHA-256 of the file's bytes
 	Columns []Column // every graph column, in order of first appearance in the graph
+	// Outside holds the declared model inputs in no graph node
+	// (Spec.OutsideInputs), for description only: a missing value is NaN
+	// there and drops no row.
+	Outside []Column
 
 	Labels     []float64 // 0/1 per kept row
 	Scores     []float64 // in [0, 1] per kept row
@@ -124,6 +128,7 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 			d.Columns[j].Levels, d.Columns[j].Values = codeLevels(l.raw[j])
 		}
 	}
+	d.Columns, d.Outside = d.Columns[:l.nGraph], d.Columns[l.nGraph:]
 	d.LabelValues = l.labels.values()
 	d.Excluded = l.excluded.list(spec.Groups.Reference, spec.Groups.Comparison)
 	d.ExcludedRows, d.MissingGroupRows = l.excluded.total(), l.excluded.missingRows
@@ -142,7 +147,8 @@ type csvLoader struct {
 	named                        int      // fields up to the last named one
 	header                       []string // trimmed names; "" for unnamed fields
 	groupIdx, labelIdx, scoreIdx int      // their fields
-	names                        []string // graph columns (Spec.Columns)
+	names                        []string // graph columns (Spec.Columns), then Spec.OutsideInputs
+	nGraph                       int      // how many of names are graph columns
 	colIdx                       []int    // field of each graph column
 	categorical                  map[string]bool
 
@@ -220,6 +226,8 @@ func (l *csvLoader) readHeader() error {
 func (l *csvLoader) locateColumns(pos map[string]int) error {
 	spec := l.spec
 	l.names = spec.Columns()
+	l.nGraph = len(l.names)
+	l.names = append(l.names, spec.OutsideInputs()...)
 	wanted := append([]string{spec.Groups.Column, spec.Label, spec.Score}, l.names...)
 	idx := make([]int, len(wanted))
 	for k, col := range wanted {
@@ -404,6 +412,10 @@ func (l *csvLoader) parseColumns(r *csvRow, label, score float64) error {
 			}
 			continue
 		}
+		if j >= l.nGraph && isMissing(r.cell(i)) { // outside the graph: described, never dropped
+			l.rowVals[j], l.rowRaw[j] = math.NaN(), ""
+			continue
+		}
 		m, err := r.missing(i, c)
 		if err != nil {
 			return err
@@ -507,11 +519,12 @@ func parseNumber(cell string) (float64, error) {
 }
 
 // codeLevels returns the sorted distinct values of cells and each cell's
-// index among them.
+// index among them; an empty cell (a missing value of a column outside the
+// graph) is no level and gets the code NaN.
 func codeLevels(cells []string) (levels []string, codes []float64) {
 	index := map[string]int{}
 	for _, c := range cells {
-		if _, ok := index[c]; !ok {
+		if _, ok := index[c]; !ok && c != "" {
 			index[c] = 0
 			levels = append(levels, c)
 		}
@@ -523,6 +536,9 @@ func codeLevels(cells []string) (levels []string, codes []float64) {
 	codes = make([]float64, len(cells))
 	for i, c := range cells {
 		codes[i] = float64(index[c])
+		if c == "" {
+			codes[i] = math.NaN()
+		}
 	}
 	return levels, codes
 }

@@ -64,6 +64,7 @@ func TestReadDataValid(t *testing.T) {
 		Comparison: []bool{false, true, false, true, true},
 		Lines:      []int{2, 4, 5, 6, 7},
 		Excluded:   []ExcludedValue{{Value: "east", Rows: 1}},
+		Outside:    []Column{},
 
 		ExcludedRows: 1,
 	}

@@ -18,7 +18,7 @@ type Details struct {
 	Bins       int             `json:"bins"`
 	Reference  GroupDetails    `json:"reference"`
 	Comparison GroupDetails    `json:"comparison"`
-	Columns    []ColumnDetails `json:"columns"` // in the Dataset's column order
+	Columns    []ColumnDetails `json:"columns"` // in the Dataset's column order, then its Outside columns
 }
 
 // GroupDetails describes one group's records.
@@ -79,17 +79,20 @@ type ReliabilityBin struct {
 // undefined. |d| > 0.1 is a common practice flag for an imbalance worth a
 // look (Austin 2009, Statistics in Medicine 28:3083; cited from memory).
 type ColumnDetails struct {
-	Name        string    `json:"name"`
-	Categorical bool      `json:"categorical"`
-	Edges       []float64 `json:"edges,omitempty"`
-	Levels      []string  `json:"levels,omitempty"`
-	Reference   []float64 `json:"reference"`
-	Comparison  []float64 `json:"comparison"`
-	MeanRef     float64   `json:"mean_reference,omitempty"`  // numeric only
-	MeanCmp     float64   `json:"mean_comparison,omitempty"` // numeric only
-	SDRef       float64   `json:"sd_reference,omitempty"`    // numeric only
-	SDCmp       float64   `json:"sd_comparison,omitempty"`   // numeric only
-	StdDiff     *float64  `json:"std_diff,omitempty"`
+	Name        string `json:"name"`
+	Categorical bool   `json:"categorical"`
+	// OutsideGraph marks a declared model input in no graph node
+	// (Dataset.Outside); its missing values are left out of its shares.
+	OutsideGraph bool      `json:"outside_graph,omitempty"`
+	Edges        []float64 `json:"edges,omitempty"`
+	Levels       []string  `json:"levels,omitempty"`
+	Reference    []float64 `json:"reference"`
+	Comparison   []float64 `json:"comparison"`
+	MeanRef      float64   `json:"mean_reference,omitempty"`  // numeric only
+	MeanCmp      float64   `json:"mean_comparison,omitempty"` // numeric only
+	SDRef        float64   `json:"sd_reference,omitempty"`    // numeric only
+	SDCmp        float64   `json:"sd_comparison,omitempty"`   // numeric only
+	StdDiff      *float64  `json:"std_diff,omitempty"`
 	// Outlying counts the values of a numeric column, over both groups,
 	// outside its typical range (classify.TypicalRange of the pooled
 	// values), which the logistic learners treat as the range's nearer
@@ -115,7 +118,7 @@ func Describe(ds *Dataset, threshold float64, bins int) *Details {
 	if len(ds.Labels) != n || len(ds.Scores) != n {
 		panic("fairness: Describe: Labels, Scores and Comparison differ in length")
 	}
-	for _, c := range ds.Columns {
+	for _, c := range append(append([]Column(nil), ds.Columns...), ds.Outside...) {
 		if len(c.Values) != n {
 			panic("fairness: Describe: column " + c.Name + " has the wrong length")
 		}
@@ -124,21 +127,33 @@ func Describe(ds *Dataset, threshold float64, bins int) *Details {
 	d.Reference = describeGroup(ds, false, threshold, bins)
 	d.Comparison = describeGroup(ds, true, threshold, bins)
 	for _, c := range ds.Columns {
-		var ref, cmp []float64
-		for i, v := range c.Values {
-			if ds.Comparison[i] {
-				cmp = append(cmp, v)
-			} else {
-				ref = append(ref, v)
-			}
-		}
-		if c.Categorical {
-			d.Columns = append(d.Columns, describeCategorical(c.Name, c.Levels, ref, cmp))
-		} else {
-			d.Columns = append(d.Columns, describeNumeric(c.Name, ref, cmp, bins))
-		}
+		d.Columns = append(d.Columns, describeColumn(ds, c, bins))
+	}
+	for _, c := range ds.Outside {
+		cd := describeColumn(ds, c, bins)
+		cd.OutsideGraph = true
+		d.Columns = append(d.Columns, cd)
 	}
 	return d
+}
+
+// describeColumn splits column c by group, leaving out missing values
+// (NaN, only in columns outside the graph), and describes it.
+func describeColumn(ds *Dataset, c Column, bins int) ColumnDetails {
+	var ref, cmp []float64
+	for i, v := range c.Values {
+		switch {
+		case math.IsNaN(v):
+		case ds.Comparison[i]:
+			cmp = append(cmp, v)
+		default:
+			ref = append(ref, v)
+		}
+	}
+	if c.Categorical {
+		return describeCategorical(c.Name, c.Levels, ref, cmp)
+	}
+	return describeNumeric(c.Name, ref, cmp, bins)
 }
 
 // describeGroup returns the confusion counts, event count and reliability

@@ -2,6 +2,7 @@ package fairness
 
 import (
 	"fmt"
+	"slices"
 	"strings"
 )
 
@@ -80,8 +81,28 @@ func validateGraph(s *Spec) error {
 			return specErr(f, s.catLines[i], key, ErrBadValue, "column %q is listed twice", c)
 		case c == s.Label || c == s.Score:
 			return specErr(f, s.catLines[i], key, ErrBadValue, "column %q is the label or score and cannot be categorical", c)
-		case owner[c] == "":
-			return specErr(f, s.catLines[i], key, ErrBadValue, "column %q is not a column of any graph node", c)
+		case owner[c] == "" && !slices.Contains(s.OutsideInputs(), c):
+			return specErr(f, s.catLines[i], key, ErrBadValue, "column %q is not a column of any graph node (nor a model input outside the graph)", c)
+		}
+		seen[c] = true
+	}
+	return validateInputs(s)
+}
+
+// validateInputs checks model_inputs: each column once, and neither the
+// label (a model that reads the outcome is not a screening model) nor the
+// score (the model's output).
+func validateInputs(s *Spec) error {
+	seen := map[string]bool{}
+	for i, c := range s.ModelInputs {
+		key := fmt.Sprintf("model_inputs[%d]", i)
+		switch {
+		case seen[c]:
+			return specErr(s.File, s.inputLines[i], key, ErrBadValue, "column %q is listed twice", c)
+		case c == s.Label:
+			return specErr(s.File, s.inputLines[i], key, ErrBadValue, "column %q is the label; a model that reads the outcome cannot be audited", c)
+		case c == s.Score:
+			return specErr(s.File, s.inputLines[i], key, ErrBadValue, "column %q is the score, the model's output", c)
 		}
 		seen[c] = true
 	}

@@ -11,6 +11,7 @@ type PlanInfo struct {
 	Synthetic   bool
 	Label       string
 	LabelValues *LabelValues // nil unless the spec names the positive value
+	ModelInputs *ModelInputs // nil unless the spec declares model_inputs
 	Score       string
 	Threshold   float64
 	Groups      GroupInfo
@@ -59,7 +60,8 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 		Learners:    classify.NamesOf(learners),
 		Folds:       spec.Folds,
 	}
-	info.Warnings = dataWarnings(info.Groups)
+	info.ModelInputs = modelInputs(spec)
+	info.Warnings = append(dataWarnings(info.Groups), modelInputWarnings(info.ModelInputs, spec.Groups.Column, spec.Score, spec.ScoreIsNode(), nil)...)
 	for i, n := range spec.Graph {
 		info.Nodes = append(info.Nodes, PlanNode{
 			Node:      n.Node,

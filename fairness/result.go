@@ -14,8 +14,11 @@ type Result struct {
 	Label  string    `json:"label"`
 	// LabelValues, present when the spec names the positive label value,
 	// says which value was counted as the outcome and which as 0.
-	LabelValues *LabelValues      `json:"label_values,omitempty"`
-	Score       string            `json:"score"`
+	LabelValues *LabelValues `json:"label_values,omitempty"`
+	Score       string       `json:"score"`
+	// ModelInputs echoes the spec's model_inputs; absent when none are
+	// declared.
+	ModelInputs *ModelInputs      `json:"model_inputs,omitempty"`
 	Threshold   float64           `json:"threshold"`
 	Seed        uint64            `json:"seed"`
 	Settings    Settings          `json:"settings"`

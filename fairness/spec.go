@@ -39,6 +39,7 @@ import (
 //	seed: 1              # default 1
 //	missing: error       # or drop: drop rows with a missing value
 //	categorical: [sex]   # columns one-hot encoded, levels sorted
+//	model_inputs: [age, hb, bmi]  # the columns the model reads (checked against the graph)
 //	folds: 5             # cross-fitting folds, >= 2
 //	classifier: auto     # auto, linear, expanded or boosted
 //	ece_bins: 10         # >= 1
@@ -70,6 +71,10 @@ type Spec struct {
 	Seed        uint64
 	Missing     string // MissingError or MissingDrop
 	Categorical []string
+	// ModelInputs lists the columns the audited model reads, when the
+	// spec declares them; one in no graph node is warned about and
+	// described (Dataset.Outside).
+	ModelInputs []string
 	Folds       int
 	Classifier  string
 	ECEBins     int
@@ -89,8 +94,9 @@ type Spec struct {
 	Synthetic bool
 	Title     string
 
-	lines    map[string]int // line of each top-level key
-	catLines []int          // line of each categorical entry
+	lines      map[string]int // line of each top-level key
+	catLines   []int          // line of each categorical entry
+	inputLines []int          // line of each model_inputs entry
 }
 
 // GroupSpec names the group column and the two values compared.
@@ -212,6 +218,22 @@ func (s *Spec) Columns() []string {
 	return cols
 }
 
+// OutsideInputs lists the declared model inputs that are in no graph node
+// and are not the group column, in the order declared.
+func (s *Spec) OutsideInputs() []string {
+	inGraph := map[string]bool{s.Groups.Column: true}
+	for _, c := range s.Columns() {
+		inGraph[c] = true
+	}
+	var out []string
+	for _, c := range s.ModelInputs {
+		if !inGraph[c] {
+			out = append(out, c)
+		}
+	}
+	return out
+}
+
 // ScoreIsNode reports whether the score column is a node of the graph.
 func (s *Spec) ScoreIsNode() bool {
 	for _, c := range s.Columns() {
@@ -288,6 +310,8 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		s.Missing, err = p.oneOf(k.Value, v, MissingError, MissingDrop)
 	case "categorical":
 		s.Categorical, s.catLines, err = p.strs(k.Value, v)
+	case "model_inputs":
+		s.ModelInputs, s.inputLines, err = p.strs(k.Value, v)
 	case "folds":
 		err = p.decode(k.Value, v, &s.Folds, "an integer")
 		if err == nil && s.Folds < 2 {

@@ -46,6 +46,12 @@ const (
 	// KindSmallGroup: a group is too small for the fold count (caution)
 	// or smaller than the accuracy study's StudiedGroupSize (note).
 	KindSmallGroup WarningKind = "small_group"
+	// KindModelInputOutside (caution; note when the score is a node): a
+	// declared model input is in no graph node (modelInputWarnings).
+	KindModelInputOutside WarningKind = "model_input_outside_graph"
+	// KindModelReadsGroup (caution): the model reads the group column
+	// and the score is not a node.
+	KindModelReadsGroup WarningKind = "model_reads_group"
 	// KindPoorOverlap (unreliable): the out-of-fold AUC of a mechanism's
 	// group classifier is at least WarnAUC.
 	KindPoorOverlap WarningKind = "poor_overlap"

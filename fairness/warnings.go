@@ -43,7 +43,8 @@ const (
 
 // Warnings lists the problems a reader of r should know about, in a fixed
 // order: dropped rows and group values resembling a chosen one; metrics
-// resting on few records and small groups; then per mechanism in graph order its overlap (AUC,
+// resting on few records and small groups; model inputs outside the
+// graph; then per mechanism in graph order its overlap (AUC,
 // extreme ratios), effective sample size, heavy tail, largest weight
 // share, mean ratio overall and per stratum of the parents, and clipping;
 // then per side of estimation its worst hybrid; then per metric its
@@ -56,6 +57,7 @@ const (
 // severity are listed with the Kind… constants.
 func Warnings(r *Result) []Warning {
 	out := append(dataWarnings(r.Groups), sampleSizeWarnings(r)...)
+	out = append(out, modelInputWarnings(r.ModelInputs, r.Groups.Column, r.Score, scoreIsNode(r), r.Details)...)
 	for _, m := range r.Mechanisms {
 		out = append(out, mechanismWarnings(r, m)...)
 	}
@@ -69,6 +71,16 @@ func Warnings(r *Result) []Warning {
 			Message: fmt.Sprintf("%d of %d bootstrap replicates could not be computed (e.g. a metric without a value in a resample); the intervals rest on the rest", iv.Failed, iv.Replicates)})
 	}
 	return out
+}
+
+// scoreIsNode reports whether the score is a node of the result's graph.
+func scoreIsNode(r *Result) bool {
+	for _, m := range r.Mechanisms {
+		if m.Node == r.Score {
+			return true
+		}
+	}
+	return false
 }
 
 // lowESS reports whether an effective sample size ess out of n records is

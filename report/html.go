@@ -140,6 +140,7 @@ type reliabilityRow struct {
 type columnView struct {
 	Name, Node, Mechanism string
 	Kind                  string // "numeric" or "categorical"
+	OutsideGraph          bool   // a declared model input in no graph node
 	StdDiff               string
 	Imbalanced            bool
 	Bins                  []binRow
@@ -382,7 +383,7 @@ const stdDiffFlag = 0.1
 
 // column formats one column's distributions for its drill-down card.
 func column(res *fairness.Result, c fairness.ColumnDetails, node string) columnView {
-	v := columnView{Name: c.Name, Node: node, Kind: "numeric", StdDiff: "undefined"}
+	v := columnView{Name: c.Name, Node: node, Kind: "numeric", StdDiff: "undefined", OutsideGraph: c.OutsideGraph}
 	for _, m := range res.Mechanisms {
 		if m.Node == node {
 			v.Mechanism = m.Mechanism

@@ -40,6 +40,13 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	if s := excludedSentence(g); s != "" {
 		fmt.Fprintf(b, "  excluded    %s\n", pt(s))
 	}
+	if mi := p.ModelInputs; mi != nil {
+		outside := "all in the graph"
+		if len(mi.OutsideGraph) > 0 {
+			outside = "outside the graph: " + list(mi.OutsideGraph)
+		}
+		fmt.Fprintf(b, "  inputs      %s (%s)\n", list(mi.Declared), outside)
+	}
 	fmt.Fprintf(b, "  metrics     %s\n", list(p.Metrics))
 	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, seed %d\n", pt(p.Classifier), list(p.Learners), p.Folds, spec.Seed)
 	fmt.Fprintf(b, "  features    %d encoded columns\n", p.Features)
