@@ -127,6 +127,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			Classifier:  spec.Classifier,
 			ECEBins:     spec.ECEBins,
 			DropMissing: spec.DropMissing(),
+			Missing:     spec.Missing,
 			Learners:    classify.NamesOf(learners),
 
 			EstimateFrom: dec.Side.String(),
@@ -156,6 +157,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 	for _, md := range dec.Metrics {
 		mr := metricResult(md, dec.Mechanisms)
 		mr.RecordsReference, mr.RecordsComparison = metricBasis(spec, d, md.Metric)
+		mr.AllRecords = allRecords(spec, d.Complete, md.Metric)
 		r.Metrics = append(r.Metrics, mr)
 	}
 	for _, w := range dec.Weights {

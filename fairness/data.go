@@ -20,6 +20,10 @@ type Column struct {
 	Categorical bool
 	Values      []float64 // per kept row: the number, or for a categorical column the level's index in Levels
 	Levels      []string  // categorical only: the levels seen in kept rows, sorted
+	// Missing marks, with missing: indicator, the kept rows whose value of
+	// this numeric column was missing and filled (fillMissing); nil when
+	// none was. A categorical column has the level MissingLevel instead.
+	Missing []bool
 }
 
 // Dataset holds the records of the two audited groups.
@@ -46,6 +50,11 @@ type Dataset struct {
 	Excluded         []ExcludedValue
 	ExcludedRows     int
 	MissingGroupRows int
+
+	// Complete holds the label and score of every audited row that has
+	// both, dropped or not, when rows were dropped for missing values; nil
+	// otherwise.
+	Complete *Outcomes
 
 	// LabelValues is how label words were read (spec key positive); nil
 	// when the labels are 0/1 or true/false.
@@ -129,6 +138,14 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 		}
 	}
 	d.Columns, d.Outside = d.Columns[:l.nGraph], d.Columns[l.nGraph:]
+	if spec.IndicateMissing() {
+		if err := fillMissing(d); err != nil {
+			return nil, l.derr(0, err.column, err.err)
+		}
+	}
+	if d.DroppedReference+d.DroppedComparison > 0 {
+		d.Complete = &l.complete
+	}
 	d.LabelValues = l.labels.values()
 	d.Excluded = l.excluded.list(spec.Groups.Reference, spec.Groups.Comparison)
 	d.ExcludedRows, d.MissingGroupRows = l.excluded.total(), l.excluded.missingRows
@@ -159,6 +176,7 @@ type csvLoader struct {
 	rowRaw                 []string
 	excluded               excludedCounter // rows of other groups
 	labels                 labelCoder      // reads the label cells (spec key positive)
+	complete               Outcomes        // label and score of every audited row that has both
 }
 
 // derr builds the *DataError of a problem at line (0: none) and column.
@@ -281,9 +299,10 @@ func (l *csvLoader) readRows() error {
 // csvRow is one record being read: its fields, its line, and whether a
 // missing value drops it.
 type csvRow struct {
-	l       *csvLoader
-	rec     []string
-	dropped bool
+	l              *csvLoader
+	rec            []string
+	dropped        bool
+	outcomeMissing bool // the label or the score is missing
 }
 
 func (r *csvRow) cell(i int) string {
@@ -294,17 +313,24 @@ func (r *csvRow) cell(i int) string {
 }
 func (r *csvRow) at(i int) int { line, _ := r.l.cr.FieldPos(i); return line }
 
-// missing reports whether field i (column col) is missing; with missing:
-// drop it marks the row dropped, otherwise it is an error.
-func (r *csvRow) missing(i int, col string) (bool, error) {
+// missing reports whether field i (column col; outcome: the label or the
+// score) is missing. With missing: drop it marks the row dropped; with
+// missing: indicator only a missing outcome does (a graph column's value
+// is then filled and indicated); with missing: error it is an error.
+func (r *csvRow) missing(i int, col string, outcome bool) (bool, error) {
 	if !isMissing(r.cell(i)) {
 		return false, nil
 	}
-	if r.l.spec.DropMissing() {
+	r.outcomeMissing = r.outcomeMissing || outcome
+	spec := r.l.spec
+	if spec.DropMissing() || (spec.IndicateMissing() && outcome) {
 		r.dropped = true
 		return true, nil
 	}
-	return true, r.l.derr(r.at(i), col, wrapf(ErrMissingValue, "missing value %q (set missing: drop to drop such rows)", r.cell(i)))
+	if spec.IndicateMissing() {
+		return true, nil
+	}
+	return true, r.l.derr(r.at(i), col, wrapf(ErrMissingValue, "missing value %q (set missing: drop to drop such rows, or missing: indicator to keep them)", r.cell(i)))
 }
 
 // readRow checks one record's width and group, parses its label, score
@@ -321,7 +347,7 @@ func (l *csvLoader) readRow(rec []string) error {
 	g := r.cell(l.groupIdx)
 	isCmp := g == spec.Groups.Comparison
 	if isMissing(g) {
-		if !spec.DropMissing() {
+		if !spec.ToleratesMissing() {
 			return l.derr(r.at(l.groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %q (set missing: drop to skip such rows)", g))
 		}
 		l.excluded.missingRows++
@@ -342,6 +368,9 @@ func (l *csvLoader) readRow(rec []string) error {
 	}
 	if err := l.parseColumns(r, label, score); err != nil {
 		return err
+	}
+	if spec.DropMissing() && !r.outcomeMissing {
+		l.complete.add(label, score, isCmp)
 	}
 	if r.dropped {
 		if isCmp {
@@ -383,14 +412,14 @@ func (l *csvLoader) checkFields(rec []string) error {
 // parseOutcome parses the row's label and score (zero when missing).
 func (l *csvLoader) parseOutcome(r *csvRow) (label, score float64, err error) {
 	spec := l.spec
-	if m, err := r.missing(l.labelIdx, spec.Label); err != nil {
+	if m, err := r.missing(l.labelIdx, spec.Label, true); err != nil {
 		return 0, 0, err
 	} else if !m {
 		if label, err = l.labels.code(r.cell(l.labelIdx), r.at(l.labelIdx)); err != nil {
 			return 0, 0, l.derr(r.at(l.labelIdx), spec.Label, err)
 		}
 	}
-	if m, err := r.missing(l.scoreIdx, spec.Score); err != nil {
+	if m, err := r.missing(l.scoreIdx, spec.Score, true); err != nil {
 		return 0, 0, err
 	} else if !m {
 		if score, err = parseScore(r.cell(l.scoreIdx)); err != nil {
@@ -416,12 +445,15 @@ func (l *csvLoader) parseColumns(r *csvRow, label, score float64) error {
 			l.rowVals[j], l.rowRaw[j] = math.NaN(), ""
 			continue
 		}
-		m, err := r.missing(i, c)
+		m, err := r.missing(i, c, false)
 		if err != nil {
 			return err
 		}
 		switch {
+		case m && l.categorical[c]:
+			l.rowRaw[j] = MissingLevel // missing: indicator; dropped rows are not kept
 		case m:
+			l.rowVals[j] = math.NaN() // filled by fillMissing
 		case l.categorical[c]:
 			l.rowRaw[j] = r.cell(i)
 		default:

@@ -83,16 +83,21 @@ type ColumnDetails struct {
 	Categorical bool   `json:"categorical"`
 	// OutsideGraph marks a declared model input in no graph node
 	// (Dataset.Outside); its missing values are left out of its shares.
-	OutsideGraph bool      `json:"outside_graph,omitempty"`
-	Edges        []float64 `json:"edges,omitempty"`
-	Levels       []string  `json:"levels,omitempty"`
-	Reference    []float64 `json:"reference"`
-	Comparison   []float64 `json:"comparison"`
-	MeanRef      float64   `json:"mean_reference,omitempty"`  // numeric only
-	MeanCmp      float64   `json:"mean_comparison,omitempty"` // numeric only
-	SDRef        float64   `json:"sd_reference,omitempty"`    // numeric only
-	SDCmp        float64   `json:"sd_comparison,omitempty"`   // numeric only
-	StdDiff      *float64  `json:"std_diff,omitempty"`
+	OutsideGraph bool `json:"outside_graph,omitempty"`
+	// MissingReference and MissingComparison count each group's missing
+	// values, left out of the shares and means: those of a column outside
+	// the graph, or filled ones (missing: indicator).
+	MissingReference  int       `json:"missing_reference,omitempty"`
+	MissingComparison int       `json:"missing_comparison,omitempty"`
+	Edges             []float64 `json:"edges,omitempty"`
+	Levels            []string  `json:"levels,omitempty"`
+	Reference         []float64 `json:"reference"`
+	Comparison        []float64 `json:"comparison"`
+	MeanRef           float64   `json:"mean_reference,omitempty"`  // numeric only
+	MeanCmp           float64   `json:"mean_comparison,omitempty"` // numeric only
+	SDRef             float64   `json:"sd_reference,omitempty"`    // numeric only
+	SDCmp             float64   `json:"sd_comparison,omitempty"`   // numeric only
+	StdDiff           *float64  `json:"std_diff,omitempty"`
 	// Outlying counts the values of a numeric column, over both groups,
 	// outside its typical range (classify.TypicalRange of the pooled
 	// values), which the logistic learners treat as the range's nearer
@@ -137,23 +142,33 @@ func Describe(ds *Dataset, threshold float64, bins int) *Details {
 	return d
 }
 
-// describeColumn splits column c by group, leaving out missing values
-// (NaN, only in columns outside the graph), and describes it.
+// describeColumn splits column c by group, leaving out and counting
+// missing values (NaN in columns outside the graph, Column.Missing in
+// filled ones), and describes it.
 func describeColumn(ds *Dataset, c Column, bins int) ColumnDetails {
 	var ref, cmp []float64
+	var missRef, missCmp int
 	for i, v := range c.Values {
+		missing := math.IsNaN(v) || (c.Missing != nil && c.Missing[i])
 		switch {
-		case math.IsNaN(v):
+		case missing && ds.Comparison[i]:
+			missCmp++
+		case missing:
+			missRef++
 		case ds.Comparison[i]:
 			cmp = append(cmp, v)
 		default:
 			ref = append(ref, v)
 		}
 	}
+	var cd ColumnDetails
 	if c.Categorical {
-		return describeCategorical(c.Name, c.Levels, ref, cmp)
+		cd = describeCategorical(c.Name, c.Levels, ref, cmp)
+	} else {
+		cd = describeNumeric(c.Name, ref, cmp, bins)
 	}
-	return describeNumeric(c.Name, ref, cmp, bins)
+	cd.MissingReference, cd.MissingComparison = missRef, missCmp
+	return cd
 }
 
 // describeGroup returns the confusion counts, event count and reliability

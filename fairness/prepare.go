@@ -83,7 +83,10 @@ func metricBasis(spec *Spec, d *Dataset, metric string) (ref, cmp int) {
 // encode builds the attribution sample and one mechanism per graph node.
 // The feature matrix X has one column per numeric graph column and one 0/1
 // column per level of a categorical column (x = [level = ℓ]), in the order
-// of Dataset.Columns. A mechanism's NodeCols are the feature columns of the
+// of Dataset.Columns; a numeric column with filled missing values
+// (missing: indicator) is followed by its 0/1 missingness indicator, which
+// thus belongs to the column's node and so to that node's mechanism.
+// A mechanism's NodeCols are the feature columns of the
 // node's data columns and its ParentCols those of its parents, in the order
 // the parents are listed.
 func encode(spec *Spec, d *Dataset) (*attribution.Sample, []attribution.Mechanism) {
@@ -94,6 +97,9 @@ func encode(spec *Spec, d *Dataset) (*attribution.Sample, []attribution.Mechanis
 		width := 1
 		if c.Categorical {
 			width = len(c.Levels)
+		}
+		if c.Missing != nil {
+			width++ // the missingness indicator, after the value
 		}
 		for k := 0; k < width; k++ {
 			cols[c.Name] = append(cols[c.Name], p+k)
@@ -108,6 +114,9 @@ func encode(spec *Spec, d *Dataset) (*attribution.Sample, []attribution.Mechanis
 				x.Set(i, idx[int(v)], 1)
 			} else {
 				x.Set(i, idx[0], v)
+			}
+			if c.Missing != nil && c.Missing[i] {
+				x.Set(i, idx[1], 1)
 			}
 		}
 	}

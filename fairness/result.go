@@ -52,11 +52,13 @@ type InputInfo struct {
 
 // Settings echoes the estimation settings that shaped the numbers.
 type Settings struct {
-	Folds       int      `json:"folds"`
-	Classifier  string   `json:"classifier"`
-	ECEBins     int      `json:"ece_bins"`
-	DropMissing bool     `json:"drop_missing"`
-	Learners    []string `json:"learners"`
+	Folds       int    `json:"folds"`
+	Classifier  string `json:"classifier"`
+	ECEBins     int    `json:"ece_bins"`
+	DropMissing bool   `json:"drop_missing"`
+	// Missing is the spec's missing setting: error, drop or indicator.
+	Missing  string   `json:"missing"`
+	Learners []string `json:"learners"`
 	// EstimateFrom names the records that estimate the hybrid metrics:
 	// reference, comparison or both (see attribution.Side).
 	EstimateFrom string `json:"estimate_from"`
@@ -115,6 +117,10 @@ type MetricResult struct {
 	// FPR, the positives for the FNR, ...).
 	RecordsReference  int `json:"records_reference"`
 	RecordsComparison int `json:"records_comparison"`
+	// AllRecords, present when rows were dropped for missing values, is
+	// the metric on every audited record whose label and score are
+	// present, dropped or not: the question before dropping.
+	AllRecords *AllRecords `json:"all_records,omitempty"`
 	// Intervals are present when the bootstrap ran.
 	ReferenceCI   *Interval      `json:"reference_ci,omitempty"`
 	ComparisonCI  *Interval      `json:"comparison_ci,omitempty"`

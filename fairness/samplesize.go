@@ -23,6 +23,12 @@ const (
 	// study measured the estimator (errors and interval coverage, see the
 	// README's Accuracy section); smaller groups get a note.
 	StudiedGroupSize = 800
+	// WarnDroppedGap and WarnDroppedZ: the shares of rows dropped for
+	// missing values differ between the groups by at least this much and
+	// by at least this many standard errors (z = 3: about 1 false alarm in
+	// 370 when the shares are equal; common practice).
+	WarnDroppedGap = 0.02
+	WarnDroppedZ   = 3
 )
 
 // sampleSizeWarnings reports, per metric and group, a metric resting on

@@ -37,7 +37,7 @@ import (
 //	    columns: [m1, m2]
 //	    parents: [dx]
 //	seed: 1              # default 1
-//	missing: error       # or drop: drop rows with a missing value
+//	missing: error       # or drop: drop rows with a missing value; or indicator: keep them, with a missingness indicator per column
 //	categorical: [sex]   # columns one-hot encoded, levels sorted
 //	model_inputs: [age, hb, bmi]  # the columns the model reads (checked against the graph)
 //	folds: 5             # cross-fitting folds, >= 2
@@ -69,7 +69,7 @@ type Spec struct {
 	Graph     []NodeSpec
 
 	Seed        uint64
-	Missing     string // MissingError or MissingDrop
+	Missing     string // MissingError, MissingDrop or MissingIndicator
 	Categorical []string
 	// ModelInputs lists the columns the audited model reads, when the
 	// spec declares them; one in no graph node is warned about and
@@ -126,8 +126,9 @@ type NodeSpec struct {
 
 // Values of Spec.Missing.
 const (
-	MissingError = "error"
-	MissingDrop  = "drop"
+	MissingError     = "error"
+	MissingDrop      = "drop"
+	MissingIndicator = "indicator"
 )
 
 // Values of Spec.Classifier: the learner names of package classify.
@@ -208,6 +209,13 @@ func (s *Spec) KeyLine(key string) int { return s.lines[key] }
 
 // DropMissing reports whether rows with missing values are dropped.
 func (s *Spec) DropMissing() bool { return s.Missing == MissingDrop }
+
+// IndicateMissing reports whether missing values of graph columns are
+// kept with a missingness indicator (missing: indicator).
+func (s *Spec) IndicateMissing() bool { return s.Missing == MissingIndicator }
+
+// ToleratesMissing reports whether a missing value is not an error.
+func (s *Spec) ToleratesMissing() bool { return s.Missing != MissingError }
 
 // Columns lists every graph column in order of first appearance.
 func (s *Spec) Columns() []string {
@@ -307,7 +315,7 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 	case "seed":
 		err = p.decode(k.Value, v, &s.Seed, "a non-negative integer")
 	case "missing":
-		s.Missing, err = p.oneOf(k.Value, v, MissingError, MissingDrop)
+		s.Missing, err = p.oneOf(k.Value, v, MissingError, MissingDrop, MissingIndicator)
 	case "categorical":
 		s.Categorical, s.catLines, err = p.strs(k.Value, v)
 	case "model_inputs":

@@ -33,7 +33,9 @@ type WarningKind string
 // The kinds of warning, in the order Warnings emits them. The severity of
 // each is fixed except for KindHeavyTail.
 const (
-	// KindRowsDropped (note): rows were dropped for missing values.
+	// KindRowsDropped (note; caution when the groups' dropped shares
+	// differ beyond chance, droppedWarnings): rows were dropped for
+	// missing values.
 	KindRowsDropped WarningKind = "rows_dropped"
 	// KindGroupValueNearMiss (caution): rows were excluded whose group
 	// value differs from the reference or comparison value only in letter

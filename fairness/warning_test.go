@@ -22,7 +22,11 @@ func TestWarningFields(t *testing.T) {
 		want   Warning // Message holds a substring of the sentence
 	}{
 		{"rows dropped", func(r *Result) { r.Groups.DroppedComparison = 4 },
-			Warning{KindRowsDropped, SeverityNote, "", []string{}, `4 rows of group "south" were dropped`}},
+			Warning{KindRowsDropped, SeverityNote, "", []string{}, `4 rows of group "south" (<0.1%) were dropped`}},
+		// 10% against 2% of 1,000 rows each: z = 0.08/√(0.06·0.94·0.002) = 7.5 (by hand).
+		{"rows dropped unevenly", func(r *Result) {
+			r.Groups.NReference, r.Groups.DroppedReference, r.Groups.NComparison, r.Groups.DroppedComparison = 900, 100, 980, 20
+		}, Warning{KindRowsDropped, SeverityCaution, "", []string{}, "(z = -7.5)"}},
 		{"poor overlap", func(r *Result) { r.Mechanisms[0].AUC = 0.97 },
 			Warning{KindPoorOverlap, SeverityUnreliable, "", []string{"hb"}, "nearly separable on `hb | age`"}},
 		{"extreme weights", func(r *Result) { r.Mechanisms[0].ExtremeShare = 0.05 },

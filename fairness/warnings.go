@@ -203,14 +203,34 @@ func dataWarnings(g GroupInfo) []Warning {
 	return append(droppedWarnings(g), excludedWarnings(g)...)
 }
 
-// droppedWarnings reports rows dropped for missing values; never nil.
+// droppedWarnings reports rows dropped for missing values; never nil. It
+// is a caution when the shares dropped differ between the groups by at
+// least WarnDroppedGap and by more than sampling explains (two-proportion
+// |z| ≥ WarnDroppedZ, missingShares): dropping then changes the two
+// groups' case mix unequally, so the audit answers a different question
+// (compare each metric's all_records gap).
 func droppedWarnings(g GroupInfo) []Warning {
 	if g.DroppedReference == 0 && g.DroppedComparison == 0 {
 		return []Warning{}
 	}
-	return []Warning{{Kind: KindRowsDropped, Severity: SeverityNote, Nodes: []string{},
-		Message: fmt.Sprintf("%s rows of group %q and %s rows of group %q were dropped for missing values; the audit describes the remaining records only",
-			thousands(g.DroppedReference), g.Reference, thousands(g.DroppedComparison), g.Comparison)}}
+	ref, cmp, z := missingShares(g)
+	w := Warning{Kind: KindRowsDropped, Severity: SeverityNote, Nodes: []string{},
+		Message: fmt.Sprintf("%s rows of group %q (%s) and %s rows of group %q (%s) were dropped for missing values; the audit describes the remaining records only",
+			thousands(g.DroppedReference), g.Reference, share(ref), thousands(g.DroppedComparison), g.Comparison, share(cmp))}
+	if math.Abs(cmp-ref) >= WarnDroppedGap && math.Abs(z) >= WarnDroppedZ {
+		w.Severity = SeverityCaution
+		w.Message += fmt.Sprintf(". The shares differ by more than chance explains (z = %.1f): dropping changes the groups unequally; compare the gap on all records with label and score (all_records), or use missing: indicator", z)
+	}
+	return []Warning{w}
+}
+
+// share formats a share as a percentage with one decimal, "<0.1%" for a
+// positive share below 0.05%.
+func share(p float64) string {
+	if p > 0 && p < 0.0005 {
+		return "<0.1%"
+	}
+	return fmt.Sprintf("%.1f%%", 100*p)
 }
 
 // thousands formats n with a comma between groups of three digits.

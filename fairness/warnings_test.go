@@ -40,7 +40,8 @@ func TestWarnings(t *testing.T) {
 		want   []string // substrings, one per expected warning, in order
 	}{
 		{"none", func(r *Result) {}, nil},
-		{"dropped", func(r *Result) { r.Groups.DroppedReference, r.Groups.DroppedComparison = 1200, 3 }, []string{`1,200 rows of group "north" and 3 rows of group "south" were dropped`}},
+		{"dropped", func(r *Result) { r.Groups.DroppedReference, r.Groups.DroppedComparison = 1200, 3 }, []string{`1,200 rows of group "north" (9.1%) and 3 rows of group "south" (<0.1%) were dropped for missing values; the audit describes the remaining records only. The shares differ by more than chance explains (z = -29.3)`}},
+		{"dropped evenly", func(r *Result) { r.Groups.DroppedReference, r.Groups.DroppedComparison = 600, 450 }, []string{`600 rows of group "north" (4.8%) and 450 rows of group "south" (4.8%) were dropped`}},
 		{"ess share", func(r *Result) { r.Mechanisms[0].ESS = 1199 }, []string{"the contribution of `age` rests on 1,199 effective records out of 12,000; treat it as unreliable"}},
 		{"ess floor", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 99.6 }, []string{`group "north" has 500 records, fewer than the 800 per group`, "rests on 100 effective records out of 500"}},
 		{"ess fine", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 100 }, []string{`group "north" has 500 records`}},

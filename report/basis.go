@@ -60,3 +60,36 @@ func labelWords(v *fairness.LabelValues) string {
 	}
 	return fmt.Sprintf(" (positive %q, other %q)", v.Positive, v.Negative)
 }
+
+// missingSetting says how missing values were handled.
+func missingSetting(s fairness.Settings) string {
+	switch s.Missing {
+	case "drop":
+		return "rows dropped"
+	case "indicator":
+		return "kept, with a missingness indicator per column"
+	case "error":
+		return "an error"
+	}
+	if s.DropMissing { // results written before the missing field
+		return "rows dropped"
+	}
+	return "an error"
+}
+
+// allRecordsText reads "before dropping rows: +5.0 pts", the gap on every
+// record with label and score when rows were dropped, or "".
+func allRecordsText(m fairness.MetricResult) string {
+	if m.AllRecords == nil {
+		return ""
+	}
+	return "before dropping rows: " + formatDelta(m.Metric, m.AllRecords.Gap)
+}
+
+// allRecordsSuffix is allRecordsText in parentheses after a gap, or "".
+func allRecordsSuffix(m fairness.MetricResult) string {
+	if s := allRecordsText(m); s != "" {
+		return " (" + s + ")"
+	}
+	return ""
+}

@@ -101,6 +101,7 @@ type metricView struct {
 	ReferenceCI, ComparisonCI, GapCI string
 	Estimated, Residual              string
 	Basis                            string // records each group's value rests on (basisPair)
+	AllRecords                       string // the gap before rows were dropped (allRecordsText), or ""
 	Rows                             []contributionRow
 	Selected                         bool
 	TopNodes                         []string
@@ -198,7 +199,7 @@ func newPage(res *fairness.Result) (*page, error) {
 			Gap: formatDelta(m.Metric, m.Gap), ReferenceCI: formatValueInterval(m.Metric, m.ReferenceCI),
 			ComparisonCI: formatValueInterval(m.Metric, m.ComparisonCI), GapCI: formatGapInterval(m),
 			Estimated: formatDelta(m.Metric, m.Estimated), Residual: formatDelta(m.Metric, m.Residual),
-			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison)}
+			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m)}
 		for _, c := range m.Contributions {
 			dir := "zero"
 			switch {
@@ -272,7 +273,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		{"Seed", fmt.Sprint(res.Seed)}, {"Decision threshold", p.Threshold},
 		{"Cross-fitting folds", fmt.Sprint(res.Settings.Folds)}, {"Classifier setting", res.Settings.Classifier},
 		{"Candidate learners", strings.Join(res.Settings.Learners, ", ")},
-		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Rows with missing values dropped", fmt.Sprint(res.Settings.DropMissing)},
+		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Missing values", missingSetting(res.Settings)},
 		{"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},
 		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", p.IntervalSetting},
 	}

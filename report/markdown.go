@@ -78,7 +78,7 @@ func mdGroupTable(p mdPrinter, res *fairness.Result) {
 		p("| %s | %s | %s | %s | %s |\n", mdText(MetricTitle(m.Metric)),
 			withInterval(formatValue(m.Metric, m.Reference), formatValueInterval(m.Metric, m.ReferenceCI)),
 			withInterval(formatValue(m.Metric, m.Comparison), formatValueInterval(m.Metric, m.ComparisonCI)),
-			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m)),
+			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m))+mdText(allRecordsSuffix(m)),
 			mdText(basisPair(m.Metric, m.RecordsReference, m.RecordsComparison)))
 	}
 	p("\n")

@@ -74,6 +74,9 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	vals.add("reference", fixed(m.Reference), interval(m.ReferenceCI, fixed), basis(m.Metric, m.RecordsReference))
 	vals.add("comparison", fixed(m.Comparison), interval(m.ComparisonCI, fixed), basis(m.Metric, m.RecordsComparison))
 	vals.add("gap (comparison - reference)", signed(m.Gap), interval(m.GapCI, signed), "")
+	if a := m.AllRecords; a != nil {
+		vals.add("gap before dropping rows", signed(a.Gap), "", fmt.Sprintf("%s / %s records", thousandsText(a.NReference), thousandsText(a.NComparison)))
+	}
 	vals.dropEmpty()
 	vals.write(t.w, "  ")
 	t.line("")
@@ -176,7 +179,7 @@ func (t *textWriter) inputs(res *fairness.Result) {
 	if iv := intervalSetting(res); iv != "" {
 		tab.add("intervals", iv)
 	}
-	tab.add("missing values", map[bool]string{true: "rows dropped", false: "an error"}[s.DropMissing])
+	tab.add("missing values", missingSetting(s))
 	t.line("Inputs and settings")
 	tab.write(t.w, "  ")
 }
