@@ -131,4 +131,7 @@ type LearnerLoss struct {
 	// OddsCheck is (n_ref/n_cmp) times the mean out-of-fold odds of the
 	// comparison group over the reference records; ≈ 1 when calibrated.
 	OddsCheck float64
+	// MaxShare is the largest share one reference record holds in the sum
+	// of the out-of-fold odds (see PassesChecks).
+	MaxShare float64
 }

@@ -204,7 +204,7 @@ func mechanismResult(m attribution.MechanismReport, columns []string, nRef int) 
 		mr.ESSShare = m.ESS / float64(nRef)
 	}
 	for _, l := range m.Losses {
-		mr.Losses = append(mr.Losses, LearnerLoss{Classifier: l.Learner, LogLoss: l.LogLoss, OddsCheck: l.OddsCheck})
+		mr.Losses = append(mr.Losses, LearnerLoss{Classifier: l.Learner, LogLoss: l.LogLoss, OddsCheck: l.OddsCheck, MaxShare: l.MaxShare})
 	}
 	return mr
 }

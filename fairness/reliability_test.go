@@ -19,12 +19,19 @@ func TestSetReliability(t *testing.T) {
 		{Kind: KindWorstHybrid, Severity: SeverityUnreliable, Nodes: []string{"age", "hb"}},
 		{Kind: KindLargeResidual, Severity: SeverityCaution, Metric: "fnr", Nodes: []string{}, Message: "`age`"},
 		{Kind: KindRatiosClipped, Severity: SeverityCaution, Nodes: []string{"age"}},
+		{Kind: KindNotEstimable, Severity: SeverityUnreliable, Nodes: []string{"hb"}, Message: "hb: no overlap"},
 	}
+	r.Metrics = []MetricResult{{Metric: "fnr", Contributions: []Contribution{{Node: "age"}, {Node: "hb"}, {Node: "bmi"}}}}
 	setReliability(r)
+	for _, c := range r.Metrics[0].Contributions {
+		if c.NotEstimable != (c.Node == "hb") {
+			t.Errorf("%s: not estimable %v", c.Node, c.NotEstimable)
+		}
+	}
 	want := []Reliability{
-		{Verdict: SeverityUnreliable, Kinds: []WarningKind{KindWorstHybrid, KindRatiosClipped}},
-		{Verdict: SeverityUnreliable, Kinds: []WarningKind{KindDominantRecord, KindHeavyTail, KindWorstHybrid}},
-		{Verdict: VerdictSound, Kinds: []WarningKind{}},
+		{Verdict: SeverityUnreliable, Kinds: []WarningKind{KindWorstHybrid, KindRatiosClipped}, Estimable: true},
+		{Verdict: SeverityUnreliable, Kinds: []WarningKind{KindDominantRecord, KindHeavyTail, KindWorstHybrid, KindNotEstimable}, NotEstimable: "hb: no overlap"},
+		{Verdict: VerdictSound, Kinds: []WarningKind{}, Estimable: true},
 	}
 	for i, m := range r.Mechanisms {
 		if !reflect.DeepEqual(m.Reliability, want[i]) {

@@ -139,6 +139,10 @@ type Contribution struct {
 	// StdError is the Monte Carlo standard error of Value when Shapley
 	// values were sampled (more mechanisms than exact_limit).
 	StdError *float64 `json:"std_error,omitempty"`
+	// NotEstimable marks a contribution the data cannot estimate (its
+	// mechanism's reliability.estimable is false): Value and the interval
+	// are kept for completeness, but reports show no value.
+	NotEstimable bool `json:"not_estimable,omitempty"`
 	// Alone is the change in the metric if only this mechanism took the
 	// comparison group's form: v({i}).
 	Alone float64 `json:"alone"`
@@ -222,6 +226,10 @@ type LearnerLoss struct {
 	// OddsCheck is n_ref/n_cmp times the mean out-of-fold odds of the
 	// comparison group over the reference records; ≈ 1 when calibrated.
 	OddsCheck float64 `json:"odds_check"`
+	// MaxShare is the largest share one reference record holds in the sum
+	// of the learner's out-of-fold odds; a learner passes its self-checks
+	// when the odds check is within a factor 1.25 of 1 and MaxShare ≤ 0.5.
+	MaxShare float64 `json:"max_share"`
 }
 
 // Interval is a percentile bootstrap interval.

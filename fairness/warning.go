@@ -54,6 +54,13 @@ const (
 	// KindModelReadsGroup (caution): the model reads the group column
 	// and the score is not a node.
 	KindModelReadsGroup WarningKind = "model_reads_group"
+	// KindNotEstimable (unreliable): a mechanism's contribution cannot be
+	// estimated from the data (estimability); it replaces the overlap and
+	// effective-records warnings of the same cause.
+	KindNotEstimable WarningKind = "not_estimable"
+	// KindLearnerChecks (unreliable): the learner chosen for a mechanism
+	// fails its self-checks (learnerWarning).
+	KindLearnerChecks WarningKind = "learner_checks_failed"
 	// KindPoorOverlap (unreliable): the out-of-fold AUC of a mechanism's
 	// group classifier is at least WarnAUC.
 	KindPoorOverlap WarningKind = "poor_overlap"

@@ -97,13 +97,20 @@ func mechanismWarnings(r *Result, m MechanismResult) []Warning {
 		out = append(out, Warning{Kind: kind, Severity: sev, Nodes: []string{m.Node}, Message: fmt.Sprintf(format, args...)})
 	}
 	side := r.Settings.EstimateFrom
-	if m.AUC >= WarnAUC {
+	reason := estimability(r, m)
+	if reason != "" {
+		out = append(out, notEstimableWarning(m, reason))
+	}
+	if w, ok := learnerWarning(r, m); ok {
+		out = append(out, w)
+	}
+	if m.AUC >= WarnAUC && m.AUC < NotEstimableAUC {
 		add(KindPoorOverlap, SeverityUnreliable, "the groups are nearly separable on `%s` (out-of-fold AUC %.3f): overlap is poor, so its contribution is unreliable", m.Mechanism, m.AUC)
 	}
 	if msg := extremeWarning(m, side); msg != "" {
 		add(KindExtremeWeights, SeverityCaution, "%s", msg)
 	}
-	if msg := essWarning(r, m); msg != "" {
+	if msg := essWarning(r, m); msg != "" && reason == "" {
 		add(KindLowEffectiveRecords, SeverityUnreliable, "%s", msg)
 	}
 	if msg, sev := tailWarning(m, side); msg != "" {

@@ -83,10 +83,35 @@ func TestWarnings(t *testing.T) {
 			r.Settings.EstimateFrom = "both"
 			r.Mechanisms[0].ESS, r.Mechanisms[0].ComparisonESS = 5, 60
 		}, []string{"rests on 5 effective reference records out of 12,000 and 60 comparison records out of 9,000"}},
+		{"not estimable auc", func(r *Result) { r.Mechanisms[0].AUC = 0.995 }, []string{"the contribution of `age` is not estimable here: the groups' records barely overlap on `age` (out-of-fold AUC 0.995"}},
+		{"not estimable ess", func(r *Result) { r.Mechanisms[0].ESS = 12 }, []string{"the contribution of `age` is not estimable here: its weights rest on 12 effective records"}},
+		{"not estimable both", func(r *Result) {
+			r.Settings.EstimateFrom = "both"
+			r.Mechanisms[0].ESS, r.Mechanisms[0].ComparisonESS = 5, 15
+		}, []string{"its weights rest on 5 effective reference and 15 comparison records"}},
+		{"estimable on one side", func(r *Result) {
+			r.Settings.EstimateFrom = "both"
+			r.Mechanisms[0].ESS, r.Mechanisms[0].ComparisonESS = 5, 3000
+		}, nil},
+		{"learner fails auto", func(r *Result) {
+			r.Settings.Classifier = "auto"
+			r.Mechanisms[0].Classifier = "linear"
+			r.Mechanisms[0].Losses = []LearnerLoss{{Classifier: "linear", LogLoss: 0.6, OddsCheck: 1400, MaxShare: 0.97}, {Classifier: "boosted", LogLoss: 0.5, OddsCheck: 2, MaxShare: 0.9}}
+		}, []string{"no candidate learner passed the self-checks for `age`; the least bad, linear, was used: mean odds check 1400.00"}},
+		{"learner fails fixed", func(r *Result) {
+			r.Settings.Classifier = "expanded"
+			r.Mechanisms[0].Classifier = "expanded"
+			r.Mechanisms[0].Losses = []LearnerLoss{{Classifier: "expanded", LogLoss: 0.6, OddsCheck: 1.0, MaxShare: 0.6}}
+		}, []string{"the learner expanded set by the spec's classifier key fails the self-checks for `age`: mean odds check 1.00 (sound within a factor 1.25 of 1), largest single-record share 60.0%"}},
+		{"learner passes", func(r *Result) {
+			r.Settings.Classifier = "expanded"
+			r.Mechanisms[0].Classifier = "expanded"
+			r.Mechanisms[0].Losses = []LearnerLoss{{Classifier: "expanded", LogLoss: 0.6, OddsCheck: 1.2, MaxShare: 0.5}}
+		}, nil},
 		{"order", func(r *Result) {
 			r.Groups.DroppedReference = 1
 			bad := healthy
-			bad.Node, bad.Mechanism, bad.AUC, bad.ESS, bad.ExtremeShare = "hb", "hb | dx", 0.99, 37, 0.2
+			bad.Node, bad.Mechanism, bad.AUC, bad.ESS, bad.ExtremeShare = "hb", "hb | dx", 0.97, 37, 0.2
 			r.Mechanisms = append(r.Mechanisms, bad)
 			r.Weights[0].Worst.ESS = 30
 			r.Metrics[0].Residual, r.Metrics[0].EffectiveRecords = 0.05, 30

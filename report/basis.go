@@ -93,3 +93,7 @@ func allRecordsSuffix(m fairness.MetricResult) string {
 	}
 	return ""
 }
+
+// notEstimable is what the reports print in place of a contribution the
+// data cannot estimate (fairness.Contribution.NotEstimable).
+const notEstimable = "not estimable"

@@ -40,3 +40,41 @@ func TestAllRecordsInEveryOutput(t *testing.T) {
 		}
 	}
 }
+
+// TestNotEstimableInEveryOutput: a contribution the data cannot estimate
+// shows no number in any output, stays out of the summary's headline and
+// of the demo's largest contribution, and the summary says so.
+func TestNotEstimableInEveryOutput(t *testing.T) {
+	res := handResult()
+	res.Metrics[0].Contributions[2].NotEstimable = true // hb, the largest: +6.1 pts [4.8, 7.3]
+	var text, md, page bytes.Buffer
+	if err := WriteText(&text, res); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteMarkdown(&md, res); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteHTML(&page, res); err != nil {
+		t.Fatal(err)
+	}
+	for name, out := range map[string]string{"text": text.String(), "markdown": md.String(), "html": page.String()} {
+		if !strings.Contains(out, "not estimable") {
+			t.Errorf("%s does not mark the contribution", name)
+		}
+	}
+	for name, bad := range map[string]bool{
+		"text value": strings.Contains(text.String(), "hb | anaemia                +0.0610"), "text interval": strings.Contains(text.String(), "+0.0480"),
+		"markdown value": strings.Contains(md.String(), "| +6.1 pts"), "markdown interval": strings.Contains(md.String(), "4.8, 7.3"),
+	} {
+		if bad {
+			t.Errorf("%s of a not-estimable contribution is printed", name)
+		}
+	}
+	s := Summary(res, res.Metrics[0])
+	if strings.Contains(s, "6.1 points") || !strings.Contains(s, "The data cannot estimate the contribution of") {
+		t.Errorf("summary: %s", s)
+	}
+	if c, ok := Largest(res.Metrics[0].Contributions); !ok || c.Node == "hb" {
+		t.Errorf("largest %+v", c)
+	}
+}

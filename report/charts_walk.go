@@ -17,7 +17,7 @@ import (
 // around End for totals or around Start + φ for contributions.
 type walkStep struct {
 	Label      string
-	Kind       string // "reference", "mechanism", "residual", "comparison"
+	Kind       string // "reference", "mechanism", "unestimable", "residual", "comparison"
 	Node       string // mechanism steps only
 	Start, End float64
 	Low, High  *float64
@@ -44,7 +44,9 @@ func walkSteps(res *fairness.Result, m fairness.MetricResult) []walkStep {
 	for _, i := range order {
 		c := m.Contributions[i]
 		s := walkStep{Label: c.Mechanism, Kind: "mechanism", Node: c.Node, Start: at, End: at + c.Value}
-		if c.CILow != nil && c.CIHigh != nil {
+		if c.NotEstimable {
+			s.Kind, s.Label = "unestimable", c.Mechanism+" (not estimable)"
+		} else if c.CILow != nil && c.CIHigh != nil {
 			lo, hi := at+*c.CILow, at+*c.CIHigh
 			s.Low, s.High = &lo, &hi
 		}
@@ -98,10 +100,13 @@ func walkChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			if amount < 0 {
 				colour = colourDown
 			}
-			if s.Kind == "residual" {
+			if s.Kind == "residual" || s.Kind == "unestimable" {
 				colour = colourResidual
 			}
 			tip := []string{s.Label, "contribution " + formatDelta(m.Metric, amount)}
+			if s.Kind == "unestimable" {
+				tip = []string{s.Label, "the data cannot estimate this contribution (see the warnings); the bar only keeps the walk adding up"}
+			}
 			if s.Low != nil {
 				tip = append(tip, intervalName(res)+" "+formatDeltaInterval(m.Metric, ptrFloat(*s.Low-s.Start), ptrFloat(*s.High-s.Start)))
 			}

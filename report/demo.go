@@ -52,10 +52,14 @@ func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
 		pt(filepath.Join(out.Dir, out.Report)), pt(filepath.Join(out.Dir, out.Spec)))
 }
 
-// Largest returns the contribution of largest magnitude (the first on ties).
+// Largest returns the estimable contribution of largest magnitude (the
+// first on ties); ok is false when there is none.
 func Largest(cs []fairness.Contribution) (fairness.Contribution, bool) {
 	best, ok := fairness.Contribution{}, false
 	for _, c := range cs {
+		if c.NotEstimable {
+			continue
+		}
 		if !ok || math.Abs(c.Value) > math.Abs(best.Value) {
 			best, ok = c, true
 		}

@@ -216,6 +216,9 @@ func newPage(res *fairness.Result) (*page, error) {
 			row := contributionRow{Node: c.Node, Mechanism: c.Mechanism, Value: formatDelta(m.Metric, c.Value),
 				CI: ci, Alone: formatDelta(m.Metric, c.Alone), IfEqualised: formatDelta(m.Metric, c.IfEqualised),
 				Direction: dir, Unreliable: flags[c.Node]}
+			if c.NotEstimable {
+				row.Value, row.CI, row.Alone, row.IfEqualised, row.Direction = notEstimable, "", "–", "–", "zero"
+			}
 			if c.StdError != nil {
 				row.StdError = formatMagnitude(m.Metric, *c.StdError)
 				if isProportion(m.Metric) {

@@ -95,6 +95,10 @@ func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult,
 		if _, ok := flags[c.Node]; ok {
 			name += " (unreliable)"
 		}
+		if c.NotEstimable {
+			p("| %s | %s | – | – | – |\n", name, notEstimable)
+			continue
+		}
 		p("| %s | %s | %s | %s | %s |\n", name, formatDelta(m.Metric, c.Value),
 			orDash(formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)),
 			formatDelta(m.Metric, c.Alone), formatDelta(m.Metric, c.IfEqualised))

@@ -259,9 +259,16 @@ func summaryText(res *fairness.Result, m fairness.MetricResult, st inlineStyle) 
 	var widen, narrow []string
 	var rest float64
 	nRest := 0
-	for rank, i := range order {
+	var unestimable []string
+	rank := 0
+	for _, i := range order {
 		c := m.Contributions[i]
-		if rank >= summaryMentions || isZeroText(formatMagnitude(m.Metric, c.Value)) {
+		if c.NotEstimable {
+			unestimable = append(unestimable, mechanismPhrase(res, c.Node, st))
+			continue
+		}
+		rank++
+		if rank > summaryMentions || isZeroText(formatMagnitude(m.Metric, c.Value)) {
 			rest += c.Value
 			nRest++
 			continue
@@ -290,6 +297,9 @@ func summaryText(res *fairness.Result, m fairness.MetricResult, st inlineStyle) 
 		b.WriteString("; " + strings.Join(narrow, "; "))
 	}
 	b.WriteString(".")
+	if len(unestimable) > 0 {
+		fmt.Fprintf(&b, " The data cannot estimate the contribution of %s (see the warnings).", strings.Join(unestimable, " or of "))
+	}
 	if nRest > 0 {
 		if nRest == 1 {
 			fmt.Fprintf(&b, " The remaining mechanism contributes %s.", formatDelta(m.Metric, rest))

@@ -99,6 +99,9 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	tab := textTable{header: head, right: right}
 	for _, c := range m.Contributions {
 		row := []string{c.Mechanism, signed(c.Value), signed(c.Alone), signed(c.IfEqualised)}
+		if c.NotEstimable {
+			row = []string{c.Mechanism, notEstimable, "", ""}
+		}
 		if hasSE {
 			se := ""
 			if c.StdError != nil {
@@ -108,7 +111,7 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 		}
 		if hasCI {
 			ci := ""
-			if c.CILow != nil && c.CIHigh != nil {
+			if c.CILow != nil && c.CIHigh != nil && !c.NotEstimable {
 				ci = "[" + signed(*c.CILow) + ", " + signed(*c.CIHigh) + "]"
 			}
 			row = append(row, ci)
