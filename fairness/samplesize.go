@@ -3,6 +3,7 @@ package fairness
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/gapwise/gapwise/metrics"
 )
@@ -31,22 +32,34 @@ const (
 	WarnDroppedZ   = 3
 )
 
-// sampleSizeWarnings reports, per metric and group, a metric resting on
-// fewer than WarnFewRecords records (MetricResult.RecordsReference and
-// RecordsComparison), and per group a size too small for the fold count
-// or below StudiedGroupSize. Never nil.
+// sampleSizeWarnings reports, per group, metrics resting on fewer than
+// WarnFewRecords records (MetricResult.RecordsReference and
+// RecordsComparison), once for all metrics that rest on the same records
+// (the FNR and TPR both on the positives), and per group a size too small
+// for the fold count or below StudiedGroupSize. Never nil.
 func sampleSizeWarnings(r *Result) []Warning {
 	out := []Warning{}
 	g := r.Groups
+	seen := map[string]int{} // group and basis → index in out
 	for _, mr := range r.Metrics {
 		for _, side := range []struct {
 			value    string
 			basis    int
 			observed float64
 		}{{g.Reference, mr.RecordsReference, mr.Reference}, {g.Comparison, mr.RecordsComparison, mr.Comparison}} {
-			if w, ok := fewRecords(mr.Metric, side.value, side.basis, side.observed); ok {
-				out = append(out, w)
+			w, ok := fewRecords(mr.Metric, side.value, side.basis, side.observed)
+			if !ok {
+				continue
 			}
+			f, _ := metrics.FactOf(mr.Metric)
+			key := fmt.Sprintf("%s\x00%d\x00%d", side.value, f.Counts, side.basis)
+			if i, dup := seen[key]; dup {
+				m := strings.Replace(out[i].Message, " in group ", " and "+mr.Metric+" in group ", 1)
+				out[i].Message = strings.Replace(m, " rests on ", " rest on ", 1)
+				continue
+			}
+			seen[key] = len(out)
+			out = append(out, w)
 		}
 	}
 	for _, side := range []struct {

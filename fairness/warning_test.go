@@ -39,6 +39,14 @@ func TestWarningFields(t *testing.T) {
 			Warning{KindHeavyTail, SeverityCaution, "", []string{"hb"}, "(Pareto shape 0.60 > 0.5): their variance is infinite"}},
 		{"heavy tail, unreliable", func(r *Result) { k := 0.9; r.Mechanisms[0].TailShape = &k },
 			Warning{KindHeavyTail, SeverityUnreliable, "", []string{"hb"}, "(Pareto shape 0.90 > 0.5): the estimate is unreliable at this sample size"}},
+		{"heavy tail, advice in use", func(r *Result) {
+			k, kc := 0.6, 0.65
+			r.Settings.EstimateFrom, r.Mechanisms[0].TailShape, r.Mechanisms[0].ComparisonTailShape = "both", &k, &kc
+		}, Warning{KindHeavyTail, SeverityCaution, "", []string{"hb"}, "too narrow; more records would help, or clip_ratios"}},
+		{"heavy tail, one side of two", func(r *Result) {
+			k, kc := 0.6, 0.2
+			r.Settings.EstimateFrom, r.Mechanisms[0].TailShape, r.Mechanisms[0].ComparisonTailShape = "both", &k, &kc
+		}, Warning{KindHeavyTail, SeverityNote, "", []string{"hb"}, "on the reference records have a heavy tail (Pareto shape 0.60 > 0.5); the two-sided estimate leans on the comparison records"}},
 		{"dominant record", func(r *Result) { r.Mechanisms[0].MaxShare = 0.2 },
 			Warning{KindDominantRecord, SeverityCaution, "", []string{"hb"}, "a single record carries 20.0% of the weight for `hb`"}},
 		{"mean ratio off", func(r *Result) { r.Mechanisms[0].MeanRatio = 0.5 },

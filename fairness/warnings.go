@@ -90,39 +90,50 @@ func lowESS(ess float64, n int) bool {
 }
 
 // mechanismWarnings runs the checks of one mechanism, each warning naming
-// its node.
+// its node. One cause is reported once: a mechanism that is not estimable
+// gets that warning alone (its weight diagnostics would only restate it,
+// and its contribution is not shown), and a learner that fails its
+// self-checks is not also reported as a mean ratio off 1, which is what
+// its odds check measured; the worst fifth of the parents is reported only
+// when the overall mean ratio is fine.
 func mechanismWarnings(r *Result, m MechanismResult) []Warning {
 	var out []Warning
 	add := func(kind WarningKind, sev Severity, format string, args ...any) {
 		out = append(out, Warning{Kind: kind, Severity: sev, Nodes: []string{m.Node}, Message: fmt.Sprintf(format, args...)})
 	}
 	side := r.Settings.EstimateFrom
-	reason := estimability(r, m)
-	if reason != "" {
+	if reason := estimability(r, m); reason != "" {
 		out = append(out, notEstimableWarning(m, reason))
+		if m.ClippedReference+m.ClippedComparison > 0 {
+			add(KindRatiosClipped, SeverityCaution, "the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", m.Node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios)
+		}
+		return out
 	}
+	learnerFailed := false
 	if w, ok := learnerWarning(r, m); ok {
 		out = append(out, w)
+		learnerFailed = true
 	}
-	if m.AUC >= WarnAUC && m.AUC < NotEstimableAUC {
+	if m.AUC >= WarnAUC {
 		add(KindPoorOverlap, SeverityUnreliable, "the groups are nearly separable on `%s` (out-of-fold AUC %.3f): overlap is poor, so its contribution is unreliable", m.Mechanism, m.AUC)
 	}
 	if msg := extremeWarning(m, side); msg != "" {
 		add(KindExtremeWeights, SeverityCaution, "%s", msg)
 	}
-	if msg := essWarning(r, m); msg != "" && reason == "" {
-		add(KindLowEffectiveRecords, SeverityUnreliable, "%s", msg)
+	if msg, sev := essWarning(r, m); msg != "" {
+		add(KindLowEffectiveRecords, sev, "%s", msg)
 	}
-	if msg, sev := tailWarning(m, side); msg != "" {
+	if msg, sev := tailWarning(r, m); msg != "" {
 		add(KindHeavyTail, sev, "%s", msg)
 	}
 	if m.MaxShare > WarnMaxShare {
 		add(KindDominantRecord, SeverityCaution, "a single record carries %.1f%% of the weight for `%s`; its contribution hinges on a few records", 100*m.MaxShare, m.Node)
 	}
-	if m.MeanRatio < WarnMeanRatioLow || m.MeanRatio > WarnMeanRatioHigh {
+	meanOff := m.MeanRatio < WarnMeanRatioLow || m.MeanRatio > WarnMeanRatioHigh
+	if meanOff && !learnerFailed {
 		add(KindMeanRatioOff, SeverityCaution, "the density ratios of `%s` average %.3f over the reference records instead of 1; its classifiers may be miscalibrated", m.Mechanism, m.MeanRatio)
 	}
-	if m.WorstStratumMean < WarnStratumLow || m.WorstStratumMean > WarnStratumHigh {
+	if !meanOff && !learnerFailed && (m.WorstStratumMean < WarnStratumLow || m.WorstStratumMean > WarnStratumHigh) {
 		add(KindStratumRatioOff, SeverityCaution, "the density ratios of `%s` average %.3f in one fifth of the reference records (grouped by its parents) instead of 1; its classifiers may misjudge how the parents differ", m.Mechanism, m.WorstStratumMean)
 	}
 	if m.ClippedReference+m.ClippedComparison > 0 {
@@ -132,21 +143,27 @@ func mechanismWarnings(r *Result, m MechanismResult) []Warning {
 }
 
 // essWarning speaks up when the effective sample size of a mechanism's
-// weights is low (lowESS) on the side(s) that estimate the hybrids; with
-// both sides, only when both are low.
-func essWarning(r *Result, m MechanismResult) string {
+// weights is low (lowESS) on the side(s) that estimate the hybrids
+// (unreliable); with both sides, when both are low, and as a note when one
+// is, naming the side that carries the estimate.
+func essWarning(r *Result, m MechanismResult) (string, Severity) {
 	nRef, nCmp := r.Groups.NReference, r.Groups.NComparison
 	refLow, cmpLow := lowESS(m.ESS, nRef), lowESS(m.ComparisonESS, nCmp)
+	ref, cmp := thousands(int(math.Round(m.ESS))), thousands(int(math.Round(m.ComparisonESS)))
 	side := r.Settings.EstimateFrom
 	switch {
 	case side == "comparison" && cmpLow:
-		return fmt.Sprintf("the contribution of `%s` rests on %s effective comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp))
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective comparison records out of %s; treat it as unreliable", m.Node, cmp, thousands(nCmp)), SeverityUnreliable
 	case side == "both" && refLow && cmpLow:
-		return fmt.Sprintf("the contribution of `%s` rests on %s effective reference records out of %s and %s comparison records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef), thousands(int(math.Round(m.ComparisonESS))), thousands(nCmp))
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective reference records out of %s and %s comparison records out of %s; treat it as unreliable", m.Node, ref, thousands(nRef), cmp, thousands(nCmp)), SeverityUnreliable
+	case side == "both" && refLow:
+		return fmt.Sprintf("the reference records give `%s` only %s effective records out of %s; the two-sided estimate leans on the comparison records (%s effective out of %s)", m.Node, ref, thousands(nRef), cmp, thousands(nCmp)), SeverityNote
+	case side == "both" && cmpLow:
+		return fmt.Sprintf("the comparison records give `%s` only %s effective records out of %s; the two-sided estimate leans on the reference records (%s effective out of %s)", m.Node, cmp, thousands(nCmp), ref, thousands(nRef)), SeverityNote
 	case side != "comparison" && side != "both" && refLow:
-		return fmt.Sprintf("the contribution of `%s` rests on %s effective records out of %s; treat it as unreliable", m.Node, thousands(int(math.Round(m.ESS))), thousands(nRef))
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective records out of %s; treat it as unreliable", m.Node, ref, thousands(nRef)), SeverityUnreliable
 	}
-	return ""
+	return "", ""
 }
 
 // hybridWarnings speaks up, per side of estimation, when the worst hybrid
@@ -262,12 +279,14 @@ func thousands(n int) string {
 
 // tailWarning speaks up when the weights of a mechanism have a heavy right
 // tail (Pareto k̂ above attribution.TailInfiniteVariance) on the side(s)
-// that estimate the hybrids; with both sides, only when both are heavy.
-// Its severity is SeverityUnreliable above attribution.TailUnreliable and
-// SeverityCaution below.
-func tailWarning(m MechanismResult, side string) (string, Severity) {
+// that estimate the hybrids: SeverityUnreliable above
+// attribution.TailUnreliable and SeverityCaution below. With both sides it
+// does so when both are heavy, and gives a note when one is, naming the
+// side that carries the estimate. It advises only settings not in use.
+func tailWarning(r *Result, m MechanismResult) (string, Severity) {
 	heavy := func(k *float64) bool { return k != nil && *k > attribution.TailInfiniteVariance }
 	ref, cmp := heavy(m.TailShape), heavy(m.ComparisonTailShape)
+	side := r.Settings.EstimateFrom
 	var k float64
 	var where string
 	switch {
@@ -275,6 +294,12 @@ func tailWarning(m MechanismResult, side string) (string, Severity) {
 		k, where = *m.ComparisonTailShape, "comparison"
 	case side == "both" && ref && cmp:
 		k, where = math.Min(*m.TailShape, *m.ComparisonTailShape), "reference and comparison"
+	case side == "both" && ref != cmp:
+		heavySide, other, kh := "reference", "comparison", *m.TailShape
+		if cmp {
+			heavySide, other, kh = "comparison", "reference", *m.ComparisonTailShape
+		}
+		return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f); the two-sided estimate leans on the %s records, whose weights for it are lighter-tailed", m.Mechanism, heavySide, kh, attribution.TailInfiniteVariance, other), SeverityNote
 	case side != "comparison" && side != "both" && ref:
 		k, where = *m.TailShape, "reference"
 	default:
@@ -284,7 +309,19 @@ func tailWarning(m MechanismResult, side string) (string, Severity) {
 	if k > attribution.TailUnreliable {
 		verdict, sev = "the estimate is unreliable at this sample size", SeverityUnreliable
 	}
-	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f): %s; consider estimate_from: both", m.Mechanism, where, k, attribution.TailInfiniteVariance, verdict), sev
+	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f): %s; %s", m.Mechanism, where, k, attribution.TailInfiniteVariance, verdict, tailAdvice(r)), sev
+}
+
+// tailAdvice names what could lighten a heavy tail, among the settings not
+// already in use: two-sided estimation, then clipping, then more records.
+func tailAdvice(r *Result) string {
+	switch {
+	case r.Settings.EstimateFrom != "both":
+		return "consider estimate_from: both"
+	case r.Settings.ClipRatios == 0:
+		return "more records would help, or clip_ratios (which trades bias for variance)"
+	}
+	return "more records would help"
 }
 
 // extremeWarning speaks up when more than WarnExtremeShare of the records

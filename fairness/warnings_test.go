@@ -49,6 +49,10 @@ func TestWarnings(t *testing.T) {
 		{"few records", func(r *Result) { r.Metrics[0].RecordsComparison, r.Metrics[0].Comparison = 7, 3.0/7 }, []string{`fnr in group "south" rests on 7 positives: its value has a standard error of about 0.15`}},
 		{"few records caution", func(r *Result) { r.Metrics[0].RecordsReference = 29 }, []string{`fnr in group "north" rests on 29 positives`}},
 		{"records enough", func(r *Result) { r.Metrics[0].RecordsReference = 30 }, nil},
+		{"few records once per basis", func(r *Result) {
+			r.Metrics[0].RecordsComparison = 7
+			r.Metrics = append(r.Metrics, MetricResult{Metric: "tpr", RecordsReference: 3000, RecordsComparison: 7, EffectiveRecords: 2500})
+		}, []string{`fnr and tpr in group "south" rest on 7 positives`}},
 		{"few records not a share", func(r *Result) { r.Metrics[0].Metric, r.Metrics[0].RecordsReference = "brier", 12 }, []string{`brier in group "north" rests on 12 records; its value, the gap and the contributions are imprecise`}},
 		{"folds too many", func(r *Result) { r.Groups.NComparison, r.Settings.Folds = 190, 10 }, []string{`group "south" has 190 records: with 10 folds each held-out fold holds about 19 of them`}},
 		{"max share", func(r *Result) { r.Mechanisms[0].MaxShare = 0.073 }, []string{"a single record carries 7.3% of the weight for `age`"}},
@@ -78,7 +82,7 @@ func TestWarnings(t *testing.T) {
 		{"metric records comparison", func(r *Result) { r.Settings.EstimateFrom = "comparison"; r.Metrics[0].EffectiveRecords = 40 }, []string{"for fnr, the reweighted reference group rests on 40"}},
 		{"ess comparison side", func(r *Result) { r.Settings.EstimateFrom = "comparison"; r.Mechanisms[0].ComparisonESS = 50 }, []string{"rests on 50 effective comparison records out of 9,000"}},
 		{"ess comparison side ignores reference", func(r *Result) { r.Settings.EstimateFrom = "comparison"; r.Mechanisms[0].ESS = 5 }, nil},
-		{"ess both one side low", func(r *Result) { r.Settings.EstimateFrom = "both"; r.Mechanisms[0].ESS = 5 }, nil},
+		{"ess both one side low", func(r *Result) { r.Settings.EstimateFrom = "both"; r.Mechanisms[0].ESS = 25 }, []string{"the reference records give `age` only 25 effective records out of 12,000; the two-sided estimate leans on the comparison records (8,000 effective out of 9,000)"}},
 		{"ess both low", func(r *Result) {
 			r.Settings.EstimateFrom = "both"
 			r.Mechanisms[0].ESS, r.Mechanisms[0].ComparisonESS = 5, 60
@@ -92,7 +96,18 @@ func TestWarnings(t *testing.T) {
 		{"estimable on one side", func(r *Result) {
 			r.Settings.EstimateFrom = "both"
 			r.Mechanisms[0].ESS, r.Mechanisms[0].ComparisonESS = 5, 3000
-		}, nil},
+		}, []string{"the two-sided estimate leans on the comparison records (3,000 effective"}},
+		{"one cause once: not estimable", func(r *Result) {
+			m := &r.Mechanisms[0]
+			m.AUC, m.MaxShare, m.MeanRatio, m.WorstStratumMean, m.ExtremeShare = 0.995, 0.3, 0.2, 0.1, 0.5
+		}, []string{"the contribution of `age` is not estimable here"}},
+		{"one cause once: mean ratio", func(r *Result) { r.Mechanisms[0].MeanRatio, r.Mechanisms[0].WorstStratumMean = 0.5, 0.5 }, []string{"average 0.500 over the reference records"}},
+		{"one cause once: learner", func(r *Result) {
+			m := &r.Mechanisms[0]
+			m.Classifier, m.MeanRatio = "linear", 40
+			m.Losses = []LearnerLoss{{Classifier: "linear", OddsCheck: 40, MaxShare: 0.1}}
+			r.Settings.Classifier = "linear"
+		}, []string{"the learner linear set by the spec's classifier key fails the self-checks"}},
 		{"learner fails auto", func(r *Result) {
 			r.Settings.Classifier = "auto"
 			r.Mechanisms[0].Classifier = "linear"
