@@ -10,6 +10,7 @@ import (
 	"fmt"
 	"io"
 	"strconv"
+	"strings"
 	"unicode/utf8"
 )
 
@@ -38,7 +39,35 @@ func skipBOM(r io.Reader) (io.Reader, error) {
 	case bytes.HasPrefix(head, bomUTF16LE), bytes.HasPrefix(head, bomUTF16BE):
 		return nil, wrapf(ErrEncoding, "the file is UTF-16 text (it starts with a UTF-16 byte-order mark); save it as UTF-8 CSV")
 	}
+	if crOnly(br) {
+		return nil, wrapf(ErrCSVSyntax, "the lines end with a bare carriage return (CR, the old Mac format), which CSV readers do not take as a line end; save the file with LF or CRLF line ends")
+	}
 	return br, nil
+}
+
+// crOnly reports whether the start of the file (up to the reader's
+// buffer) holds a carriage return that no line feed follows and no line
+// feed at all: lines ended by a bare CR, which RFC 4180 (CRLF) and LF
+// readers both see as one long line.
+func crOnly(br *bufio.Reader) bool {
+	head, _ := br.Peek(br.Size())
+	i := bytes.IndexByte(head, '\r')
+	return i >= 0 && i+1 < len(head) && bytes.IndexByte(head, '\n') < 0
+}
+
+// separatorHint explains a header that is one field holding semicolons or
+// tabs: a file separated by another character than the comma (the
+// default of spreadsheets in locales whose decimal mark is the comma).
+func separatorHint(header []string) string {
+	if len(header) != 1 {
+		return ""
+	}
+	for _, sep := range []struct{ char, name string }{{";", "semicolons"}, {"\t", "tabs"}, {"|", "vertical bars"}} {
+		if strings.Contains(header[0], sep.char) {
+			return fmt.Sprintf("; the header is one field, %q: the file seems separated by %s, but gapwise reads comma-separated values", cutValue(header[0]), sep.name)
+		}
+	}
+	return ""
 }
 
 // checkUTF8 returns an ErrEncoding error when field is not valid UTF-8,

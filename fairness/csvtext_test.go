@@ -119,3 +119,31 @@ func TestReadDataTextErrors(t *testing.T) {
 		})
 	}
 }
+
+// TestReadDataSeparators: a file with bare CR line ends, or separated by
+// semicolons or tabs, is refused with a message saying so rather than a
+// confusing missing-column error (hand-made cases; RFC 4180 for the
+// comma and CRLF).
+func TestReadDataSeparators(t *testing.T) {
+	const plain = "clinic,sex,dx,hb,mcv,score\nnorth,F,1,11.5,80,0.7\nsouth,M,0,14,90,0.2\n"
+	for _, tc := range []struct {
+		name, csv string
+		sentinel  error
+		msg       string
+	}{
+		{"cr", strings.ReplaceAll(plain, "\n", "\r"), ErrCSVSyntax, "bare carriage return"},
+		{"semicolon", strings.ReplaceAll(plain, ",", ";"), ErrMissingColumn, `the file seems separated by semicolons`},
+		{"tab", strings.ReplaceAll(plain, ",", "\t"), ErrMissingColumn, `separated by tabs`},
+	} {
+		_, err := ReadData(strings.NewReader(tc.csv), "cohort.csv", dataSpec(t, ""))
+		if !errors.Is(err, tc.sentinel) || !strings.Contains(err.Error(), tc.msg) || !IsInputError(err) {
+			t.Errorf("%s: error %v, want %q", tc.name, err, tc.msg)
+		}
+	}
+	// CRLF is fine, and so is a lone CR inside a quoted field of an LF file.
+	for _, ok := range []string{strings.ReplaceAll(plain, "\n", "\r\n"), strings.Replace(plain, "north,F", "north,\"F\r\"", 1)} {
+		if _, err := ReadData(strings.NewReader(ok), "cohort.csv", dataSpec(t, "")); err != nil && errors.Is(err, ErrCSVSyntax) {
+			t.Errorf("%q refused: %v", ok, err)
+		}
+	}
+}

@@ -251,7 +251,7 @@ func (l *csvLoader) locateColumns(pos map[string]int) error {
 	for k, col := range wanted {
 		i, ok := pos[col]
 		if !ok {
-			return l.derr(1, col, wrapf(ErrMissingColumn, "not found in the header (needed by the spec)"))
+			return l.derr(1, col, wrapf(ErrMissingColumn, "not found in the header (needed by the spec)%s", separatorHint(l.header)))
 		}
 		idx[k] = i
 	}

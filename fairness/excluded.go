@@ -91,8 +91,9 @@ func cutValue(v string) string {
 func isRuneStart(b byte) bool { return b&0xC0 != 0x80 }
 
 // resembles returns ref or cmp when v equals it once letter case, white
-// space and invisible format characters (Unicode category Cf, e.g. a
-// zero-width space or a stray byte-order mark) are ignored, and "" when it
+// space, control characters (such as NUL) and invisible format characters
+// (Unicode category Cf, e.g. a zero-width space or a stray byte-order
+// mark) are ignored, and "" when it
 // equals neither that way. (Cells are already trimmed of surrounding white
 // space, so " female" is "female" and not excluded at all.)
 func resembles(v, ref, cmp string) string {
@@ -105,10 +106,10 @@ func resembles(v, ref, cmp string) string {
 	return ""
 }
 
-// looseKey drops white space and format characters from s.
+// looseKey drops white space, control and format characters from s.
 func looseKey(s string) string {
 	return strings.Map(func(r rune) rune {
-		if unicode.IsSpace(r) || unicode.Is(unicode.Cf, r) {
+		if unicode.IsSpace(r) || unicode.IsControl(r) || unicode.Is(unicode.Cf, r) {
 			return -1
 		}
 		return r
