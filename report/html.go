@@ -48,6 +48,10 @@ const drillNodes = 3
 // when it is nil; intervals appear only where the Result has them. It
 // returns an error if the data cannot be encoded or w fails.
 func WriteHTML(w io.Writer, res *fairness.Result) error {
+	res, err := visibleCopy(res)
+	if err != nil {
+		return err
+	}
 	p, err := newPage(res)
 	if err != nil {
 		return err
