@@ -205,7 +205,11 @@ func replicateKeep(s *Sample, ri, ci []int, logRatio [][]float64, metricNames []
 		}
 		sides = append(sides, newSideEstimate(sd.side, sd.y, sd.s, logr))
 	}
-	if err := splitGapsSides(md, sides, opt); err != nil {
+	mix := MixDefault
+	if side == SideBoth {
+		mix = opt.Mix.resolve()
+	}
+	if err := splitGapsSides(md, sides, opt, mix, false); err != nil {
 		return nil, err
 	}
 	return md, nil

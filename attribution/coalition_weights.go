@@ -269,19 +269,7 @@ func effectiveRecords(mds []MetricDecomposition, sides []*sideEstimate, opt Opti
 		ess := make([]float64, len(sides))
 		count := make([]float64, len(sides))
 		for j, e := range sides {
-			mask := metricRecords(mds[m].Metric, e.y, e.s, opt.Threshold, opt.ECEBins)
-			var lw []float64
-			for r, in := range mask {
-				if !in {
-					continue
-				}
-				var x float64
-				for _, l := range e.logr {
-					x += math.Max(-ClipLogRatio, math.Min(ClipLogRatio, l[r]))
-				}
-				lw = append(lw, x)
-			}
-			ess[j], count[j] = SummariseLogWeights(lw).ESS, float64(len(lw))
+			ess[j], count[j] = farMetricESS(e, mds[m].Metric, opt)
 		}
 		if len(sides) == 1 {
 			mds[m].EffectiveRecords = ess[0]
@@ -290,6 +278,25 @@ func effectiveRecords(mds []MetricDecomposition, sides []*sideEstimate, opt Opti
 			mds[m].EffectiveRecords = math.Min(ess[0]+count[1], count[0]+ess[1])
 		}
 	}
+}
+
+// farMetricESS returns n_eff of the far hybrid's weights on side e (N on
+// the reference side, ∅ on the comparison side) over the records metric
+// name counts (metricRecords), and the number of those records.
+func farMetricESS(e *sideEstimate, name string, opt Options) (ess, count float64) {
+	mask := metricRecords(name, e.y, e.s, opt.Threshold, opt.ECEBins)
+	var lw []float64
+	for r, in := range mask {
+		if !in {
+			continue
+		}
+		var x float64
+		for _, l := range e.logr {
+			x += math.Max(-ClipLogRatio, math.Min(ClipLogRatio, l[r]))
+		}
+		lw = append(lw, x)
+	}
+	return SummariseLogWeights(lw).ESS, float64(len(lw))
 }
 
 // metricRecords marks the records whose cell enters metric name's

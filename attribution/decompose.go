@@ -66,13 +66,18 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 		return nil, nil, err
 	}
 	out.Side = opt.Side.resolve()
+	mix := MixDefault
+	if out.Side == SideBoth {
+		mix = opt.Mix.resolve()
+	}
+	out.Mix = mix
 	diag := chosen == nil
 	sides, reports, err := estimateSides(s, ratios, g, opt, out.Side, diag)
 	if err != nil {
 		return nil, nil, err
 	}
 	out.Mechanisms = reports
-	if err := splitGapsSides(out.Metrics, sides, opt); err != nil {
+	if err := splitGapsSides(out.Metrics, sides, opt, mix, diag); err != nil {
 		return nil, nil, err
 	}
 	if !diag {
@@ -245,11 +250,12 @@ func observe(metricNames []string, g groupSplit, opt Options) ([]MetricDecomposi
 }
 
 // splitGapsSides evaluates the game of every metric from one side's records
-// or from both combined (see Side), and fills the Shapley values: exactly
-// over all coalitions when k ≤ opt.ExactLimit, otherwise by antithetic
-// permutation sampling (SampledShapleyGames) with Monte Carlo standard
-// errors.
-func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Options) error {
+// or from both combined (see Side and Mix), and fills the Shapley values:
+// exactly over all coalitions when k ≤ opt.ExactLimit, otherwise by
+// antithetic permutation sampling (SampledShapleyGames) with Monte Carlo
+// standard errors. With both sides and diag it also compares the two
+// one-sided games (SideAgreement).
+func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Options, mix Mix, diag bool) error {
 	names := make([]string, len(mds))
 	for m := range mds {
 		names[m] = mds[m].Metric
@@ -257,22 +263,70 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 	k := len(sides[0].logr)
 	eopt := EngineOptions{Workers: opt.Workers, ECEBins: opt.ECEBins}
 	if k > exactLimit(opt) {
-		return splitGapsSampled(mds, names, sides, opt, eopt)
+		return splitGapsSampled(mds, names, sides, opt, eopt, mix, diag)
 	}
-	values, err := hybridAll(sides, names, opt.Threshold, eopt)
+	perSide, err := sideValuesAll(sides, names, opt.Threshold, eopt)
 	if err != nil {
 		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
 	}
+	vars := sideVarianceSet(sides, names, opt, mix, diag, diag)
+	var values [][]float64
+	switch {
+	case len(sides) == 1:
+		values = perSide[0]
+	case mix == MixCoalition:
+		ess, err := essAllSides(sides, eopt)
+		if err != nil {
+			return err
+		}
+		values = combineByESS(perSide, ess)
+	default:
+		values = combineByLambda(perSide, setLambda(mds, mixWeights(mix, sides, names, vars, opt)))
+	}
 	full := uint64(1)<<k - 1
 	for m := range mds {
-		vals := values[m]
-		v := make([]float64, len(vals))
-		for S := range vals {
-			v[S] = vals[S] - vals[0]
-		}
+		v := shifted(values[m])
 		fillSummary(&mds[m], ExactShapley(v, k), func(S uint64) float64 { return v[S] }, k, full)
+		if diag && len(sides) == 2 {
+			mds[m].Agreement = agreement(perSide, vars, m, k, true)
+		}
 	}
+	setOneSideWeight(mds, sides)
 	return nil
+}
+
+// sideVarianceSet returns vars[j][m], the delta-method variances of side j
+// for metric m (of the Shapley values too when withPhi), when both sides
+// estimate and the mix or the agreement (diag) needs them; nil otherwise.
+func sideVarianceSet(sides []*sideEstimate, names []string, opt Options, mix Mix, diag, withPhi bool) [][]sideVariances {
+	if len(sides) != 2 || !(diag || mix.needsVariance()) {
+		return nil
+	}
+	vars := make([][]sideVariances, 2)
+	for j, e := range sides {
+		vars[j] = e.variances(names, opt.Threshold, opt.ECEBins, withPhi)
+	}
+	return vars
+}
+
+// setLambda records λ in every metric and returns it.
+func setLambda(mds []MetricDecomposition, lambda []float64) []float64 {
+	for m := range mds {
+		l := lambda[m]
+		mds[m].ReferenceWeight = &l
+	}
+	return lambda
+}
+
+// setOneSideWeight sets ReferenceWeight for one side: 1 or 0.
+func setOneSideWeight(mds []MetricDecomposition, sides []*sideEstimate) {
+	if len(sides) != 1 {
+		return
+	}
+	for m := range mds {
+		l := pick01(sides[0].side == SideReference)
+		mds[m].ReferenceWeight = &l
+	}
 }
 
 // exactLimit is opt.ExactLimit with its default.
@@ -299,16 +353,36 @@ func fillSummary(md *MetricDecomposition, phi []float64, v func(uint64) float64,
 
 // splitGapsSampled is splitGapsSides for many mechanisms. The Shapley values of
 // S ↦ M(P_S) and of v(S) = M(P_S) − M(P_∅) coincide, so the sampler works
-// on M directly; ∅, N, {i} and N∖{i} are evaluated exactly for the summary.
-func splitGapsSampled(mds []MetricDecomposition, names []string, sides []*sideEstimate, opt Options, eopt EngineOptions) error {
+// on M directly; ∅, N, {i} and N∖{i} are evaluated exactly for the summary
+// (and for a metric-level mix's λ). The agreement compares the ends only.
+func splitGapsSampled(mds []MetricDecomposition, names []string, sides []*sideEstimate, opt Options, eopt EngineOptions, mix Mix, diag bool) error {
 	k := len(sides[0].logr)
+	special := keyCoalitions(k)
+	perSide, err := sideValuesSome(sides, names, special, opt.Threshold, eopt)
+	if err != nil {
+		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
+	}
+	vars := sideVarianceSet(sides, names, opt, mix, diag, false)
+	var lambda []float64
+	if len(sides) == 2 && mix != MixCoalition {
+		lambda = setLambda(mds, mixWeights(mix, sides, names, vars, opt))
+	}
+	combine := func(vals [][][]float64, cs []uint64) [][]float64 {
+		switch {
+		case len(sides) == 1:
+			return vals[0]
+		case lambda == nil:
+			return combineByESS(vals, essSomeSides(sides, cs))
+		}
+		return combineByLambda(vals, lambda)
+	}
 	value := func(cs []uint64, dst [][]float64) error {
-		v, err := hybridSome(sides, names, cs, opt.Threshold, eopt)
+		vals, err := sideValuesSome(sides, names, cs, opt.Threshold, eopt)
 		if err != nil {
 			return err
 		}
-		for m := range dst {
-			copy(dst[m], v[m])
+		for m, v := range combine(vals, cs) {
+			copy(dst[m], v)
 		}
 		return nil
 	}
@@ -319,14 +393,7 @@ func splitGapsSampled(mds []MetricDecomposition, names []string, sides []*sideEs
 		return fmt.Errorf("attribution: sampling Shapley values: %w", err)
 	}
 	full := uint64(1)<<k - 1
-	special := []uint64{0, full}
-	for i := 0; i < k; i++ {
-		special = append(special, uint64(1)<<i, full&^(uint64(1)<<i))
-	}
-	vals, err := hybridSome(sides, names, special, opt.Threshold, eopt)
-	if err != nil {
-		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
-	}
+	vals := combine(perSide, special)
 	for m := range mds {
 		at := map[uint64]float64{}
 		for j, S := range special {
@@ -334,7 +401,12 @@ func splitGapsSampled(mds []MetricDecomposition, names []string, sides []*sideEs
 		}
 		fillSummary(&mds[m], phi[m], func(S uint64) float64 { return at[S] }, k, full)
 		mds[m].StdErrors = se[m]
+		if diag && len(sides) == 2 {
+			// special begins with ∅ and N, the order agreement reads.
+			mds[m].Agreement = agreement(perSide, vars, m, k, false)
+		}
 	}
+	setOneSideWeight(mds, sides)
 	return nil
 }
 

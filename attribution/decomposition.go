@@ -24,6 +24,9 @@ type Options struct {
 	// Side chooses the records that estimate the hybrid metrics (see
 	// Side); SideDefault means DefaultSide.
 	Side Side
+	// Mix chooses how SideBoth combines the two sides' games (see Mix);
+	// MixDefault means DefaultMix. Ignored for one side.
+	Mix Mix
 	// ClipQuantile, if in (0, 1), clips every mechanism's log-ratios to
 	// their central interval of probability ClipQuantile over the records
 	// of each side used (ClipAtQuantiles); 0 means no clipping.
@@ -38,6 +41,7 @@ type Decomposition struct {
 	Mechanisms []MechanismReport     // in the order given
 	Metrics    []MetricDecomposition // in the order requested
 	Side       Side                  // the side used (never SideDefault)
+	Mix        Mix                   // the combination used for SideBoth (never MixDefault); MixDefault for one side
 	// Weights describes, per side used (reference first), the weights
 	// that emulate the hybrid distributions on that side's records.
 	Weights []SideWeights
@@ -83,6 +87,14 @@ type MetricDecomposition struct {
 	// of n_eff(reference) + n_eff(comparison), an observed end counting
 	// all its records.
 	EffectiveRecords float64
+	// ReferenceWeight is λ, the weight of the reference side's game in
+	// the estimate: 1 for SideReference, 0 for SideComparison, the
+	// metric-level weight of a Mix for SideBoth; nil for MixCoalition
+	// (a weight per coalition).
+	ReferenceWeight *float64
+	// Agreement compares the two one-sided estimates of the game (see
+	// SideAgreement); set for SideBoth in the point estimate, nil otherwise.
+	Agreement *SideAgreement
 
 	// Percentile bootstrap intervals, set by Bootstrap; nil otherwise.
 	ReferenceCI     *Interval

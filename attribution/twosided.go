@@ -195,9 +195,9 @@ func (e *sideEstimate) someWeights(cs []uint64) []CoalitionWeight {
 	return out
 }
 
-// hybridAll returns M̂(P_S) for every S from one side, or from both
-// combined by effective sample size.
-func hybridAll(sides []*sideEstimate, names []string, threshold float64, eopt EngineOptions) ([][]float64, error) {
+// sideValuesAll returns vals[j][m][S] = M̂(P_S) of every metric m and
+// hybrid coalition S estimated from sides[j] alone.
+func sideValuesAll(sides []*sideEstimate, names []string, threshold float64, eopt EngineOptions) ([][][]float64, error) {
 	vals := make([][][]float64, len(sides))
 	for j, e := range sides {
 		var err error
@@ -205,21 +205,12 @@ func hybridAll(sides []*sideEstimate, names []string, threshold float64, eopt En
 			return nil, err
 		}
 	}
-	if len(sides) == 1 {
-		return vals[0], nil
-	}
-	ess := make([][]float64, len(sides))
-	for j, e := range sides {
-		var err error
-		if ess[j], err = e.essAll(eopt); err != nil {
-			return nil, err
-		}
-	}
-	return combineByESS(vals, ess), nil
+	return vals, nil
 }
 
-// hybridSome is hybridAll for the listed coalitions only.
-func hybridSome(sides []*sideEstimate, names []string, cs []uint64, threshold float64, eopt EngineOptions) ([][]float64, error) {
+// sideValuesSome is sideValuesAll for the listed coalitions only:
+// vals[j][m][c] = M̂(P_{cs[c]}) from sides[j].
+func sideValuesSome(sides []*sideEstimate, names []string, cs []uint64, threshold float64, eopt EngineOptions) ([][][]float64, error) {
 	vals := make([][][]float64, len(sides))
 	for j, e := range sides {
 		var err error
@@ -227,9 +218,42 @@ func hybridSome(sides []*sideEstimate, names []string, cs []uint64, threshold fl
 			return nil, err
 		}
 	}
+	return vals, nil
+}
+
+// hybridAll returns M̂(P_S) for every S from one side, or from both
+// combined per coalition by effective sample size (MixCoalition).
+func hybridAll(sides []*sideEstimate, names []string, threshold float64, eopt EngineOptions) ([][]float64, error) {
+	vals, err := sideValuesAll(sides, names, threshold, eopt)
+	if err != nil {
+		return nil, err
+	}
 	if len(sides) == 1 {
 		return vals[0], nil
 	}
+	ess, err := essAllSides(sides, eopt)
+	if err != nil {
+		return nil, err
+	}
+	return combineByESS(vals, ess), nil
+}
+
+// essAllSides returns ess[j][S], n_eff of the weights of hybrid S on
+// sides[j].
+func essAllSides(sides []*sideEstimate, eopt EngineOptions) ([][]float64, error) {
+	ess := make([][]float64, len(sides))
+	for j, e := range sides {
+		var err error
+		if ess[j], err = e.essAll(eopt); err != nil {
+			return nil, err
+		}
+	}
+	return ess, nil
+}
+
+// essSomeSides returns ess[j][c], n_eff of the weights of hybrid cs[c] on
+// sides[j].
+func essSomeSides(sides []*sideEstimate, cs []uint64) [][]float64 {
 	ess := make([][]float64, len(sides))
 	for j, e := range sides {
 		ws := e.someWeights(cs)
@@ -238,7 +262,7 @@ func hybridSome(sides []*sideEstimate, names []string, cs []uint64, threshold fl
 			ess[j][c] = w.ESS
 		}
 	}
-	return combineByESS(vals, ess), nil
+	return ess
 }
 
 // combineByESS returns Σ_j ess[j][c]·vals[j][m][c] / Σ_j ess[j][c]: per

@@ -1,0 +1,147 @@
+package attribution
+
+import (
+	"fmt"
+	"math"
+)
+
+// Mix says how SideBoth combines the game estimated from the reference
+// records, v_ref(S) = M̂_ref(S) − M̂_ref(∅), with the one estimated from the
+// comparison records, v_cmp(S) = M̂_cmp(S) − M̂_cmp(∅).
+//
+//   - MixCoalition: per coalition S, M̂(S) = Σ_j n_eff,j(S)·M̂_j(S) / Σ_j
+//     n_eff,j(S), n_eff of each side's weights for S over all its records
+//     (Kish 1965). Each coalition leans on the side whose weights are
+//     better there, but the game is then a patchwork of two estimators: a
+//     mechanism's marginal contributions compare coalitions estimated
+//     mostly from different records, so the misfit of one side can land on
+//     a mechanism neither side credits. Both ends are pinned to the
+//     observed metrics (n_eff = n where the weights are all 1), which keeps
+//     the residual near zero by construction.
+//   - MixMetricESS: one weight λ per metric, v = λ·v_ref + (1−λ)·v_cmp with
+//     λ = n_eff,ref(N) / (n_eff,ref(N) + n_eff,cmp(∅)), each n_eff that of
+//     the side's far hybrid over the records the metric counts. The game is
+//     a convex combination of two consistent games, so φ = λ·φ_ref +
+//     (1−λ)·φ_cmp (Shapley values are linear) and a mechanism both sides
+//     credit with 0 gets 0.
+//   - MixMetricVariance: one weight per metric, λ = V_cmp / (V_ref + V_cmp),
+//     V_j the delta-method variance of side j's estimated gap v_j(N)
+//     (deltaVariances): the inverse-variance combination of the two gap
+//     estimates. Falls back to MixMetricESS's λ when a variance is unknown.
+//   - MixPick: per metric, the side with the smaller V_j (λ ∈ {0, 1};
+//     MixMetricESS's λ rounded when a variance is unknown).
+//
+// With a metric-level λ the residual is λ·(M_cmp − M̂_ref(N)) +
+// (1−λ)·(M̂_cmp(∅) − M_ref): the far-end errors of the two sides, no longer
+// pinned to zero.
+type Mix int
+
+// Mixes. The zero value means DefaultMix.
+const (
+	MixDefault Mix = iota
+	MixCoalition
+	MixMetricESS
+	MixMetricVariance
+	MixPick
+)
+
+// DefaultMix is the combination used when Options.Mix is MixDefault.
+const DefaultMix = MixCoalition
+
+// Mixes lists the combinations, for studies.
+func Mixes() []Mix { return []Mix{MixCoalition, MixMetricESS, MixMetricVariance, MixPick} }
+
+// String returns "coalition", "metric-ess", "metric-variance", "pick" or
+// "default".
+func (x Mix) String() string {
+	switch x {
+	case MixDefault:
+		return "default"
+	case MixCoalition:
+		return "coalition"
+	case MixMetricESS:
+		return "metric-ess"
+	case MixMetricVariance:
+		return "metric-variance"
+	case MixPick:
+		return "pick"
+	}
+	return fmt.Sprintf("Mix(%d)", int(x))
+}
+
+// ParseMix turns a name of String into a Mix.
+func ParseMix(name string) (Mix, error) {
+	for _, x := range Mixes() {
+		if x.String() == name {
+			return x, nil
+		}
+	}
+	return MixDefault, fmt.Errorf("attribution: unknown mix %q (want coalition, metric-ess, metric-variance or pick)", name)
+}
+
+func (x Mix) resolve() Mix {
+	if x == MixDefault {
+		return DefaultMix
+	}
+	return x
+}
+
+// needsVariance reports whether the rule reads the delta-method variances.
+func (x Mix) needsVariance() bool { return x == MixMetricVariance || x == MixPick }
+
+// mixWeights returns λ_m, the weight of the reference side's game of each
+// metric under a metric-level rule (see Mix); vars[j][m] are side j's
+// variances (nil unless the rule needs them).
+func mixWeights(rule Mix, sides []*sideEstimate, names []string, vars [][]sideVariances, opt Options) []float64 {
+	lambda := make([]float64, len(names))
+	for m, name := range names {
+		essRef, _ := farMetricESS(sides[0], name, opt)
+		essCmp, _ := farMetricESS(sides[1], name, opt)
+		byESS := essRef / (essRef + essCmp)
+		if math.IsNaN(byESS) {
+			byESS = 0.5
+		}
+		lambda[m] = byESS
+		if !rule.needsVariance() {
+			continue
+		}
+		vr, vc := vars[0][m].gap, vars[1][m].gap
+		known := !math.IsNaN(vr) && !math.IsNaN(vc) && vr+vc > 0
+		switch {
+		case rule == MixMetricVariance && known:
+			lambda[m] = vc / (vr + vc)
+		case rule == MixPick && known:
+			lambda[m] = pick01(vr <= vc)
+		case rule == MixPick:
+			lambda[m] = pick01(byESS >= 0.5)
+		}
+	}
+	return lambda
+}
+
+func pick01(b bool) float64 {
+	if b {
+		return 1
+	}
+	return 0
+}
+
+// combineByLambda returns λ_m·vals[0][m][c] + (1−λ_m)·vals[1][m][c].
+func combineByLambda(vals [][][]float64, lambda []float64) [][]float64 {
+	out := make([][]float64, len(vals[0]))
+	for m := range out {
+		l := lambda[m]
+		out[m] = make([]float64, len(vals[0][m]))
+		for c := range out[m] {
+			switch l {
+			case 1:
+				out[m][c] = vals[0][m][c]
+			case 0:
+				out[m][c] = vals[1][m][c]
+			default:
+				out[m][c] = l*vals[0][m][c] + (1-l)*vals[1][m][c]
+			}
+		}
+	}
+	return out
+}
