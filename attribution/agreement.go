@@ -28,10 +28,18 @@ type SideAgreement struct {
 	// AtEmpty is M_ref − M̂_cmp(∅): the observed reference metric against
 	// the reweighted comparison records' estimate of it.
 	AtEmpty Difference
+	// Ends is (AtFull + AtEmpty)/2, with the standard error of that
+	// average (the two share records, so it is not their SEs combined as
+	// if independent). When something that differs between the groups
+	// and matters to the metric is missing from the graph, both sides miss
+	// its effect e at their far end and AtFull ≈ AtEmpty ≈ −e while the
+	// contributions' differences sum to AtFull − AtEmpty ≈ 0; averaging
+	// the two ends detects that with less noise than either.
+	Ends Difference
 	// Contributions[i] is φ̂_ref,i − φ̂_cmp,i, the Shapley values of the two
 	// one-sided games; nil when the Shapley values were sampled.
 	Contributions []Difference
-	// MaxZ is the largest |Value|/SE over AtFull, AtEmpty and
+	// MaxZ is the largest |Value|/SE over AtFull, AtEmpty, Ends and
 	// Contributions; NaN when no standard error is known (AUC).
 	MaxZ float64
 }
@@ -64,6 +72,7 @@ func agreement(vals [][][]float64, vars [][]sideVariances, m, k int, phi bool) *
 	a := &SideAgreement{
 		AtFull:  Difference{ref[fullAt] - cmp[fullAt], math.Sqrt(vr.full + vc.full)},
 		AtEmpty: Difference{ref[0] - cmp[0], math.Sqrt(vr.empty + vc.empty)},
+		Ends:    Difference{(ref[fullAt] + ref[0] - cmp[fullAt] - cmp[0]) / 2, math.Sqrt(vr.mid + vc.mid)},
 	}
 	if phi {
 		pr := ExactShapley(shifted(ref), k)
@@ -78,7 +87,7 @@ func agreement(vals [][][]float64, vars [][]sideVariances, m, k int, phi bool) *
 		}
 	}
 	a.MaxZ = math.NaN()
-	for _, d := range append([]Difference{a.AtFull, a.AtEmpty}, a.Contributions...) {
+	for _, d := range append([]Difference{a.AtFull, a.AtEmpty, a.Ends}, a.Contributions...) {
 		if z := d.z(); !math.IsNaN(z) && !(z <= a.MaxZ) {
 			a.MaxZ = z
 		}

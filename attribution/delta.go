@@ -208,16 +208,22 @@ func zeros(rows, cols int) [][]float64 {
 }
 
 // endsFunctional works on the coalitions {∅, N} (in that order) and gives
-// the functionals M̂(∅), M̂(N) and M̂(N) − M̂(∅).
+// the functionals M̂(∅), M̂(N), M̂(N) − M̂(∅) and (M̂(N) + M̂(∅))/2.
 func endsFunctional(u, dst [][]float64) {
 	for m := range u {
-		dst[m][0], dst[m][1], dst[m][2] = u[m][0], u[m][1], u[m][1]-u[m][0]
+		setEnds(dst[m][0:4], u[m][0], u[m][1])
 	}
+}
+
+// setEnds writes the influences on the four end functionals of
+// endsFunctional from those on M̂(∅) and M̂(N).
+func setEnds(dst []float64, empty, full float64) {
+	dst[0], dst[1], dst[2], dst[3] = empty, full, full-empty, (full+empty)/2
 }
 
 // shapleyFunctional works on all 2^k hybrid coalitions in index order and
 // gives φ_0 … φ_{k−1} of the game S ↦ M̂(S) (ExactShapley's weights), then
-// M̂(∅), M̂(N) and M̂(N) − M̂(∅).
+// the four end functionals of endsFunctional.
 func shapleyFunctional(k int) functional {
 	w := shapleyWeights(k)
 	full := 1<<k - 1
@@ -235,7 +241,7 @@ func shapleyFunctional(k int) functional {
 					}
 				}
 			}
-			d[k], d[k+1], d[k+2] = u[m][0], u[m][full], u[m][full]-u[m][0]
+			setEnds(d[k:k+4], u[m][0], u[m][full])
 		}
 	}
 }
@@ -244,6 +250,7 @@ func shapleyFunctional(k int) functional {
 // one metric (see deltaVariances); NaN when unknown.
 type sideVariances struct {
 	empty, full, gap float64   // of M̂(∅), M̂(N) and M̂(N) − M̂(∅)
+	mid              float64   // of (M̂(N) + M̂(∅))/2
 	phi              []float64 // of φ̂_i; nil when not computed
 }
 
@@ -260,16 +267,16 @@ func (e *sideEstimate) variances(names []string, threshold float64, bins int, wi
 		for S := range in.wc {
 			in.wc[S] = e.weightCoalition(uint64(S), full)
 		}
-		v := deltaVariances(in, k+3, shapleyFunctional(k))
+		v := deltaVariances(in, k+4, shapleyFunctional(k))
 		for m := range out {
-			out[m] = sideVariances{phi: v[m][:k], empty: v[m][k], full: v[m][k+1], gap: v[m][k+2]}
+			out[m] = sideVariances{phi: v[m][:k], empty: v[m][k], full: v[m][k+1], gap: v[m][k+2], mid: v[m][k+3]}
 		}
 		return out
 	}
 	in.wc = []uint64{e.weightCoalition(0, full), e.weightCoalition(full, full)}
-	v := deltaVariances(in, 3, endsFunctional)
+	v := deltaVariances(in, 4, endsFunctional)
 	for m := range out {
-		out[m] = sideVariances{empty: v[m][0], full: v[m][1], gap: v[m][2]}
+		out[m] = sideVariances{empty: v[m][0], full: v[m][1], gap: v[m][2], mid: v[m][3]}
 	}
 	return out
 }

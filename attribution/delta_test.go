@@ -25,7 +25,7 @@ func TestDeltaVarianceMatchesRatioFormula(t *testing.T) {
 		l[r] = rng.NormFloat64()
 	}
 	in := deltaInput{y: y, s: s, logr: [][]float64{l}, wc: []uint64{0, 1}, names: []string{metrics.NameFNR}, threshold: 0.5, bins: 1}
-	got := deltaVariances(in, 3, endsFunctional)[0]
+	got := deltaVariances(in, 4, endsFunctional)[0]
 	for j, wc := range []uint64{0, 1} {
 		var wpos, fn float64
 		for r := range y {

@@ -131,6 +131,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			Learners:    classify.NamesOf(learners),
 
 			EstimateFrom: dec.Side.String(),
+			CombineSides: combineSides(dec),
 			ClipRatios:   spec.ClipRatios,
 			ExactLimit:   spec.ExactLimit,
 		},
@@ -151,8 +152,15 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 	for _, n := range spec.Graph {
 		columns[n.Node] = n.Columns
 	}
+	addEstimates(r, dec, columns)
+	return r
+}
+
+// addEstimates maps the mechanisms, metrics and weights of dec into r;
+// columns gives each node's data columns (nil: none).
+func addEstimates(r *Result, dec *attribution.Decomposition, columns map[string][]string) {
 	for _, m := range dec.Mechanisms {
-		r.Mechanisms = append(r.Mechanisms, mechanismResult(m, columns[m.Mechanism.Node], groups.NReference))
+		r.Mechanisms = append(r.Mechanisms, mechanismResult(m, columns[m.Mechanism.Node], r.Groups.NReference))
 	}
 	for _, md := range dec.Metrics {
 		mr := metricResult(md, dec.Mechanisms)
@@ -170,7 +178,6 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			AllCoalitions: w.AllCoalitions,
 		})
 	}
-	return r
 }
 
 // mechanismResult maps one mechanism's diagnostics; nRef is the size of
@@ -224,6 +231,8 @@ func metricResult(md attribution.MetricDecomposition, mechs []attribution.Mechan
 		ComparisonCI:     interval(md.ComparisonCI),
 		GapCI:            interval(md.GapCI),
 		Contributions:    []Contribution{},
+		ReferenceWeight:  md.ReferenceWeight,
+		SideAgreement:    sideAgreement(md.Agreement),
 	}
 	for i, m := range mechs {
 		c := Contribution{
@@ -241,9 +250,43 @@ func metricResult(md attribution.MetricDecomposition, mechs []attribution.Mechan
 			se := md.StdErrors[i]
 			c.StdError = &se
 		}
+		if a := md.Agreement; a != nil && i < len(a.Contributions) {
+			c.SideDifference = sideDifference(a.Contributions[i])
+		}
 		res.Contributions = append(res.Contributions, c)
 	}
 	return res
+}
+
+// combineSides names the Mix of a two-sided decomposition, "" for one
+// side.
+func combineSides(dec *attribution.Decomposition) string {
+	if dec.Side != attribution.SideBoth {
+		return ""
+	}
+	return dec.Mix.String()
+}
+
+// maxReportedZ caps SideAgreement.MaxZ, which is infinite when a
+// difference has a zero standard error, so that it stays a JSON number.
+const maxReportedZ = 1e6
+
+// sideAgreement maps the engine's comparison of the two sides; nil stays
+// nil.
+func sideAgreement(a *attribution.SideAgreement) *SideAgreement {
+	if a == nil {
+		return nil
+	}
+	return &SideAgreement{
+		ComparisonEnd: *sideDifference(a.AtFull),
+		ReferenceEnd:  *sideDifference(a.AtEmpty),
+		EndsAverage:   *sideDifference(a.Ends),
+		MaxZ:          finite(math.Min(a.MaxZ, maxReportedZ)),
+	}
+}
+
+func sideDifference(d attribution.Difference) *SideDifference {
+	return &SideDifference{Difference: d.Value, StdError: finite(d.SE)}
 }
 
 // hybridWeight names the mechanisms of a coalition by their nodes.

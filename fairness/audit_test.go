@@ -8,6 +8,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -278,7 +279,7 @@ func TestRunDeterministic(t *testing.T) {
 	}
 	for i := range r1.Metrics {
 		for j := range r1.Metrics[i].Contributions {
-			if a, b := r1.Metrics[i].Contributions[j], r4.Metrics[i].Contributions[j]; a != b {
+			if a, b := r1.Metrics[i].Contributions[j], r4.Metrics[i].Contributions[j]; !reflect.DeepEqual(a, b) {
 				t.Errorf("metric %s mechanism %d: %+v with 1 worker, %+v with 4", r1.Metrics[i].Metric, j, a, b)
 			}
 		}

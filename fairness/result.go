@@ -62,6 +62,11 @@ type Settings struct {
 	// EstimateFrom names the records that estimate the hybrid metrics:
 	// reference, comparison or both (see attribution.Side).
 	EstimateFrom string `json:"estimate_from"`
+	// CombineSides names how both sides' games are combined when
+	// estimate_from is both: "coalition" (per coalition by effective
+	// sample size), "metric-ess", "metric-variance" or "pick" (one weight
+	// per metric; see attribution.Mix); absent for one side.
+	CombineSides string `json:"combine_sides,omitempty"`
 	// ClipRatios is the central probability kept when clipping log-ratios;
 	// absent when no clipping.
 	ClipRatios float64 `json:"clip_ratios,omitempty"`
@@ -107,7 +112,20 @@ type MetricResult struct {
 	Comparison float64 `json:"comparison"`
 	Gap        float64 `json:"gap"`
 	Estimated  float64 `json:"estimated_gap"` // Σ contributions: the reweighted estimate of the gap
-	Residual   float64 `json:"residual"`
+	// Residual = Gap − Estimated holds the estimation error and the effect
+	// of anything that differs between the groups outside the graph. When
+	// both sides estimate with a weight per coalition, both ends of the
+	// gap are pinned to the observed metrics and the residual is small by
+	// construction whatever the estimate's quality: read SideAgreement.
+	Residual float64 `json:"residual"`
+	// ReferenceWeight is the weight of the reference records' game in the
+	// estimate (1 for estimate_from reference, 0 for comparison, one
+	// weight per metric for both); absent when both sides are mixed per
+	// coalition.
+	ReferenceWeight *float64 `json:"reference_weight,omitempty"`
+	// SideAgreement compares the two one-sided estimates; present when
+	// both sides estimate.
+	SideAgreement *SideAgreement `json:"side_agreement,omitempty"`
 	// EffectiveRecords is the effective sample size behind the estimate
 	// of the far end of the gap, over the records the metric counts
 	// (attribution.MetricDecomposition.EffectiveRecords).
@@ -149,6 +167,41 @@ type Contribution struct {
 	// IfEqualised is the estimated gap if this mechanism alone were made
 	// equal to the reference group's while all others differ: v(N∖{i}).
 	IfEqualised float64 `json:"gap_if_equalised"`
+	// SideDifference is this contribution from the reference records
+	// minus the one from the comparison records
+	// (attribution.SideAgreement); present when both sides estimate and
+	// the Shapley values are exact.
+	SideDifference *SideDifference `json:"side_difference,omitempty"`
+}
+
+// SideAgreement compares the estimate from the reweighted reference
+// records with the one from the reweighted comparison records
+// (attribution.SideAgreement). Both estimate the same quantities when
+// the density ratios are right and the graph holds everything that
+// differs and matters, so each difference should be within a few
+// standard errors of 0.
+type SideAgreement struct {
+	// ComparisonEnd: the reweighted reference records' estimate of the
+	// comparison group's metric minus its observed value.
+	ComparisonEnd SideDifference `json:"comparison_end"`
+	// ReferenceEnd: the observed reference metric minus the reweighted
+	// comparison records' estimate of it.
+	ReferenceEnd SideDifference `json:"reference_end"`
+	// EndsAverage is the average of the two end differences: both sides
+	// miss the effect of something outside the graph the same way, so it
+	// shows that with less noise than either end.
+	EndsAverage SideDifference `json:"ends_average"`
+	// MaxZ is the largest |difference| / std_error over the two ends and
+	// the contributions; absent when no standard error is known (auc).
+	MaxZ *float64 `json:"max_z,omitempty"`
+}
+
+// SideDifference is one difference between the two sides' estimates.
+type SideDifference struct {
+	Difference float64 `json:"difference"`
+	// StdError is its delta-method standard error (sampling noise of the
+	// records, ratios held fixed); absent when unknown.
+	StdError *float64 `json:"std_error,omitempty"`
 }
 
 // MechanismResult carries per-mechanism diagnostics.

@@ -11,7 +11,8 @@ type Warning struct {
 	// concerns.
 	Severity Severity `json:"severity"`
 	// Metric is the metric the warning concerns, for the metric-level
-	// kinds (KindMetricRecords, KindLargeResidual); "" otherwise.
+	// kinds (KindMetricRecords, KindLargeResidual, KindSidesDisagree); ""
+	// otherwise.
 	Metric string `json:"metric,omitempty"`
 	// Nodes lists, in graph order, the nodes whose mechanisms the warning
 	// concerns: the mechanism checked for the mechanism-level kinds, the
@@ -31,7 +32,7 @@ func (w Warning) String() string { return w.Message }
 type WarningKind string
 
 // The kinds of warning, in the order Warnings emits them. The severity of
-// each is fixed except for KindHeavyTail.
+// each is fixed except for KindHeavyTail and KindSidesDisagree.
 const (
 	// KindRowsDropped (note; caution when the groups' dropped shares
 	// differ beyond chance, droppedWarnings): rows were dropped for
@@ -96,6 +97,13 @@ const (
 	// KindLargeResidual (caution): a metric's residual exceeds both
 	// WarnResidualShare of its gap and WarnResidualMin.
 	KindLargeResidual WarningKind = "large_residual"
+	// KindSidesDisagree: the estimates of a metric from the reweighted
+	// reference records and from the reweighted comparison records differ
+	// by more than WarnSidesZ standard errors (caution) or more than
+	// WarnSidesZUnreliable (unreliable), at an end of the gap or in a
+	// contribution; Nodes are the mechanisms whose contributions differ
+	// by more than WarnSidesZ.
+	KindSidesDisagree WarningKind = "sides_disagree"
 	// KindOutlyingValues (note): a numeric graph column has values outside
 	// its typical range (classify.TypicalRange), which the logistic
 	// learners treat as the range's nearer edge; they may be entry errors.

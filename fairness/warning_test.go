@@ -61,6 +61,13 @@ func TestWarningFields(t *testing.T) {
 			Warning{KindMetricRecords, SeverityUnreliable, "fnr", []string{}, "for fnr, the reweighted comparison group rests on 60 effective records"}},
 		{"large residual", func(r *Result) { r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.05, 0.04 },
 			Warning{KindLargeResidual, SeverityCaution, "fnr", []string{}, "the residual 0.0400 is large"}},
+		// The sides check fires above WarnSidesZ = 4 (caution) and
+		// WarnSidesZUnreliable = 8 (unreliable) and names the mechanisms
+		// whose contributions differ by more than 4 standard errors.
+		{"sides disagree", func(r *Result) { r.Metrics[0] = sidesMetric(5.2, 0.05) },
+			Warning{KindSidesDisagree, SeverityCaution, "fnr", []string{"hb"}, "disagree by up to 5.2 standard errors (comparison end +0.0400 ± 0.0100, reference end -0.0010 ± 0.0100; the contributions of `hb` differ most)"}},
+		{"sides disagree, ends only", func(r *Result) { r.Metrics[0] = sidesMetric(9, 0.01) },
+			Warning{KindSidesDisagree, SeverityUnreliable, "fnr", []string{}, "disagree by up to 9.0 standard errors (comparison end +0.0400 ± 0.0100, reference end -0.0010 ± 0.0100):"}},
 		{"bootstrap failures", func(r *Result) {
 			r.Settings.Intervals = &IntervalSettings{Intervals: Intervals{Replicates: 50}, Failed: 3}
 		},
@@ -91,8 +98,8 @@ func TestWarningFields(t *testing.T) {
 			seen[w.Kind] = true
 		})
 	}
-	if len(seen) != 14 {
-		t.Errorf("the table covers %d kinds, want all 14", len(seen))
+	if len(seen) != 15 {
+		t.Errorf("the table covers %d kinds, want all 15", len(seen))
 	}
 }
 
@@ -125,4 +132,19 @@ func TestSeverityAtLeast(t *testing.T) {
 			}
 		}
 	}
+}
+
+// sidesMetric is warningsBase's metric with a comparison of the sides
+// whose largest z is maxZ and whose one contribution (node hb) differs by
+// diff with standard error 0.01.
+func sidesMetric(maxZ, diff float64) MetricResult {
+	se := 0.01
+	m := warningsBase().Metrics[0]
+	m.SideAgreement = &SideAgreement{
+		ComparisonEnd: SideDifference{Difference: 0.04, StdError: &se},
+		ReferenceEnd:  SideDifference{Difference: -0.001, StdError: &se},
+		MaxZ:          &maxZ,
+	}
+	m.Contributions = []Contribution{{Node: "hb", Mechanism: "hb | age", Value: 0.08, SideDifference: &SideDifference{Difference: diff, StdError: &se}}}
+	return m
 }

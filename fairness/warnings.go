@@ -39,6 +39,14 @@ const (
 	// records (grouped by the parents) falls outside this range.
 	WarnStratumLow  = 0.8
 	WarnStratumHigh = 1.25
+	// WarnSidesZ and WarnSidesZUnreliable: the two sides' estimates of a
+	// metric differ somewhere by more than this many standard errors
+	// (attribution.SideAgreement.MaxZ). The standard errors hold the
+	// fitted ratios fixed, so the threshold was calibrated on simulated
+	// clean draws rather than taken from the normal distribution; see the
+	// README's accuracy section for the false-alarm and detection rates.
+	WarnSidesZ           = 4.0
+	WarnSidesZUnreliable = 8.0
 )
 
 // Warnings lists the problems a reader of r should know about, in a fixed
@@ -48,7 +56,7 @@ const (
 // extreme ratios), effective sample size, heavy tail, largest weight
 // share, mean ratio overall and per stratum of the parents, and clipping;
 // then per side of estimation its worst hybrid; then per metric its
-// effective records and a large residual; last, failed bootstrap
+// effective records, a large residual and disagreeing sides; last, failed bootstrap
 // replicates (r.Settings.Intervals.Failed). The result is never nil.
 //
 // Effective sample sizes are judged on the side(s) that estimate the
@@ -204,9 +212,50 @@ func metricWarnings(mr MetricResult, side string) []Warning {
 		add(KindMetricRecords, SeverityUnreliable, fmt.Sprintf("for %s, %s rests on %s effective records; the estimated gap is unreliable", mr.Metric, what, thousands(int(math.Round(mr.EffectiveRecords)))))
 	}
 	if math.Abs(mr.Residual) > WarnResidualShare*math.Abs(mr.Gap) && math.Abs(mr.Residual) > WarnResidualMin {
-		add(KindLargeResidual, SeverityCaution, fmt.Sprintf("for %s the contributions add up to %.4f but the observed gap is %.4f; the residual %.4f is large, so part of the gap is not explained by the estimated mechanisms", mr.Metric, mr.Estimated, mr.Gap, mr.Residual))
+		add(KindLargeResidual, SeverityCaution, fmt.Sprintf("for %s the contributions add up to %.4f but the observed gap is %.4f; the residual %.4f is large: estimation error, or something outside the graph that differs between the groups", mr.Metric, mr.Estimated, mr.Gap, mr.Residual))
+	}
+	if w, ok := sidesWarning(mr); ok {
+		out = append(out, w)
 	}
 	return out
+}
+
+// sidesWarning speaks up when the reference-side and comparison-side
+// estimates of a metric differ by more than WarnSidesZ standard errors at
+// an end of the gap or in a contribution (SideAgreement.MaxZ); above
+// WarnSidesZUnreliable it is SeverityUnreliable. Nodes are the mechanisms
+// whose contributions differ by more than WarnSidesZ.
+func sidesWarning(mr MetricResult) (Warning, bool) {
+	a := mr.SideAgreement
+	if a == nil || a.MaxZ == nil || *a.MaxZ <= WarnSidesZ {
+		return Warning{}, false
+	}
+	sev := SeverityCaution
+	if *a.MaxZ > WarnSidesZUnreliable {
+		sev = SeverityUnreliable
+	}
+	nodes := []string{}
+	for _, c := range mr.Contributions {
+		if d := c.SideDifference; d != nil && d.StdError != nil && math.Abs(d.Difference) > WarnSidesZ**d.StdError {
+			nodes = append(nodes, c.Node)
+		}
+	}
+	where := ""
+	if len(nodes) > 0 {
+		where = fmt.Sprintf("; the contributions of %s differ most", nodeList(nodes))
+	}
+	msg := fmt.Sprintf("for %s the estimates from the reweighted reference records and from the reweighted comparison records disagree by up to %.1f standard errors (comparison end %s, reference end %s%s): the density ratios are likely wrong, or something that differs between the groups is missing from the graph; the contributions are in doubt even though the residual is %.4f",
+		mr.Metric, *a.MaxZ, plusMinus(a.ComparisonEnd), plusMinus(a.ReferenceEnd), where, mr.Residual)
+	return Warning{Kind: KindSidesDisagree, Severity: sev, Metric: mr.Metric, Nodes: nodes, Message: msg}, true
+}
+
+// plusMinus renders a side difference as "+0.0123 ± 0.0045" (one
+// standard error), without the ± part when its error is unknown.
+func plusMinus(d SideDifference) string {
+	if d.StdError == nil {
+		return fmt.Sprintf("%+.4f", d.Difference)
+	}
+	return fmt.Sprintf("%+.4f ± %.4f", d.Difference, *d.StdError)
 }
 
 // nodeList renders nodes as "`a`, `b`", or "no node" for none.

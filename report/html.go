@@ -92,6 +92,7 @@ type page struct {
 	IntervalName    string // e.g. "95% interval"
 	IntervalSetting string // how the intervals were made, or ""
 	HasStdError     bool   // some contribution has a sampling standard error
+	HasSides        bool   // some contribution has a difference between the sides
 	Diagnostics     diagnosticsView
 }
 
@@ -106,6 +107,7 @@ type metricView struct {
 	Estimated, Residual              string
 	Basis                            string // records each group's value rests on (basisPair)
 	AllRecords                       string // the gap before rows were dropped (allRecordsText), or ""
+	SidesNote, ResidualNote          string // sidesLine ("" without) and residualNote
 	Rows                             []contributionRow
 	Selected                         bool
 	TopNodes                         []string
@@ -114,6 +116,7 @@ type metricView struct {
 type contributionRow struct {
 	Node, Mechanism, Value, CI, Alone, IfEqualised string
 	StdError                                       string // "" unless sampled
+	Sides                                          string // difference between the sides, or ""
 	Direction                                      string // "up", "down" or "zero"
 	Unreliable                                     string // reason, or ""
 }
@@ -203,7 +206,8 @@ func newPage(res *fairness.Result) (*page, error) {
 			Gap: formatDelta(m.Metric, m.Gap), ReferenceCI: formatValueInterval(m.Metric, m.ReferenceCI),
 			ComparisonCI: formatValueInterval(m.Metric, m.ComparisonCI), GapCI: formatGapInterval(m),
 			Estimated: formatDelta(m.Metric, m.Estimated), Residual: formatDelta(m.Metric, m.Residual),
-			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m)}
+			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m),
+			SidesNote: sidesLine(m), ResidualNote: residualNote(res)}
 		for _, c := range m.Contributions {
 			dir := "zero"
 			switch {
@@ -229,6 +233,9 @@ func newPage(res *fairness.Result) (*page, error) {
 					row.StdError += " pts"
 				}
 				p.HasStdError = true
+			}
+			if row.Sides = contributionSides(m.Metric, c); row.Sides != "" {
+				p.HasSides = true
 			}
 			mv.Rows = append(mv.Rows, row)
 		}

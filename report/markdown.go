@@ -88,24 +88,42 @@ func mdGroupTable(p mdPrinter, res *fairness.Result) {
 // residual and the observed gap; flags marks unreliable mechanisms.
 func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult, flags map[string]string) {
 	p("### Decomposition of the %s gap\n\n", mdText(MetricTitle(m.Metric)))
-	p("| Mechanism | Contribution | %s | Alone | Gap if equalised |\n", mdText(intervalName(res)))
-	p("| --- | ---: | ---: | ---: | ---: |\n")
+	sides, extra := false, ""
+	for _, c := range m.Contributions {
+		sides = sides || c.SideDifference != nil
+	}
+	if sides {
+		extra = " |"
+		p("| Mechanism | Contribution | %s | Alone | Gap if equalised | Sides differ |\n", mdText(intervalName(res)))
+		p("| --- | ---: | ---: | ---: | ---: | ---: |\n")
+	} else {
+		p("| Mechanism | Contribution | %s | Alone | Gap if equalised |\n", mdText(intervalName(res)))
+		p("| --- | ---: | ---: | ---: | ---: |\n")
+	}
 	for _, c := range m.Contributions {
 		name := mdCodeCell(c.Mechanism)
 		if _, ok := flags[c.Node]; ok {
 			name += " (unreliable)"
 		}
 		if c.NotEstimable {
-			p("| %s | %s | – | – | – |\n", name, notEstimable)
+			p("| %s | %s | – | – | – |%s\n", name, notEstimable, strings.Repeat(" – |", len(extra)/2))
 			continue
 		}
-		p("| %s | %s | %s | %s | %s |\n", name, formatDelta(m.Metric, c.Value),
+		row := fmt.Sprintf("| %s | %s | %s | %s | %s |", name, formatDelta(m.Metric, c.Value),
 			orDash(formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)),
 			formatDelta(m.Metric, c.Alone), formatDelta(m.Metric, c.IfEqualised))
+		if sides {
+			row += " " + orDash(contributionSides(m.Metric, c)) + " |"
+		}
+		p("%s\n", row)
 	}
-	p("| Sum of contributions | %s | | | |\n", formatDelta(m.Metric, m.Estimated))
-	p("| Residual (not assigned) | %s | | | |\n", formatDelta(m.Metric, m.Residual))
-	p("| Observed gap | %s | %s | | |\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)))
+	p("| Sum of contributions | %s | | | |%s\n", formatDelta(m.Metric, m.Estimated), extra)
+	p("| Residual (not assigned) | %s | | | |%s\n", formatDelta(m.Metric, m.Residual), extra)
+	p("| Observed gap | %s | %s | | |%s\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)), extra)
+	if s := sidesLine(m); s != "" {
+		p("%s\n\n", mdText(s))
+	}
+	p("%s\n\n", mdText(residualNote(res)))
 }
 
 // formatThreshold prints the decision threshold with up to four decimals.

@@ -307,7 +307,7 @@ func summaryText(res *fairness.Result, m fairness.MetricResult, st inlineStyle) 
 			fmt.Fprintf(&b, " The other %d mechanisms together contribute %s.", nRest, formatDelta(m.Metric, rest))
 		}
 	}
-	fmt.Fprintf(&b, " The contributions add up to %s; the remaining %s (residual) is estimation error the method cannot assign.",
+	fmt.Fprintf(&b, " The contributions add up to %s; the remaining %s (residual) is estimation error or the effect of something outside the graph, which the method cannot assign.",
 		formatDelta(m.Metric, m.Estimated), formatDelta(m.Metric, m.Residual))
 	return b.String()
 }

@@ -14,8 +14,10 @@ import (
 // and their sizes; per metric the reference and comparison values, the gap,
 // each mechanism's contribution (Shapley value), its effect alone v({i}) and
 // the gap if it alone were equalised v(N∖{i}) (with the Monte Carlo
-// standard error when the values were sampled), the residual
-// gap − Σ contributions and the effective records behind the estimate; then per-mechanism diagnostics, warnings and the
+// standard error when the values were sampled, and the difference between
+// the two sides' estimates when both sides estimate), the residual
+// gap − Σ contributions with what it holds, the effective records behind
+// the estimate and the comparison of the two sides; then per-mechanism diagnostics, warnings and the
 // assumptions under which the numbers hold. Columns are aligned; metric
 // values print with four decimals, differences with a sign. NaN prints as
 // "n/a". It returns the first write error.
@@ -81,10 +83,11 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	vals.write(t.w, "  ")
 	t.line("")
 
-	hasCI, hasSE := false, false
+	hasCI, hasSE, hasSides := false, false, false
 	for _, c := range m.Contributions {
 		hasCI = hasCI || (c.CILow != nil && c.CIHigh != nil)
 		hasSE = hasSE || c.StdError != nil
+		hasSides = hasSides || c.SideDifference != nil
 	}
 	head := []string{"mechanism", "contribution", "alone", "gap if equalised"}
 	right := []bool{false, true, true, true}
@@ -94,6 +97,10 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	}
 	if hasCI {
 		head = append(head, intervalName(res))
+		right = append(right, true)
+	}
+	if hasSides {
+		head = append(head, "sides differ")
 		right = append(right, true)
 	}
 	tab := textTable{header: head, right: right}
@@ -116,6 +123,9 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 			}
 			row = append(row, ci)
 		}
+		if hasSides {
+			row = append(row, contributionSides(m.Metric, c))
+		}
 		tab.add(row...)
 	}
 	sum := make([]string, len(head))
@@ -128,6 +138,10 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	if m.EffectiveRecords > 0 {
 		t.line("  effective records behind the estimated gap: %.1f", m.EffectiveRecords)
 	}
+	if s := sidesLine(m); s != "" {
+		t.line("  %s", s)
+	}
+	t.line("  %s", residualNote(res))
 	t.line("")
 }
 

@@ -201,6 +201,7 @@ func ExampleWriteText() {
 	//   lab | dx, age              +0.0400  +0.0350           +0.0200
 	//   sum of contributions       +0.0550
 	//   residual (gap - sum)       +0.0050
+	//   The residual holds estimation error and the effect of anything outside the graph that differs between the groups.
 	//
 	// Warnings
 	//   none

@@ -19,6 +19,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -31,12 +32,14 @@ type options struct {
 	cases    []string // case names; empty means all
 	metrics  []string
 	seed     uint64
-	detail   bool // also print per-metric, per-mechanism error and SD
-	sides    bool // compare estimation sides instead of learners (sides.go)
-	truth    bool // also print the ground-truth decompositions
-	coverage bool // measure bootstrap interval coverage instead (coverage.go)
-	draws    int  // independent draws per case and size in the coverage study
-	boot     int  // bootstrap replicates per draw in the coverage study
+	detail   bool            // also print per-metric, per-mechanism error and SD
+	sides    bool            // compare estimation sides instead of learners (sides.go)
+	truth    bool            // also print the ground-truth decompositions
+	coverage bool            // measure bootstrap interval coverage instead (coverage.go)
+	checks   bool            // measure how often the warnings fire instead (checks.go)
+	mix      attribution.Mix // combination of the sides in the checks study
+	draws    int             // independent draws per case and size in the coverage and checks studies
+	boot     int             // bootstrap replicates per draw in the coverage study
 }
 
 func main() {
@@ -50,6 +53,9 @@ func main() {
 	}
 	if opt.coverage {
 		study = runCoverage
+	}
+	if opt.checks {
+		study = runChecks
 	}
 	if err := study(opt, os.Stdout, os.Stderr); err != nil {
 		fmt.Fprintln(os.Stderr, "gapwise-accuracy:", err)
@@ -71,12 +77,21 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	sides := fs.Bool("sides", false, "compare estimation sides (reference, comparison, both) with the first -learners choice instead of comparing learners")
 	truth := fs.Bool("truth", false, "also print the ground-truth gap and contributions of every case")
 	coverage := fs.Bool("coverage", false, "measure the coverage of 95% bootstrap intervals over independent draws (default sizes 800, cases "+strings.Join(coverageCases, ",")+"; first -learners choice)")
-	draws := fs.Int("draws", 30, "independent draws per case and size with -coverage")
+	checks := fs.Bool("checks", false, "measure how often each warning fires on clean and broken setups (default sizes "+strconv.Itoa(checksSize)+")")
+	mixName := fs.String("mix", "", "with -checks: how both sides are combined (coalition, metric-ess, metric-variance, pick; default the library's)")
+	draws := fs.Int("draws", 30, "independent draws per case and size with -coverage and -checks")
 	boot := fs.Int("boot", 40, "bootstrap replicates (full refit) per draw with -coverage")
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
 	}
-	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, draws: *draws, boot: *boot}
+	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot}
+	if opt.checks {
+		set := map[string]bool{}
+		fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+		if !set["sizes"] {
+			*sizes = strconv.Itoa(checksSize)
+		}
+	}
 	if opt.coverage {
 		set := map[string]bool{}
 		fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
@@ -95,6 +110,14 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 			return options{}, err
 		}
 		opt.sizes = append(opt.sizes, n)
+	}
+	if *mixName != "" {
+		x, err := attribution.ParseMix(*mixName)
+		if err != nil {
+			fmt.Fprintln(stderr, "-mix:", err)
+			return options{}, err
+		}
+		opt.mix = x
 	}
 	opt.learners = split(*learners)
 	opt.cases = split(*cases)

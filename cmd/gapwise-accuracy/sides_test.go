@@ -8,6 +8,9 @@ import (
 )
 
 func TestRunSidesWritesTable(t *testing.T) {
+	if testing.Short() {
+		t.Skip("decomposes 6 estimators × 2 sizes")
+	}
 	opt, err := parseFlags([]string{"-sides", "-sizes", "400,800", "-reps", "1", "-truth-n", "8192", "-cases", "spread-wide", "-learners", "expanded"}, io.Discard)
 	if err != nil {
 		t.Fatal(err)
@@ -20,12 +23,13 @@ func TestRunSidesWritesTable(t *testing.T) {
 		t.Fatal(err)
 	}
 	text := out.String()
-	for _, want := range []string{"| case | side | n = 400 | n = 800 |", "| spread-wide (hard) | reference |", "| spread-wide (hard) | comparison |", "| spread-wide (hard) | both |", "| **all cases** | both |"} {
+	for _, want := range []string{"| case | learner, estimator | n = 400 | n = 800 |", "| spread-wide (hard) | expanded reference |", "| spread-wide (hard) | expanded comparison |",
+		"| spread-wide (hard) | expanded both/coalition |", "| spread-wide (hard) | expanded both/metric-ess |", "| **all cases** | expanded both/pick |"} {
 		if !strings.Contains(text, want) {
 			t.Errorf("output lacks %q:\n%s", want, text)
 		}
 	}
-	if got := strings.Count(text, "\n| "); got != 1+3+3 {
-		t.Errorf("%d table rows, want header + 3 case rows + 3 overall rows:\n%s", got, text)
+	if got := strings.Count(text, "\n| "); got != 1+6+6 {
+		t.Errorf("%d table rows, want header + 6 case rows + 6 overall rows:\n%s", got, text)
 	}
 }

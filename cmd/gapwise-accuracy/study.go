@@ -22,8 +22,11 @@ type cell struct {
 	errs [][][]float64
 	// residual[m][r] = observed gap − Σφ̂.
 	residual [][]float64
-	truthSE  float64 // largest Monte Carlo SE of the ground truth
-	seconds  float64 // mean Decompose wall time
+	// null lists the mechanisms whose true contribution is 0
+	// (scm.Case.Null), for nullAbs.
+	null    []int
+	truthSE float64 // largest Monte Carlo SE of the ground truth
+	seconds float64 // mean Decompose wall time
 }
 
 // run computes the ground truth of every case, then decomposes reps fresh
@@ -118,6 +121,30 @@ func (c *cell) maxAbs() float64 {
 	for _, byMech := range c.errs {
 		for _, e := range byMech {
 			for _, x := range e {
+				mx = math.Max(mx, math.Abs(x))
+			}
+		}
+	}
+	return mx
+}
+
+// add records the errors and residuals of one decomposition.
+func (c *cell) add(d *attribution.Decomposition, truth []scm.Truth) {
+	for m, md := range d.Metrics {
+		for i, phi := range md.Contributions {
+			c.errs[m][i] = append(c.errs[m][i], phi-truth[m].Shapley[i])
+		}
+		c.residual[m] = append(c.residual[m], md.Residual)
+	}
+}
+
+// nullAbs is the null-mechanism error: the largest |φ̂| (= |φ̂ − φ|, since
+// φ = 0) over the null mechanisms, metrics and replicates.
+func (c *cell) nullAbs() float64 {
+	var mx float64
+	for _, byMech := range c.errs {
+		for _, i := range c.null {
+			for _, x := range byMech[i] {
 				mx = math.Max(mx, math.Abs(x))
 			}
 		}
