@@ -269,7 +269,7 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 	if err != nil {
 		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
 	}
-	vars := sideVarianceSet(sides, names, opt, mix, diag, diag)
+	vars := sideVarianceSet(sides, names, opt, mix, diag, diag || mix == MixMechanism || mix == MixGuarded)
 	var values [][]float64
 	switch {
 	case len(sides) == 1:
@@ -280,6 +280,10 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 			return err
 		}
 		values = combineByESS(perSide, ess)
+	case mix == MixGuarded:
+		if values, err = guardedValues(mds, perSide, sides, names, vars, opt, eopt, k); err != nil {
+			return err
+		}
 	default:
 		values = combineByLambda(perSide, setLambda(mds, mixWeights(mix, sides, names, vars, opt)))
 	}
@@ -287,6 +291,11 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 	for m := range mds {
 		v := shifted(values[m])
 		fillSummary(&mds[m], ExactShapley(v, k), func(S uint64) float64 { return v[S] }, k, full)
+		if len(sides) == 2 && mix == MixMechanism {
+			if phi, ok := mechanismShapley(perSide[0][m], perSide[1][m], vars[0][m], vars[1][m], k); ok {
+				setContributions(&mds[m], phi)
+			}
+		}
 		if diag && len(sides) == 2 {
 			mds[m].Agreement = agreement(perSide, vars, m, k, true)
 		}
@@ -327,6 +336,40 @@ func setOneSideWeight(mds []MetricDecomposition, sides []*sideEstimate) {
 		l := pick01(sides[0].side == SideReference)
 		mds[m].ReferenceWeight = &l
 	}
+}
+
+// guardedValues combines the sides by MixGuarded: per metric, per
+// coalition by n_eff while the sides agree (agreement MaxZ ≤ GuardZ), by
+// MixMetricVariance's λ (recorded in ReferenceWeight) otherwise.
+func guardedValues(mds []MetricDecomposition, perSide [][][]float64, sides []*sideEstimate, names []string, vars [][]sideVariances, opt Options, eopt EngineOptions, k int) ([][]float64, error) {
+	ess, err := essAllSides(sides, eopt)
+	if err != nil {
+		return nil, err
+	}
+	byCoalition := combineByESS(perSide, ess)
+	lambda := mixWeights(MixGuarded, sides, names, vars, opt)
+	byMetric := combineByLambda(perSide, lambda)
+	out := make([][]float64, len(mds))
+	for m := range mds {
+		out[m] = byCoalition[m]
+		if z := agreement(perSide, vars, m, k, true).MaxZ; z > GuardZ {
+			out[m] = byMetric[m]
+			l := lambda[m]
+			mds[m].ReferenceWeight = &l
+		}
+	}
+	return out, nil
+}
+
+// setContributions replaces a metric's contributions by phi, with the
+// estimated gap Σφ and the residual that follow.
+func setContributions(md *MetricDecomposition, phi []float64) {
+	md.Contributions = phi
+	md.Estimated = 0
+	for _, x := range phi {
+		md.Estimated += x
+	}
+	md.Residual = md.Gap - md.Estimated
 }
 
 // exactLimit is opt.ExactLimit with its default.

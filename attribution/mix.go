@@ -30,6 +30,19 @@ import (
 //     estimates. Falls back to MixMetricESS's λ when a variance is unknown.
 //   - MixPick: per metric, the side with the smaller V_j (λ ∈ {0, 1};
 //     MixMetricESS's λ rounded when a variance is unknown).
+//   - MixMechanism: per mechanism, φ_i = λ_i·φ_ref,i + (1−λ_i)·φ_cmp,i with
+//     λ_i = U_cmp,i / (U_ref,i + U_cmp,i), U_j,i the delta-method variance
+//     of side j's Shapley value φ̂_j,i: each contribution is the
+//     inverse-variance combination of two estimates of the same φ_i. The
+//     what-if values (v({i}), v(N∖{i})) come from MixMetricVariance's game
+//     and the estimated gap is Σφ_i. Where the Shapley values' variances
+//     are not computed (sampled Shapley values, or n·2^k above
+//     phiVarianceBudget) it is MixMetricVariance.
+//   - MixGuarded: per metric, MixCoalition while the two sides agree
+//     (SideAgreement.MaxZ ≤ GuardZ), MixMetricVariance once they disagree
+//     beyond sampling noise, when the per-coalition patchwork would move
+//     the misfit of one side onto other mechanisms. Above the exact limit
+//     (sampled Shapley values) it is MixMetricVariance.
 //
 // With a metric-level λ the residual is λ·(M_cmp − M̂_ref(N)) +
 // (1−λ)·(M̂_cmp(∅) − M_ref): the far-end errors of the two sides, no longer
@@ -43,16 +56,25 @@ const (
 	MixMetricESS
 	MixMetricVariance
 	MixPick
+	MixMechanism
+	MixGuarded
 )
+
+// GuardZ is the disagreement between the sides, in standard errors, above
+// which MixGuarded leaves the per-coalition combination; it is the
+// threshold of the sides_disagree warning (fairness.WarnSidesZ).
+const GuardZ = 4.0
 
 // DefaultMix is the combination used when Options.Mix is MixDefault.
 const DefaultMix = MixCoalition
 
 // Mixes lists the combinations, for studies.
-func Mixes() []Mix { return []Mix{MixCoalition, MixMetricESS, MixMetricVariance, MixPick} }
+func Mixes() []Mix {
+	return []Mix{MixCoalition, MixMetricESS, MixMetricVariance, MixPick, MixMechanism, MixGuarded}
+}
 
-// String returns "coalition", "metric-ess", "metric-variance", "pick" or
-// "default".
+// String returns "coalition", "metric-ess", "metric-variance", "pick",
+// "mechanism" or "default".
 func (x Mix) String() string {
 	switch x {
 	case MixDefault:
@@ -65,6 +87,10 @@ func (x Mix) String() string {
 		return "metric-variance"
 	case MixPick:
 		return "pick"
+	case MixMechanism:
+		return "mechanism"
+	case MixGuarded:
+		return "guarded"
 	}
 	return fmt.Sprintf("Mix(%d)", int(x))
 }
@@ -76,7 +102,7 @@ func ParseMix(name string) (Mix, error) {
 			return x, nil
 		}
 	}
-	return MixDefault, fmt.Errorf("attribution: unknown mix %q (want coalition, metric-ess, metric-variance or pick)", name)
+	return MixDefault, fmt.Errorf("attribution: unknown mix %q (want coalition, metric-ess, metric-variance, pick, mechanism or guarded)", name)
 }
 
 func (x Mix) resolve() Mix {
@@ -87,7 +113,9 @@ func (x Mix) resolve() Mix {
 }
 
 // needsVariance reports whether the rule reads the delta-method variances.
-func (x Mix) needsVariance() bool { return x == MixMetricVariance || x == MixPick }
+func (x Mix) needsVariance() bool {
+	return x == MixMetricVariance || x == MixPick || x == MixMechanism || x == MixGuarded
+}
 
 // mixWeights returns λ_m, the weight of the reference side's game of each
 // metric under a metric-level rule (see Mix); vars[j][m] are side j's
@@ -108,7 +136,7 @@ func mixWeights(rule Mix, sides []*sideEstimate, names []string, vars [][]sideVa
 		vr, vc := vars[0][m].gap, vars[1][m].gap
 		known := !math.IsNaN(vr) && !math.IsNaN(vc) && vr+vc > 0
 		switch {
-		case rule == MixMetricVariance && known:
+		case (rule == MixMetricVariance || rule == MixMechanism || rule == MixGuarded) && known:
 			lambda[m] = vc / (vr + vc)
 		case rule == MixPick && known:
 			lambda[m] = pick01(vr <= vc)
@@ -144,4 +172,28 @@ func combineByLambda(vals [][][]float64, lambda []float64) [][]float64 {
 		}
 	}
 	return out
+}
+
+// mechanismShapley returns, for MixMechanism, per mechanism the
+// inverse-variance combination of the two sides' Shapley values of one
+// metric (games vRef, vCmp over all 2^k coalitions, variances vr, vc);
+// ok is false when a Shapley value's variance is unknown.
+func mechanismShapley(vRef, vCmp []float64, vr, vc sideVariances, k int) (phi []float64, ok bool) {
+	if vr.phi == nil || vc.phi == nil {
+		return nil, false
+	}
+	pr, pc := ExactShapley(shifted(vRef), k), ExactShapley(shifted(vCmp), k)
+	phi = make([]float64, k)
+	for i := range phi {
+		a, b := vr.phi[i], vc.phi[i]
+		if math.IsNaN(a) || math.IsNaN(b) {
+			return nil, false
+		}
+		l := 0.5
+		if a+b > 0 {
+			l = b / (a + b)
+		}
+		phi[i] = l*pr[i] + (1-l)*pc[i]
+	}
+	return phi, true
 }

@@ -153,6 +153,10 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		columns[n.Node] = n.Columns
 	}
 	addEstimates(r, dec, columns)
+	for i, md := range dec.Metrics {
+		r.Metrics[i].RecordsReference, r.Metrics[i].RecordsComparison = metricBasis(spec, d, md.Metric)
+		r.Metrics[i].AllRecords = allRecords(spec, d.Complete, md.Metric)
+	}
 	return r
 }
 
@@ -163,10 +167,7 @@ func addEstimates(r *Result, dec *attribution.Decomposition, columns map[string]
 		r.Mechanisms = append(r.Mechanisms, mechanismResult(m, columns[m.Mechanism.Node], r.Groups.NReference))
 	}
 	for _, md := range dec.Metrics {
-		mr := metricResult(md, dec.Mechanisms)
-		mr.RecordsReference, mr.RecordsComparison = metricBasis(spec, d, md.Metric)
-		mr.AllRecords = allRecords(spec, d.Complete, md.Metric)
-		r.Metrics = append(r.Metrics, mr)
+		r.Metrics = append(r.Metrics, metricResult(md, dec.Mechanisms))
 	}
 	for _, w := range dec.Weights {
 		r.Weights = append(r.Weights, WeightSide{

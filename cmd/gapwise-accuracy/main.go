@@ -78,7 +78,7 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	truth := fs.Bool("truth", false, "also print the ground-truth gap and contributions of every case")
 	coverage := fs.Bool("coverage", false, "measure the coverage of 95% bootstrap intervals over independent draws (default sizes 800, cases "+strings.Join(coverageCases, ",")+"; first -learners choice)")
 	checks := fs.Bool("checks", false, "measure how often each warning fires on clean and broken setups (default sizes "+strconv.Itoa(checksSize)+")")
-	mixName := fs.String("mix", "", "with -checks: how both sides are combined (coalition, metric-ess, metric-variance, pick; default the library's)")
+	mixName := fs.String("mix", "", "with -checks: how both sides are combined (coalition, metric-ess, metric-variance, pick, mechanism; default the library's)")
 	draws := fs.Int("draws", 30, "independent draws per case and size with -coverage and -checks")
 	boot := fs.Int("boot", 40, "bootstrap replicates (full refit) per draw with -coverage")
 	if err := fs.Parse(args); err != nil {
