@@ -9,7 +9,7 @@ import (
 
 func TestRunSidesWritesTable(t *testing.T) {
 	if testing.Short() {
-		t.Skip("decomposes 7 estimators × 2 sizes")
+		t.Skip("decomposes every estimator × 2 sizes")
 	}
 	opt, err := parseFlags([]string{"-sides", "-sizes", "400,800", "-reps", "1", "-truth-n", "8192", "-cases", "spread-wide", "-learners", "expanded"}, io.Discard)
 	if err != nil {
@@ -29,7 +29,7 @@ func TestRunSidesWritesTable(t *testing.T) {
 			t.Errorf("output lacks %q:\n%s", want, text)
 		}
 	}
-	if got := strings.Count(text, "\n| "); got != 1+7+7 {
-		t.Errorf("%d table rows, want header + 7 case rows + 7 overall rows:\n%s", got, text)
+	if got, e := strings.Count(text, "\n| "), len(studyEstimators()); got != 1+2*e {
+		t.Errorf("%d table rows, want header + %d case rows + %d overall rows:\n%s", got, e, e, text)
 	}
 }
