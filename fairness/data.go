@@ -489,7 +489,7 @@ func (l *csvLoader) checkGroups() error {
 		seen  int
 	}{{spec.Groups.Reference, l.seenRef}, {spec.Groups.Comparison, l.seenCmp}} {
 		if gc.seen == 0 {
-			return l.derr(0, spec.Groups.Column, wrapf(ErrGroupAbsent, "group value %q does not appear in the column", gc.value))
+			return l.derr(0, spec.Groups.Column, wrapf(ErrGroupAbsent, "group value %q does not appear in the column%s", gc.value, l.presentValues(gc.value)))
 		}
 	}
 	nRef, nCmp := l.d.Counts()
@@ -502,6 +502,42 @@ func (l *csvLoader) checkGroups() error {
 		}
 	}
 	return nil
+}
+
+// presentValues lists, for the message on an absent group value, the
+// values the group column does hold (the chosen ones and the most frequent
+// others, with their rows), marking those that differ from absent only in
+// case or spacing; "" when the column holds none.
+func (l *csvLoader) presentValues(absent string) string {
+	type seen struct {
+		value string
+		rows  int
+	}
+	var vals []seen
+	for _, c := range []seen{{l.spec.Groups.Reference, l.seenRef}, {l.spec.Groups.Comparison, l.seenCmp}} {
+		if c.rows > 0 {
+			vals = append(vals, c)
+		}
+	}
+	for _, e := range l.excluded.list(absent, absent) {
+		vals = append(vals, seen{e.Value, e.Rows})
+	}
+	if len(vals) == 0 {
+		return ""
+	}
+	var parts []string
+	for i, v := range vals {
+		if i == 6 {
+			parts = append(parts, "...")
+			break
+		}
+		p := fmt.Sprintf("%q (%s", v.value, rowsText(v.rows))
+		if resembles(v.value, absent, absent) != "" {
+			p += ", differs only in case or spacing"
+		}
+		parts = append(parts, p+")")
+	}
+	return "; it holds " + strings.Join(parts, ", ")
 }
 
 // isMissing reports whether a trimmed cell is a missing value: empty, NA or

@@ -116,6 +116,14 @@ func looseKey(s string) string {
 	}, s)
 }
 
+// rowsText reads "1 row" or "1,234 rows".
+func rowsText(n int) string {
+	if n == 1 {
+		return "1 row"
+	}
+	return thousands(n) + " rows"
+}
+
 // excludedWarnings reports each excluded value that resembles a chosen
 // one: a capitalisation or spacing slip in the data or the spec that
 // leaves records out of the audit. Never nil.
@@ -126,8 +134,8 @@ func excludedWarnings(g GroupInfo) []Warning {
 			continue
 		}
 		out = append(out, Warning{Kind: KindGroupValueNearMiss, Severity: SeverityCaution, Nodes: []string{},
-			Message: fmt.Sprintf("%s rows have group value %q, which differs from the chosen value %q only in letter case or spacing; they are excluded from the audit (check groups in the spec, or correct the data)",
-				thousands(e.Rows), e.Value, e.Resembles)})
+			Message: fmt.Sprintf("%s with group value %q, which differs from the chosen value %q only in letter case or spacing; they are excluded from the audit (check groups in the spec, or correct the data)",
+				rowsText(e.Rows), e.Value, e.Resembles)})
 	}
 	return out
 }

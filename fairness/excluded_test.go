@@ -1,6 +1,7 @@
 package fairness
 
 import (
+	"errors"
 	"fmt"
 	"reflect"
 	"strings"
@@ -48,7 +49,7 @@ func TestReadDataExcludedValues(t *testing.T) {
 			t.Errorf("warning %+v", w)
 		}
 	}
-	if !strings.Contains(ws[0].Message, `2 rows have group value "North", which differs from the chosen value "north"`) {
+	if !strings.Contains(ws[0].Message, `2 rows with group value "North", which differs from the chosen value "north"`) {
 		t.Errorf("first warning %q", ws[0].Message)
 	}
 }
@@ -78,5 +79,16 @@ func TestExcludedCounterBounds(t *testing.T) {
 	l := d.list("a", "b")
 	if len(l) != 1 || l[0].Rows != 2 || len(l[0].Value) > maxExcludedValueBytes+len("…") || !strings.HasSuffix(l[0].Value, "é…") {
 		t.Errorf("long values: %d listed, %+v", len(l), l)
+	}
+}
+
+// TestAbsentGroupListsValues: a group value that never occurs is refused
+// with the values the column holds, a near-miss marked.
+func TestAbsentGroupListsValues(t *testing.T) {
+	csv := "clinic,sex,dx,hb,mcv,score\nnorth,F,1,11,80,0.7\nnorth,M,0,14,90,0.2\nSouth,F,1,11,80,0.7\nSouth,M,0,14,90,0.2\neast,M,0,14,90,0.2\n"
+	_, err := ReadData(strings.NewReader(csv), "cohort.csv", dataSpec(t, ""))
+	want := `group value "south" does not appear in the column; it holds "north" (2 rows), "South" (2 rows, differs only in case or spacing), "east" (1 row)`
+	if !errors.Is(err, ErrGroupAbsent) || !strings.Contains(err.Error(), want) {
+		t.Errorf("error %v\nwant %s", err, want)
 	}
 }

@@ -365,7 +365,7 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		}
 		s.Title = v.Value
 	default:
-		return specErr(p.file, k.Line, k.Value, ErrUnknownKey, "unknown key %q", k.Value)
+		return p.unknownKey(k.Line, k.Value, k.Value, topKeys)
 	}
 	return err
 }
@@ -497,7 +497,7 @@ func (p *specParser) groups(s *Spec, v *yaml.Node) error {
 		case "comparison":
 			dst = &s.Groups.Comparison
 		default:
-			return specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
+			return p.unknownKey(k.Line, key, k.Value, groupKeys)
 		}
 		sv, err := p.str(key, val)
 		*dst = sv
@@ -541,7 +541,7 @@ func (p *specParser) intervals(s *Spec, v *yaml.Node) error {
 		case "keep_ratios":
 			err = p.decode(key, val, &s.Intervals.KeepRatios, "true or false")
 		default:
-			err = specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
+			err = p.unknownKey(k.Line, key, k.Value, intervalKeys)
 		}
 		return err
 	})
@@ -599,7 +599,7 @@ func (p *specParser) graph(s *Spec, v *yaml.Node) error {
 			case "parents":
 				n.Parents, n.parentLines, err = p.strs(key, val)
 			default:
-				err = specErr(p.file, k.Line, key, ErrUnknownKey, "unknown key %q", k.Value)
+				err = p.unknownKey(k.Line, key, k.Value, graphNodeKeys)
 			}
 			return err
 		})

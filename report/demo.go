@@ -11,9 +11,12 @@ import (
 )
 
 // DemoOutputs names the files the demo wrote: the folder and the base
-// names of the cohort, the spec, the result and the report in it.
+// names of the cohort, the spec, the result and the report in it, and
+// Command, how the user runs gapwise ("gapwise", or "go run ./cmd/gapwise";
+// "" means "gapwise"), for the hint of what to run next.
 type DemoOutputs struct {
 	Dir, Data, Spec, Result, Report string
+	Command                         string
 }
 
 // DemoSummary writes what `gapwise demo` prints after its audit: per
@@ -47,9 +50,19 @@ func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
 		}
 		fmt.Fprintln(w, line)
 	}
+	if len(res.Warnings) > 0 {
+		fmt.Fprintln(w, "\nWarnings:")
+		for _, wr := range res.Warnings {
+			fmt.Fprintf(w, "  - %s: %s\n", wr.Severity, pt(wr.Message))
+		}
+	}
+	command := out.Command
+	if command == "" {
+		command = "gapwise"
+	}
 	fmt.Fprintf(w, "\nWrote %s, %s, %s and %s in %s\n", pt(out.Data), pt(out.Spec), pt(out.Result), pt(out.Report), pt(out.Dir))
-	fmt.Fprintf(w, "Open %s in a browser, or run: gapwise decompose --spec %s\n",
-		pt(filepath.Join(out.Dir, out.Report)), pt(filepath.Join(out.Dir, out.Spec)))
+	fmt.Fprintf(w, "Open %s in a browser, or run: %s decompose --spec %s\n",
+		pt(filepath.Join(out.Dir, out.Report)), pt(command), pt(filepath.Join(out.Dir, out.Spec)))
 }
 
 // Largest returns the estimable contribution of largest magnitude (the

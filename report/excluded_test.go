@@ -71,3 +71,19 @@ func TestExcludedInEveryOutput(t *testing.T) {
 		t.Error("HTML does not show the quoted value escaped")
 	}
 }
+
+// TestDemoSummaryWarningsAndCommand: the demo summary lists the warnings
+// with their severity and hints the command the user ran.
+func TestDemoSummaryWarningsAndCommand(t *testing.T) {
+	res := handResult()
+	res.Warnings = []fairness.Warning{{Kind: fairness.KindSmallGroup, Severity: fairness.SeverityNote, Message: "group \"men\" is small"}}
+	var b strings.Builder
+	if err := DemoSummary(&b, res, DemoOutputs{Dir: "d", Data: "c.csv", Spec: "s.yaml", Result: "r.json", Report: "r.html", Command: "go run ./cmd/gapwise"}); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"Warnings:\n  - note: group \"men\" is small\n", "or run: go run ./cmd/gapwise decompose --spec d/s.yaml"} {
+		if !strings.Contains(b.String(), want) {
+			t.Errorf("summary lacks %q:\n%s", want, b.String())
+		}
+	}
+}

@@ -39,7 +39,7 @@ type decomposeOptions struct {
 func newDecomposeCmd(stdout, stderr io.Writer) *cobra.Command {
 	var o decomposeOptions
 	cmd := &cobra.Command{
-		Use:   "decompose --spec FILE",
+		Use:   "decompose --spec FILE | decompose FILE",
 		Short: "Split each metric's gap between the groups into mechanism contributions",
 		Long: `decompose runs the audit described by a spec file and prints, per metric,
 the two groups' values, the gap and its split into the contributions of the
@@ -55,20 +55,22 @@ the spec or the data is refused.
 0: none, which keeps decompose fast) at --level (default 0.95); each replicate
 refits the classifiers unless --fast-intervals keeps the fitted ratios. The
 flags override the spec's intervals key.`,
-		Args: cobra.NoArgs,
-		RunE: func(cmd *cobra.Command, _ []string) error {
+		Args: cobra.MaximumNArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := specFromArgs(cmd, args, &o.spec); err != nil {
+				return wrapRun(err)
+			}
 			o.intervals.markSet(cmd)
 			return wrapRun(runDecompose(o, stdout, stderr))
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&o.spec, "spec", "", "audit spec (YAML) `file`")
-	f.StringVar(&o.out, "out", "", "also write result.json and report.html into `folder`")
-	f.StringVar(&o.format, "format", formatText, "output on stdout: text, json or markdown")
-	f.IntVar(&o.workers, "workers", 0, "goroutines for estimation (0: one per CPU); results do not depend on it")
+	f.StringVar(&o.spec, "spec", "", "audit spec (YAML) `FILE`; may also be given as the one argument")
+	f.StringVar(&o.out, "out", "", "also write result.json and report.html into `DIR`")
+	f.StringVar(&o.format, "format", formatText, "output on stdout: `text|json|markdown`")
+	f.IntVar(&o.workers, "workers", 0, "`N` goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty --out folder, replacing result.json and report.html")
 	bindIntervalFlags(cmd, &o.intervals, 0, false)
-	_ = cmd.MarkFlagRequired("spec")
 	return cmd
 }
 

@@ -4,7 +4,9 @@ import (
 	"bytes"
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
+	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -55,10 +57,10 @@ By default the audit adds 95% intervals from 100 fast bootstrap replicates
 		},
 	}
 	f := cmd.Flags()
-	f.StringVar(&o.out, "out", "gapwise-demo", "`folder` for the cohort, spec and outputs")
-	f.IntVar(&o.rows, "rows", 12000, "number of screened adults to generate")
-	f.Uint64Var(&o.seed, "seed", 1, "seed of the cohort generator")
-	f.IntVar(&o.workers, "workers", 0, "goroutines for estimation (0: one per CPU); results do not depend on it")
+	f.StringVar(&o.out, "out", "gapwise-demo", "`DIR` for the cohort, spec and outputs")
+	f.IntVar(&o.rows, "rows", 12000, "`N` screened adults to generate")
+	f.Uint64Var(&o.seed, "seed", 1, "seed `S` of the cohort generator")
+	f.IntVar(&o.workers, "workers", 0, "`N` goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty folder, replacing the demo's files")
 	bindIntervalFlags(cmd, &o.intervals, demoIntervals, true)
 	return cmd
@@ -121,5 +123,17 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	}
 	return report.DemoSummary(stdout, res, report.DemoOutputs{
 		Dir: o.out, Data: demoData, Spec: demoSpec, Result: resultFile, Report: reportFile,
+		Command: invokedAs(),
 	})
+}
+
+// invokedAs says how the user ran gapwise, for the demo's hint: a binary
+// that `go run` built lives in a temporary go-build folder (the go
+// command's documented temporary work directory), and running that path
+// again would fail, so the hint then reads "go run ./cmd/gapwise".
+func invokedAs() string {
+	if strings.Contains(filepath.ToSlash(os.Args[0]), "/go-build") {
+		return "go run ./cmd/gapwise"
+	}
+	return "gapwise"
 }

@@ -28,7 +28,11 @@ func TestExitCodes(t *testing.T) {
 	}{
 		{"unknown flag", []string{"decompose", "--spec", "x.yaml", "--bogus"}, exitInput, "unknown flag: --bogus"},
 		{"unknown command", []string{"explain"}, exitInput, `unknown command "explain"`},
-		{"missing spec", []string{"decompose"}, exitInput, `required flag(s) "spec" not set`},
+		{"missing spec", []string{"decompose"}, exitInput, "no spec given: run gapwise decompose --spec FILE (or gapwise decompose FILE)"},
+		{"spec twice", []string{"decompose", "--spec", "a.yaml", "b.yaml"}, exitInput, "the spec is given twice (--spec a.yaml and b.yaml)"},
+		{"positional spec", []string{"check", filepath.Join(dir, "nope.yaml")}, exitInput, "nope.yaml: spec file not found"},
+		{"two arguments", []string{"check", "a.yaml", "b.yaml"}, exitInput, "accepts at most 1 arg(s)"},
+		{"completion shell", []string{"completion", "tcsh"}, exitInput, "unknown shell tcsh"},
 		{"stray argument", []string{"check", "--spec", "x.yaml", "extra"}, exitInput, "extra"},
 		{"bad format", []string{"decompose", "--spec", "x.yaml", "--format", "xml"}, exitInput, `--format must be text, json or markdown, got "xml"`},
 		{"negative workers", []string{"decompose", "--spec", "x.yaml", "--workers", "-1"}, exitInput, "--workers must be 0 or more"},

@@ -30,8 +30,8 @@ type intervalOptions struct {
 // with the given defaults.
 func bindIntervalFlags(cmd *cobra.Command, o *intervalOptions, replicates int, fast bool) {
 	f := cmd.Flags()
-	f.IntVar(&o.flags.Replicates, flagIntervals, replicates, "bootstrap replicates for percentile intervals (0: no intervals)")
-	f.Float64Var(&o.flags.Level, flagLevel, fairness.DefaultIntervalLevel, "level of the bootstrap intervals, strictly between 0 and 1")
+	f.IntVar(&o.flags.Replicates, flagIntervals, replicates, "`N` bootstrap replicates for percentile intervals (0: no intervals)")
+	f.Float64Var(&o.flags.Level, flagLevel, fairness.DefaultIntervalLevel, "level `L` of the bootstrap intervals, strictly between 0 and 1")
 	f.BoolVar(&o.flags.KeepRatios, flagFastIntervals, fast, "bootstrap with the fitted density ratios instead of refitting the classifiers (faster, narrower intervals)")
 }
 

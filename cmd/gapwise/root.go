@@ -20,8 +20,11 @@ func newRootCmd(stdout, stderr io.Writer) *cobra.Command {
 		Long: `gapwise splits the gap in a performance metric (false-negative rate,
 false-positive rate, calibration, ...) between a reference and a comparison
 group into the contributions of the mechanisms of a causal graph over the
-recorded variables (Shapley values over mechanism shifts, estimated by
-reweighting the reference group's records).
+recorded variables (Shapley values over mechanism shifts). Each hybrid of
+the two groups is estimated by reweighting records with density ratios from
+cross-fitted group classifiers; by default from both groups' records
+(two-sided estimation, estimate_from: both in the spec), so that neither
+group's weights alone carry the estimate.
 
 The numbers are statistical estimates under stated assumptions (the graph is
 right, no hidden confounding, independent mechanisms, overlap). They are not
@@ -37,7 +40,7 @@ clinical or legal findings.`,
 		return fmt.Errorf("%w (see '%s --help')", err, c.CommandPath())
 	})
 	root.CompletionOptions.DisableDefaultCmd = true
-	root.AddCommand(newDecomposeCmd(stdout, stderr), newCheckCmd(stdout, stderr), newDemoCmd(stdout, stderr))
+	root.AddCommand(newDecomposeCmd(stdout, stderr), newCheckCmd(stdout, stderr), newDemoCmd(stdout, stderr), newCompletionCmd(stdout))
 	return root
 }
 
