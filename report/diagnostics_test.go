@@ -91,7 +91,7 @@ func TestWriteMarkdownTitleAndLevel(t *testing.T) {
 		"## Anaemia screening, spring audit\n\nGap audit of `risk` for women vs men.",
 		"| Mechanism | Contribution | 90% interval | Alone | Gap if equalised |",
 		"Intervals in brackets: 100 bootstrap replicates",
-		"(higher for women; 90% interval [6.1, 11.8] pts)",
+		"is +9.0 pts (90% interval [+6.1, +11.8] pts)",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("missing %q in\n%s", want, out)

@@ -158,7 +158,7 @@ func TestWriteHTMLStdError(t *testing.T) {
 		r.Metrics[0].Contributions[2].StdError = ptr(0.0036)
 	})
 	rows := tableRows(t, page, "decomp-fnr")
-	if got := strings.Join(rows[2], " ‖ "); got != "hb | anaemia ‖ +6.1 pts ‖ 0.4 pts ‖ [4.8, 7.3] pts ‖ +5.8 pts ‖ +2.0 pts" {
+	if got := strings.Join(rows[2], " ‖ "); got != "hb | anaemia ‖ +6.1 pts ‖ 0.4 pts ‖ [+4.8, +7.3] pts ‖ +5.8 pts ‖ +2.0 pts" {
 		t.Errorf("hb row: %s", got)
 	}
 	if !strings.Contains(page, "Monte Carlo standard error") {

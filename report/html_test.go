@@ -90,14 +90,14 @@ func TestWriteHTMLTables(t *testing.T) {
 		row   int
 		want  []string
 	}{
-		{"metric-table", 0, []string{"false-negative rate", "12.0% [10.1%, 13.9%]", "21.0%", "+9.0 pts [6.1, 11.8] pts", "200 / 190 positives"}},
+		{"metric-table", 0, []string{"false-negative rate", "12.0% [10.1%, 13.9%]", "21.0%", "+9.0 pts [+6.1, +11.8] pts", "200 / 190 positives"}},
 		{"metric-table", 1, []string{"Brier score", "0.081", "0.074", "−0.007", "1,200 / 1,100 records"}},
 		{"decomp-fnr", 0, []string{"age", "−1.2 pts", "[−2.0, −0.4] pts", "−1.0 pts", "+9.3 pts"}},
-		{"decomp-fnr", 2, []string{"hb | anaemia", "+6.1 pts", "[4.8, 7.3] pts", "+5.8 pts", "+2.0 pts"}},
+		{"decomp-fnr", 2, []string{"hb | anaemia", "+6.1 pts", "[+4.8, +7.3] pts", "+5.8 pts", "+2.0 pts"}},
 		{"decomp-fnr", 3, []string{"ferritin | anaemia, hb unreliable", "0.0 pts", "–", "0.0 pts", "+7.9 pts"}},
 		{"decomp-fnr", 4, []string{"Sum of contributions", "+7.9 pts", "", "", ""}},
 		{"decomp-fnr", 5, []string{"Residual (not assigned)", "+1.1 pts", "", "", ""}},
-		{"decomp-fnr", 6, []string{"Observed gap", "+9.0 pts", "[6.1, 11.8] pts", "", ""}},
+		{"decomp-fnr", 6, []string{"Observed gap", "+9.0 pts", "[+6.1, +11.8] pts", "", ""}},
 		{"decomp-brier", 1, []string{"anaemia | age", "−0.004", "–", "−0.004", "−0.002"}},
 		{"diagnostics-table", 2, []string{"hb | anaemia", "hb", "quadratic", "linear", "0.810", "400", "33.3%", "2.00%", "1.012", "0.000", "0.0%", "n/a"}},
 		{"group-sizes", 0, []string{"men", "reference", "1200", "200", "3"}},

@@ -34,7 +34,7 @@ func ExampleWriteMarkdown() {
 	//
 	// Groups by `sex`: reference men (500 records, 50 events), comparison women (480 records, 48 events). Label `anaemia`, decision threshold 0.5.
 	//
-	// The false-negative rate is 16.0% for women and 10.0% for men (reference group). Of the 6.0-point gap (higher for women), 6.5 points come from how `hb` presents given `anaemia`; the mix of `age` narrows it by 1.0 points. The contributions add up to +5.5 pts; the remaining +0.5 pts (residual) is estimation error or the effect of something outside the graph, which the method cannot assign.
+	// The false-negative rate is 16.0% for women and 10.0% for men (reference group). The gap, women minus men, is +6.0 pts: the false-negative rate is higher for women. Widening the gap: how `hb` presents given `anaemia`, +6.5 pts. Narrowing it: the mix of `age`, −1.0 pts. The contributions add up to +5.5 pts; the residual, +0.5 pts, is estimation error or the effect of something outside the graph, which the method cannot assign.
 	//
 	// ### Metrics by group
 	//

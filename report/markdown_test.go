@@ -16,12 +16,12 @@ func TestWriteMarkdown(t *testing.T) {
 	// mechanism label must be escaped or the table breaks.
 	for _, want := range []string{
 		"> **Synthetic data.**",
-		"| false-negative rate | 12.0% [10.1%, 13.9%] | 21.0% | +9.0 pts [6.1, 11.8] pts |",
+		"| false-negative rate | 12.0% [10.1%, 13.9%] | 21.0% | +9.0 pts [+6.1, +11.8] pts |",
 		"| Brier score | 0.081 | 0.074 | −0.007 |",
-		"| `hb \\| anaemia` | +6.1 pts | [4.8, 7.3] pts | +5.8 pts | +2.0 pts |",
+		"| `hb \\| anaemia` | +6.1 pts | [+4.8, +7.3] pts | +5.8 pts | +2.0 pts |",
 		"| `ferritin \\| anaemia, hb` (unreliable) | 0.0 pts | – | 0.0 pts | +7.9 pts |",
 		"| Residual (not assigned) | +1.1 pts | | | |",
-		"| Observed gap | +9.0 pts | [6.1, 11.8] pts | | |",
+		"| Observed gap | +9.0 pts | [+6.1, +11.8] pts | | |",
 		"- mechanism ferritin: largest weight carries 11% of the total",
 	} {
 		if !strings.Contains(got, want) {

@@ -54,14 +54,12 @@ func formatDelta(metric string, v float64) string {
 	if math.IsNaN(v) {
 		return "n/a"
 	}
-	s := formatMagnitude(metric, v)
-	switch {
-	case isZeroText(s):
-	case v > 0:
-		s = "+" + s
-	default:
-		s = "−" + s
-	}
+	return deltaAt(metric, v, baseDecimals(metric))
+}
+
+// deltaAt prints v as formatDelta does, with dec decimals.
+func deltaAt(metric string, v float64, dec int) string {
+	s := signedAt(metric, v, dec)
 	if isProportion(metric) {
 		s += " pts"
 	}
@@ -71,20 +69,50 @@ func formatDelta(metric string, v float64) string {
 // formatMagnitude prints |v| in the metric's unit without sign or unit
 // suffix: points for proportions ("9.0"), three decimals otherwise.
 func formatMagnitude(metric string, v float64) string {
-	if isProportion(metric) {
-		return fmt.Sprintf("%.1f", 100*math.Abs(v))
-	}
-	return fmt.Sprintf("%.3f", math.Abs(v))
+	return magnitudeAt(metric, v, baseDecimals(metric))
 }
 
-// formatSigned prints v in the metric's delta unit with a leading minus
-// sign (U+2212) when negative and no unit suffix, for interval bounds.
-func formatSigned(metric string, v float64) string {
-	s := formatMagnitude(metric, v)
-	if v < 0 && !isZeroText(s) {
+// baseDecimals is how many decimals a difference in the metric prints
+// with: one for proportions (in points), three otherwise.
+func baseDecimals(metric string) int {
+	if isProportion(metric) {
+		return 1
+	}
+	return 3
+}
+
+// magnitudeAt prints |v| in the metric's delta unit with dec decimals.
+func magnitudeAt(metric string, v float64, dec int) string {
+	return strconv.FormatFloat(scaleOf(metric)*math.Abs(v), 'f', dec, 64)
+}
+
+// signedAt prints v in the metric's delta unit with dec decimals and its
+// sign ("+" or U+2212), no sign when it prints as zero, and no unit.
+func signedAt(metric string, v float64, dec int) string {
+	s := magnitudeAt(metric, v, dec)
+	switch {
+	case isZeroText(s):
+	case v > 0:
+		s = "+" + s
+	default:
 		s = "−" + s
 	}
 	return s
+}
+
+// maxExtraDecimals is how many decimals beyond baseDecimals an interval
+// may take so that its two ends print apart.
+const maxExtraDecimals = 3
+
+// intervalDecimals returns the decimals at which the ends of [lo, hi]
+// print apart: baseDecimals, or up to maxExtraDecimals more when lo < hi
+// would otherwise print as the same number ("[+0.1, +0.1]").
+func intervalDecimals(metric string, lo, hi float64) int {
+	dec := baseDecimals(metric)
+	for extra := 0; extra < maxExtraDecimals && lo != hi && signedAt(metric, lo, dec) == signedAt(metric, hi, dec); extra++ {
+		dec++
+	}
+	return dec
 }
 
 // formatValueInterval prints a bootstrap interval of a metric value, e.g.
@@ -96,13 +124,21 @@ func formatValueInterval(metric string, ci *fairness.Interval) string {
 	return "[" + formatValue(metric, ci.Low) + ", " + formatValue(metric, ci.High) + "]"
 }
 
-// formatDeltaInterval prints a bootstrap interval of a difference, e.g.
-// "[4.8, 7.3] pts"; it prints "" unless both bounds are present.
+// formatDeltaInterval prints a bootstrap interval of a difference with
+// signed ends, e.g. "[+4.8, +7.3] pts" or "[−0.1, +1.7] pts", with more
+// decimals when its ends would otherwise print the same
+// (intervalDecimals); it prints "" unless both bounds are present.
 func formatDeltaInterval(metric string, lo, hi *float64) string {
 	if lo == nil || hi == nil {
 		return ""
 	}
-	s := "[" + formatSigned(metric, *lo) + ", " + formatSigned(metric, *hi) + "]"
+	return deltaIntervalAt(metric, *lo, *hi, intervalDecimals(metric, *lo, *hi))
+}
+
+// deltaIntervalAt prints [lo, hi] as formatDeltaInterval does, with dec
+// decimals.
+func deltaIntervalAt(metric string, lo, hi float64, dec int) string {
+	s := "[" + signedAt(metric, lo, dec) + ", " + signedAt(metric, hi, dec) + "]"
 	if isProportion(metric) {
 		s += " pts"
 	}
@@ -188,15 +224,20 @@ func joinWords(items []string) string {
 	return strings.Join(items[:len(items)-1], ", ") + " and " + items[len(items)-1]
 }
 
-// summaryMentions is the largest number of contributions the summary names
-// one by one; the rest are added up in one clause.
+// summaryMentions is how many of the largest contributions the summary
+// gives with their intervals; every other mechanism is named with its
+// value alone.
 const summaryMentions = 4
 
 // Summary returns a plain-language paragraph for one metric of the Result,
-// in Markdown-style text (node names in backticks). It states the gap,
-// names the largest contributions with their intervals when present, says
-// which ones narrow rather than widen the gap, calls unreliable ones so,
-// and states the residual.
+// in Markdown-style text (node names in backticks). It states both groups'
+// values and the gap with its interval, then names every mechanism: those
+// that widen the gap, those that narrow it and those too small to show,
+// each with its contribution (the summaryMentions largest also with their
+// intervals) and a caution when it is unreliable; then the mechanisms the
+// data cannot estimate and the residual. A number and its interval are
+// written with their signs and the same decimals (intervalDecimals), so
+// that they read alike and no interval prints as one number twice.
 func Summary(res *fairness.Result, m fairness.MetricResult) string {
 	return summaryText(res, m, plainInline)
 }
@@ -204,50 +245,68 @@ func Summary(res *fairness.Result, m fairness.MetricResult) string {
 // summaryText is Summary with user text (group values, node names, the
 // metric's title) written in the style st.
 func summaryText(res *fairness.Result, m fairness.MetricResult, st inlineStyle) string {
-	title := st.text(MetricTitle(m.Metric))
-	unit := "points"
-	if !isProportion(m.Metric) {
-		unit = ""
-	}
-	amount := func(v float64) string {
-		s := formatMagnitude(m.Metric, v)
-		if unit != "" {
-			return s + " " + unit
-		}
-		return s
-	}
-	verb := " come from "
-	if unit == "" {
-		verb = " comes from "
-	}
 	var b strings.Builder
-	ref, cmp := st.text(res.Groups.Reference), st.text(res.Groups.Comparison)
-	gapWord := "gap"
-	if isProportion(m.Metric) {
-		gapWord = formatMagnitude(m.Metric, m.Gap) + "-point gap"
-	} else {
-		gapWord = "gap of " + formatMagnitude(m.Metric, m.Gap)
-	}
-	fmt.Fprintf(&b, "The %s is %s for %s and %s for %s (reference group). ", title,
-		formatValue(m.Metric, m.Comparison), cmp, formatValue(m.Metric, m.Reference), ref)
+	b.WriteString(gapSentence(res, m, st))
 	if isZeroText(formatMagnitude(m.Metric, m.Gap)) {
-		fmt.Fprintf(&b, "The two groups do not differ at the precision shown")
-		if ci := formatGapInterval(m); ci != "" {
-			fmt.Fprintf(&b, " (%s of the gap %s)", intervalName(res), ci)
-		}
-		b.WriteString(".")
 		return b.String()
+	}
+	parts := summaryParts(res, m, st)
+	switch {
+	case len(parts.widen) > 0:
+		b.WriteString(" Widening the gap: " + strings.Join(parts.widen, "; ") + ".")
+	case len(parts.narrow)+len(parts.small) > 0:
+		b.WriteString(" No mechanism widens the gap.")
+	}
+	if len(parts.narrow) > 0 {
+		b.WriteString(" Narrowing it: " + strings.Join(parts.narrow, "; ") + ".")
+	}
+	if len(parts.small) > 0 {
+		b.WriteString(" Too small to widen or narrow it at the precision shown: " + strings.Join(parts.small, "; ") + ".")
+	}
+	if len(parts.unestimable) > 0 {
+		fmt.Fprintf(&b, " The data cannot estimate the contribution of %s (see the warnings).", strings.Join(parts.unestimable, " or of "))
+	}
+	fmt.Fprintf(&b, " The contributions add up to %s; the residual, %s, is estimation error or the effect of something outside the graph, which the method cannot assign.",
+		formatDelta(m.Metric, m.Estimated), formatDelta(m.Metric, m.Residual))
+	return b.String()
+}
+
+// gapSentence states both groups' values of m and the gap with its
+// interval, or that the groups do not differ at the precision shown.
+func gapSentence(res *fairness.Result, m fairness.MetricResult, st inlineStyle) string {
+	title := st.text(MetricTitle(m.Metric))
+	ref, cmp := st.text(res.Groups.Reference), st.text(res.Groups.Comparison)
+	s := fmt.Sprintf("The %s is %s for %s and %s for %s (reference group).", title,
+		formatValue(m.Metric, m.Comparison), cmp, formatValue(m.Metric, m.Reference), ref)
+	ci := ""
+	if m.GapCI != nil {
+		ci = " (" + intervalName(res) + " " + formatDeltaInterval(m.Metric, &m.GapCI.Low, &m.GapCI.High) + ")"
+	}
+	if isZeroText(formatMagnitude(m.Metric, m.Gap)) {
+		ci = strings.Replace(ci, " interval ", " interval of the gap ", 1)
+		return s + " The two groups do not differ at the precision shown" + ci + "."
 	}
 	higher := "higher"
 	if m.Gap < 0 {
 		higher = "lower"
 	}
-	fmt.Fprintf(&b, "Of the %s (%s for %s", gapWord, higher, cmp)
-	if ci := formatGapInterval(m); ci != "" {
-		fmt.Fprintf(&b, "; %s %s", intervalName(res), ci)
+	dec := baseDecimals(m.Metric)
+	if m.GapCI != nil {
+		dec = intervalDecimals(m.Metric, m.GapCI.Low, m.GapCI.High)
 	}
-	b.WriteString("), ")
+	return s + fmt.Sprintf(" The gap, %s minus %s, is %s%s: the %s is %s for %s.", cmp, ref, deltaAt(m.Metric, m.Gap, dec), ci, title, higher, cmp)
+}
 
+// mentions is the summary's wording of every contribution of a metric,
+// sorted by the part of the gap it plays.
+type mentions struct {
+	widen, narrow, small, unestimable []string
+}
+
+// summaryParts words every contribution of m, largest |φ| first: its
+// mechanism, its value (with its interval for the summaryMentions largest)
+// and why it is unreliable; not-estimable contributions by name alone.
+func summaryParts(res *fairness.Result, m fairness.MetricResult, st inlineStyle) mentions {
 	order := make([]int, len(m.Contributions))
 	for i := range order {
 		order[i] = i
@@ -256,60 +315,40 @@ func summaryText(res *fairness.Result, m fairness.MetricResult, st inlineStyle) 
 		return math.Abs(m.Contributions[order[a]].Value) > math.Abs(m.Contributions[order[b]].Value)
 	})
 	flags := unreliable(res)
-	var widen, narrow []string
-	var rest float64
-	nRest := 0
-	var unestimable []string
+	var out mentions
 	rank := 0
 	for _, i := range order {
 		c := m.Contributions[i]
 		if c.NotEstimable {
-			unestimable = append(unestimable, mechanismPhrase(res, c.Node, st))
+			out.unestimable = append(out.unestimable, mechanismPhrase(res, c.Node, st))
 			continue
 		}
 		rank++
-		if rank > summaryMentions || isZeroText(formatMagnitude(m.Metric, c.Value)) {
-			rest += c.Value
-			nRest++
-			continue
-		}
-		ci := ""
-		if s := formatDeltaInterval(m.Metric, c.CILow, c.CIHigh); s != "" {
-			ci = " (" + intervalName(res) + " " + s + ")"
-		}
-		caution := ""
+		item := mechanismPhrase(res, c.Node, st) + ", " + contributionWords(res, m.Metric, c, rank <= summaryMentions)
 		if why, ok := flags[c.Node]; ok {
-			caution = " — unreliable: " + why
+			item += " — unreliable: " + why
 		}
-		if (c.Value > 0) == (m.Gap > 0) {
-			widen = append(widen, amount(c.Value)+ci+verb+mechanismPhrase(res, c.Node, st)+caution)
-		} else {
-			narrow = append(narrow, mechanismPhrase(res, c.Node, st)+" narrows it by "+amount(c.Value)+ci+caution)
-		}
-	}
-	switch {
-	case len(widen) > 0:
-		b.WriteString(strings.Join(widen, "; "))
-	default:
-		b.WriteString("no single mechanism widens it")
-	}
-	if len(narrow) > 0 {
-		b.WriteString("; " + strings.Join(narrow, "; "))
-	}
-	b.WriteString(".")
-	if len(unestimable) > 0 {
-		fmt.Fprintf(&b, " The data cannot estimate the contribution of %s (see the warnings).", strings.Join(unestimable, " or of "))
-	}
-	if nRest > 0 {
-		if nRest == 1 {
-			fmt.Fprintf(&b, " The remaining mechanism contributes %s.", formatDelta(m.Metric, rest))
-		} else {
-			fmt.Fprintf(&b, " The other %d mechanisms together contribute %s.", nRest, formatDelta(m.Metric, rest))
+		switch {
+		case isZeroText(formatMagnitude(m.Metric, c.Value)):
+			out.small = append(out.small, item)
+		case (c.Value > 0) == (m.Gap > 0):
+			out.widen = append(out.widen, item)
+		default:
+			out.narrow = append(out.narrow, item)
 		}
 	}
-	fmt.Fprintf(&b, " The contributions add up to %s; the remaining %s (residual) is estimation error or the effect of something outside the graph, which the method cannot assign.",
-		formatDelta(m.Metric, m.Estimated), formatDelta(m.Metric, m.Residual))
-	return b.String()
+	return out
+}
+
+// contributionWords prints a contribution with its sign, followed by its
+// interval when withCI and there is one, both with the interval's
+// decimals: "+6.1 pts (95% interval [+4.8, +7.3] pts)".
+func contributionWords(res *fairness.Result, metric string, c fairness.Contribution, withCI bool) string {
+	if !withCI || c.CILow == nil || c.CIHigh == nil {
+		return formatDelta(metric, c.Value)
+	}
+	dec := intervalDecimals(metric, *c.CILow, *c.CIHigh)
+	return deltaAt(metric, c.Value, dec) + " (" + intervalName(res) + " " + deltaIntervalAt(metric, *c.CILow, *c.CIHigh, dec) + ")"
 }
 
 // formatEdge prints a histogram bin edge with three significant digits
