@@ -150,7 +150,8 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		ref := interval(func(r []MetricDecomposition) float64 { return r[m].Reference })
 		cmp := interval(func(r []MetricDecomposition) float64 { return r[m].Comparison })
 		gap := interval(func(r []MetricDecomposition) float64 { return r[m].Gap })
-		md.ReferenceCI, md.ComparisonCI, md.GapCI = &ref, &cmp, &gap
+		res := interval(func(r []MetricDecomposition) float64 { return r[m].Residual })
+		md.ReferenceCI, md.ComparisonCI, md.GapCI, md.ResidualCI = &ref, &cmp, &gap, &res
 		md.ContributionCIs = make([]Interval, len(md.Contributions))
 		for i := range md.Contributions {
 			md.ContributionCIs[i] = interval(func(r []MetricDecomposition) float64 { return r[m].Contributions[i] })

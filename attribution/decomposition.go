@@ -100,6 +100,7 @@ type MetricDecomposition struct {
 	ReferenceCI     *Interval
 	ComparisonCI    *Interval
 	GapCI           *Interval
+	ResidualCI      *Interval
 	ContributionCIs []Interval
 }
 

@@ -231,6 +231,7 @@ func metricResult(md attribution.MetricDecomposition, mechs []attribution.Mechan
 		ReferenceCI:      interval(md.ReferenceCI),
 		ComparisonCI:     interval(md.ComparisonCI),
 		GapCI:            interval(md.GapCI),
+		ResidualCI:       interval(md.ResidualCI),
 		Contributions:    []Contribution{},
 		ReferenceWeight:  md.ReferenceWeight,
 		SideAgreement:    sideAgreement(md.Agreement),

@@ -140,9 +140,12 @@ type MetricResult struct {
 	// present, dropped or not: the question before dropping.
 	AllRecords *AllRecords `json:"all_records,omitempty"`
 	// Intervals are present when the bootstrap ran.
-	ReferenceCI   *Interval      `json:"reference_ci,omitempty"`
-	ComparisonCI  *Interval      `json:"comparison_ci,omitempty"`
-	GapCI         *Interval      `json:"gap_ci,omitempty"`
+	ReferenceCI  *Interval `json:"reference_ci,omitempty"`
+	ComparisonCI *Interval `json:"comparison_ci,omitempty"`
+	GapCI        *Interval `json:"gap_ci,omitempty"`
+	// ResidualCI is the bootstrap interval of the residual: the large
+	// residual warning fires only when it excludes zero.
+	ResidualCI    *Interval      `json:"residual_ci,omitempty"`
 	Contributions []Contribution `json:"contributions"`
 }
 

@@ -32,33 +32,19 @@ const (
 	WarnDroppedZ   = 3
 )
 
-// sampleSizeWarnings reports, per group, metrics resting on fewer than
-// WarnFewRecords records (MetricResult.RecordsReference and
-// RecordsComparison), once for all metrics that rest on the same records
-// (the FNR and TPR both on the positives), and per group a size too small
+// sampleSizeWarnings reports, once per group, the metrics that rest on
+// fewer than WarnFewRecords of its records (MetricResult.RecordsReference
+// and RecordsComparison; metrics on the same records, such as the FNR and
+// TPR on the positives, share a clause), and per group a size too small
 // for the fold count or below StudiedGroupSize. Never nil.
 func sampleSizeWarnings(r *Result) []Warning {
 	out := []Warning{}
 	g := r.Groups
-	seen := map[string]int{} // group and basis → index in out
-	for _, mr := range r.Metrics {
-		for _, side := range []struct {
-			value    string
-			basis    int
-			observed float64
-		}{{g.Reference, mr.RecordsReference, mr.Reference}, {g.Comparison, mr.RecordsComparison, mr.Comparison}} {
-			w, ok := fewRecords(mr.Metric, side.value, side.basis, side.observed)
-			if !ok {
-				continue
-			}
-			f, _ := metrics.FactOf(mr.Metric)
-			key := fmt.Sprintf("%s\x00%d\x00%d", side.value, f.Counts, side.basis)
-			if i, dup := seen[key]; dup {
-				m := strings.Replace(out[i].Message, " in group ", " and "+mr.Metric+" in group ", 1)
-				out[i].Message = strings.Replace(m, " rests on ", " rest on ", 1)
-				continue
-			}
-			seen[key] = len(out)
+	for _, side := range []struct {
+		value      string
+		comparison bool
+	}{{g.Reference, false}, {g.Comparison, true}} {
+		if w, ok := fewRecords(r.Metrics, side.value, side.comparison); ok {
 			out = append(out, w)
 		}
 	}
@@ -73,30 +59,66 @@ func sampleSizeWarnings(r *Result) []Warning {
 	return out
 }
 
-// fewRecords is the warning on a metric resting on basis records of the
-// group with value group, whose observed value is v. For a share of
-// records the message gives its standard error,
-// √(p̃(1 − p̃)/(m + 4)) with p̃ = (m·v + 2)/(m + 4), the adjusted Wald
-// form of Agresti & Coull (1998, The American Statistician 52:119; from
-// memory), which stays above zero when v is 0 or 1.
-func fewRecords(metric, group string, basis int, v float64) (Warning, bool) {
-	if basis >= WarnFewRecords {
+// fewRecords is the warning on the metrics that rest on fewer than
+// WarnFewRecords records of one group (caution; unreliable below
+// WarnVeryFewRecords). For a share of m records with observed value v the
+// clause gives its standard error √(p̃(1 − p̃)/(m + 4)) with
+// p̃ = (m·v + 2)/(m + 4), the adjusted Wald form of Agresti & Coull (1998,
+// The American Statistician 52:119; from memory), which stays above zero
+// when v is 0 or 1. Metric is set when one metric is concerned.
+func fewRecords(ms []MetricResult, group string, comparison bool) (Warning, bool) {
+	type clause struct {
+		metrics []string
+		text    string
+	}
+	var clauses []clause
+	index := map[string]int{}
+	sev := SeverityCaution
+	for _, mr := range ms {
+		basis, v := mr.RecordsReference, mr.Reference
+		if comparison {
+			basis, v = mr.RecordsComparison, mr.Comparison
+		}
+		if basis >= WarnFewRecords {
+			continue
+		}
+		if basis < WarnVeryFewRecords {
+			sev = SeverityUnreliable
+		}
+		f, _ := metrics.FactOf(mr.Metric)
+		text := fmt.Sprintf("%s %s", thousands(basis), f.BasisNoun())
+		if f.Proportion {
+			m := float64(basis)
+			p := (m*v + 2) / (m + 4)
+			text += fmt.Sprintf(" (standard error about %.2f)", math.Sqrt(p*(1-p)/(m+4)))
+		}
+		key := fmt.Sprintf("%d\x00%d", f.Counts, basis)
+		if i, ok := index[key]; ok {
+			clauses[i].metrics = append(clauses[i].metrics, mr.Metric)
+			continue
+		}
+		index[key] = len(clauses)
+		clauses = append(clauses, clause{[]string{mr.Metric}, text})
+	}
+	if len(clauses) == 0 {
 		return Warning{}, false
 	}
-	f, _ := metrics.FactOf(metric)
-	sev := SeverityCaution
-	if basis < WarnVeryFewRecords {
-		sev = SeverityUnreliable
+	parts := make([]string, len(clauses))
+	var names []string
+	for i, c := range clauses {
+		verb := " rests on "
+		if len(c.metrics) > 1 {
+			verb = " rest on "
+		}
+		parts[i] = strings.Join(c.metrics, " and ") + verb + c.text
+		names = append(names, c.metrics...)
 	}
-	msg := fmt.Sprintf("%s in group %q rests on %s %s", metric, group, thousands(basis), f.BasisNoun())
-	if f.Proportion {
-		m := float64(basis)
-		p := (m*v + 2) / (m + 4)
-		msg += fmt.Sprintf(": its value has a standard error of about %.2f, so gaps and contributions of that size cannot be told from chance", math.Sqrt(p*(1-p)/(m+4)))
-	} else {
-		msg += "; its value, the gap and the contributions are imprecise"
+	w := Warning{Kind: KindFewRecords, Severity: sev, Nodes: []string{},
+		Message: fmt.Sprintf("in group %q, %s: a value from so few records is imprecise, and gaps and contributions of the size of its standard error cannot be told from chance", group, strings.Join(parts, ", "))}
+	if len(names) == 1 {
+		w.Metric = names[0]
 	}
-	return Warning{Kind: KindFewRecords, Severity: sev, Metric: metric, Nodes: []string{}, Message: msg}, true
+	return w, true
 }
 
 // smallGroup is the warning on a group of n records cross-fitted with

@@ -66,9 +66,13 @@ const (
 func Warnings(r *Result) []Warning {
 	out := append(dataWarnings(r.Groups), sampleSizeWarnings(r)...)
 	out = append(out, modelInputWarnings(r.ModelInputs, r.Groups.Column, r.Score, scoreIsNode(r), r.Details)...)
+	down := downstreamOfSeparation(r)
 	for _, m := range r.Mechanisms {
-		out = append(out, mechanismWarnings(r, m)...)
+		if !down[m.Node] {
+			out = append(out, mechanismWarnings(r, m)...)
+		}
 	}
+	out = append(out, inheritedSeparationWarnings(r, down)...)
 	out = append(out, hybridWarnings(r)...)
 	for _, mr := range r.Metrics {
 		out = append(out, metricWarnings(mr, r.Settings.EstimateFrom)...)
@@ -92,9 +96,12 @@ func scoreIsNode(r *Result) bool {
 }
 
 // lowESS reports whether an effective sample size ess out of n records is
-// too low: below WarnESSShare·n or below WarnESSMin.
+// too low: below WarnESSShare·n, or below WarnESSMin while also below half
+// of n (in a group of a few dozen records the floor of WarnESSMin says
+// nothing the small_group warning does not; a weighting that keeps most
+// of the records is not the problem there).
 func lowESS(ess float64, n int) bool {
-	return ess < WarnESSShare*float64(n) || ess < WarnESSMin
+	return ess < WarnESSShare*float64(n) || (ess < WarnESSMin && ess < 0.5*float64(n))
 }
 
 // mechanismWarnings runs the checks of one mechanism, each warning naming
@@ -181,7 +188,7 @@ func essWarning(r *Result, m MechanismResult) (string, Severity) {
 func hybridWarnings(r *Result) []Warning {
 	var out []Warning
 	if r.Settings.EstimateFrom == "both" {
-		return out
+		return bothHybridsWarning(r)
 	}
 	for _, w := range r.Weights {
 		if lowESS(w.Worst.ESS, w.Records) {
@@ -201,7 +208,7 @@ func metricWarnings(mr MetricResult, side string) []Warning {
 	add := func(kind WarningKind, sev Severity, msg string) {
 		out = append(out, Warning{Kind: kind, Severity: sev, Metric: mr.Metric, Nodes: []string{}, Message: msg})
 	}
-	if mr.EffectiveRecords < WarnESSMin {
+	if basis := float64(mr.RecordsReference + mr.RecordsComparison); mr.EffectiveRecords < WarnESSMin && (basis == 0 || mr.EffectiveRecords < 0.5*basis) {
 		what := "the reweighted comparison group"
 		switch side {
 		case "comparison":
@@ -211,8 +218,8 @@ func metricWarnings(mr MetricResult, side string) []Warning {
 		}
 		add(KindMetricRecords, SeverityUnreliable, fmt.Sprintf("for %s, %s rests on %s effective records; the estimated gap is unreliable", mr.Metric, what, thousands(int(math.Round(mr.EffectiveRecords)))))
 	}
-	if math.Abs(mr.Residual) > WarnResidualShare*math.Abs(mr.Gap) && math.Abs(mr.Residual) > WarnResidualMin {
-		add(KindLargeResidual, SeverityCaution, fmt.Sprintf("for %s the contributions add up to %.4f but the observed gap is %.4f; the residual %.4f is large: estimation error, or something outside the graph that differs between the groups", mr.Metric, mr.Estimated, mr.Gap, mr.Residual))
+	if msg := residualWarning(mr); msg != "" {
+		add(KindLargeResidual, SeverityCaution, msg)
 	}
 	if w, ok := sidesWarning(mr); ok {
 		out = append(out, w)
@@ -348,7 +355,7 @@ func tailWarning(r *Result, m MechanismResult) (string, Severity) {
 		if cmp {
 			heavySide, other, kh = "comparison", "reference", *m.ComparisonTailShape
 		}
-		return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f); the two-sided estimate leans on the %s records, whose weights for it are lighter-tailed", m.Mechanism, heavySide, kh, attribution.TailInfiniteVariance, other), SeverityNote
+		return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %s > %.1f); the two-sided estimate leans on the %s records, whose weights for it are lighter-tailed", m.Mechanism, heavySide, shapeText(kh, attribution.TailInfiniteVariance), attribution.TailInfiniteVariance, other), SeverityNote
 	case side != "comparison" && side != "both" && ref:
 		k, where = *m.TailShape, "reference"
 	default:
@@ -358,7 +365,7 @@ func tailWarning(r *Result, m MechanismResult) (string, Severity) {
 	if k > attribution.TailUnreliable {
 		verdict, sev = "the estimate is unreliable at this sample size", SeverityUnreliable
 	}
-	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %.2f > %.1f): %s; %s", m.Mechanism, where, k, attribution.TailInfiniteVariance, verdict, tailAdvice(r)), sev
+	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %s > %.1f): %s; %s", m.Mechanism, where, shapeText(k, attribution.TailInfiniteVariance), attribution.TailInfiniteVariance, verdict, tailAdvice(r)), sev
 }
 
 // tailAdvice names what could lighten a heavy tail, among the settings not

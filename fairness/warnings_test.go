@@ -46,14 +46,14 @@ func TestWarnings(t *testing.T) {
 		{"ess floor", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 99.6 }, []string{`group "north" has 500 records, fewer than the 800 per group`, "rests on 100 effective records out of 500"}},
 		{"ess fine", func(r *Result) { r.Groups.NReference = 500; r.Mechanisms[0].ESS = 100 }, []string{`group "north" has 500 records`}},
 		// An FNR from 7 positives with value 3/7: p̃ = 5/11, SE √(p̃(1−p̃)/11) = 0.150 (computed by hand).
-		{"few records", func(r *Result) { r.Metrics[0].RecordsComparison, r.Metrics[0].Comparison = 7, 3.0/7 }, []string{`fnr in group "south" rests on 7 positives: its value has a standard error of about 0.15`}},
-		{"few records caution", func(r *Result) { r.Metrics[0].RecordsReference = 29 }, []string{`fnr in group "north" rests on 29 positives`}},
+		{"few records", func(r *Result) { r.Metrics[0].RecordsComparison, r.Metrics[0].Comparison = 7, 3.0/7 }, []string{`in group "south", fnr rests on 7 positives (standard error about 0.15)`}},
+		{"few records caution", func(r *Result) { r.Metrics[0].RecordsReference = 29 }, []string{`in group "north", fnr rests on 29 positives`}},
 		{"records enough", func(r *Result) { r.Metrics[0].RecordsReference = 30 }, nil},
 		{"few records once per basis", func(r *Result) {
 			r.Metrics[0].RecordsComparison = 7
 			r.Metrics = append(r.Metrics, MetricResult{Metric: "tpr", RecordsReference: 3000, RecordsComparison: 7, EffectiveRecords: 2500})
-		}, []string{`fnr and tpr in group "south" rest on 7 positives`}},
-		{"few records not a share", func(r *Result) { r.Metrics[0].Metric, r.Metrics[0].RecordsReference = "brier", 12 }, []string{`brier in group "north" rests on 12 records; its value, the gap and the contributions are imprecise`}},
+		}, []string{`in group "south", fnr and tpr rest on 7 positives`}},
+		{"few records not a share", func(r *Result) { r.Metrics[0].Metric, r.Metrics[0].RecordsReference = "brier", 12 }, []string{`in group "north", brier rests on 12 records: a value from so few records is imprecise`}},
 		{"folds too many", func(r *Result) { r.Groups.NComparison, r.Settings.Folds = 190, 10 }, []string{`group "south" has 190 records: with 10 folds each held-out fold holds about 19 of them`}},
 		{"max share", func(r *Result) { r.Mechanisms[0].MaxShare = 0.073 }, []string{"a single record carries 7.3% of the weight for `age`"}},
 		{"mean low", func(r *Result) { r.Mechanisms[0].MeanRatio = 0.85 }, []string{"average 0.850 over the reference records instead of 1"}},

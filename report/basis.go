@@ -97,3 +97,28 @@ func allRecordsSuffix(m fairness.MetricResult) string {
 // notEstimable is what the reports print in place of a contribution the
 // data cannot estimate (fairness.Contribution.NotEstimable).
 const notEstimable = "not estimable"
+
+// sumLabel is label for the row of Σ contributions, noting when it holds
+// contributions the reports do not show (not estimable), so that the
+// visible rows are not expected to add up to it.
+func sumLabel(m fairness.MetricResult, label string) string {
+	for _, c := range m.Contributions {
+		if c.NotEstimable {
+			return label + " (including those not estimable)"
+		}
+	}
+	return label
+}
+
+// textSides is a contribution's side difference in the text report's
+// number style ("+0.0123 ± 0.0045"), or "".
+func textSides(c fairness.Contribution) string {
+	d := c.SideDifference
+	if d == nil {
+		return ""
+	}
+	if d.StdError == nil {
+		return fmt.Sprintf("%+.4f", d.Difference)
+	}
+	return fmt.Sprintf("%+.4f ± %.4f", d.Difference, *d.StdError)
+}

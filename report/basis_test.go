@@ -58,7 +58,7 @@ func TestNotEstimableInEveryOutput(t *testing.T) {
 		t.Fatal(err)
 	}
 	for name, out := range map[string]string{"text": text.String(), "markdown": md.String(), "html": page.String()} {
-		if !strings.Contains(out, "not estimable") {
+		if !strings.Contains(out, "not estimable") || !strings.Contains(strings.ToLower(out), "sum of contributions (including those not estimable)") {
 			t.Errorf("%s does not mark the contribution", name)
 		}
 	}

@@ -106,6 +106,7 @@ type metricView struct {
 	ReferenceCI, ComparisonCI, GapCI string
 	Estimated, Residual              string
 	Basis                            string // records each group's value rests on (basisPair)
+	SumLabel                         string // "Sum of contributions", noting those not shown (sumLabel)
 	AllRecords                       string // the gap before rows were dropped (allRecordsText), or ""
 	SidesNote, ResidualNote          string // sidesLine ("" without) and residualNote
 	Rows                             []contributionRow
@@ -207,7 +208,7 @@ func newPage(res *fairness.Result) (*page, error) {
 			ComparisonCI: formatValueInterval(m.Metric, m.ComparisonCI), GapCI: formatGapInterval(m),
 			Estimated: formatDelta(m.Metric, m.Estimated), Residual: formatDelta(m.Metric, m.Residual),
 			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m),
-			SidesNote: sidesLine(m), ResidualNote: residualNote(res)}
+			SidesNote: sidesLine(m), ResidualNote: residualNote(res), SumLabel: sumLabel(m, "Sum of contributions")}
 		for _, c := range m.Contributions {
 			dir := "zero"
 			switch {

@@ -117,7 +117,7 @@ func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult,
 		}
 		p("%s\n", row)
 	}
-	p("| Sum of contributions | %s | | | |%s\n", formatDelta(m.Metric, m.Estimated), extra)
+	p("| %s | %s | | | |%s\n", sumLabel(m, "Sum of contributions"), formatDelta(m.Metric, m.Estimated), extra)
 	p("| Residual (not assigned) | %s | | | |%s\n", formatDelta(m.Metric, m.Residual), extra)
 	p("| Observed gap | %s | %s | | |%s\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)), extra)
 	if s := sidesLine(m); s != "" {

@@ -124,12 +124,12 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 			row = append(row, ci)
 		}
 		if hasSides {
-			row = append(row, contributionSides(m.Metric, c))
+			row = append(row, textSides(c))
 		}
 		tab.add(row...)
 	}
 	sum := make([]string, len(head))
-	sum[0], sum[1] = "sum of contributions", signed(m.Estimated)
+	sum[0], sum[1] = sumLabel(m, "sum of contributions"), signed(m.Estimated)
 	resid := make([]string, len(head))
 	resid[0], resid[1] = "residual (gap - sum)", signed(m.Residual)
 	tab.add(sum...)
