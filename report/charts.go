@@ -76,14 +76,21 @@ func encodeOptions(v any) (string, error) {
 }
 
 // itemTooltip is a data item's tooltip showing fixed HTML lines; text is
-// escaped here, and braces, which ECharts reads as template fields, are
-// replaced by parentheses.
+// escaped here, and passed through formatterText.
 func itemTooltip(lines ...string) *opts.Tooltip {
 	for i, l := range lines {
-		l = strings.NewReplacer("{", "(", "}", ")").Replace(l)
-		lines[i] = html.EscapeString(l)
+		lines[i] = html.EscapeString(formatterText(l))
 	}
 	return &opts.Tooltip{Formatter: types.FuncStr(strings.Join(lines, "<br>"))}
+}
+
+// formatterText makes text safe to show as an ECharts formatter string
+// (labels and tooltips): ECharts reads {a} to {e}, {@dimension} and, in
+// labels, {style|text} in such a string as template fields and rich-text
+// styles (its formatTpl and rich text), so braces are replaced by
+// parentheses, which show the name all the same.
+func formatterText(text string) string {
+	return strings.NewReplacer("{", "(", "}", ")").Replace(text)
 }
 
 // plainTooltip is an item-triggered tooltip in the report's style.

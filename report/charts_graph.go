@@ -161,7 +161,7 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 				it.(map[string]any)["label"] = map[string]any{"color": "#FFFFFF"}
 			}
 			if v, ok := contrib[nodes[i].Name]; ok {
-				it.(map[string]any)["label"] = mergeLabel(it.(map[string]any)["label"], nodes[i].Name+"\n"+formatDelta(m.Metric, v))
+				it.(map[string]any)["label"] = mergeLabel(it.(map[string]any)["label"], formatterText(nodes[i].Name)+"\n"+formatDelta(m.Metric, v))
 			}
 		}
 	}
