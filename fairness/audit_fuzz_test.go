@@ -87,6 +87,7 @@ func FuzzAudit(f *testing.F) {
 	f.Add([]byte(strings.Replace(fuzzAuditSpec, "  - node: s\n    parents: [v]\n", "", 1)+"exact_limit: 1\nece_bins: 3\n"), data)
 	f.Add([]byte(strings.Replace(fuzzAuditSpec, "[fnr, ece, auc]", "[fpr, ppv, npv, selection_rate, accuracy, brier, log_loss, calibration_in_the_large]", 1)+"title: t\nsynthetic: true\nseed: 3\n"), data)
 	f.Add([]byte(strings.Replace(fuzzAuditSpec, "missing: drop\n", "", 1)), data)
+	f.Add([]byte(strings.Replace(fuzzAuditSpec, "classifier: linear", "classifier: auto", 1)), data)
 	f.Add([]byte(fuzzAuditSpec), []byte("g,c,y,v1,v2,s\na,x,1,0,0,1\na,x,0,0,0,0\nb,x,1,0,0,1\nb,x,0,0,0,0\n"))
 	f.Fuzz(func(t *testing.T, spec, data []byte) {
 		dir := t.TempDir()
