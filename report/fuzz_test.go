@@ -135,8 +135,9 @@ var (
 //     and the same sequence of tags and attribute names as the plain page
 //     (but for <code>, which backticks in s may pair differently);
 //   - the title element and the audit title show "T"+s itself once
-//     character references are decoded (html/template writes NUL as
-//     U+FFFD, src/html/template/html.go);
+//     character references are decoded, with control characters as Go
+//     escapes (visibleCopy, Printable) after the JSON copy has made each
+//     byte that is not UTF-8 a U+FFFD;
 //   - the chart data is JSON with <, > and & escaped (so no string in it
 //     can end the script element); no label or tooltip formatter holds a
 //     {…} template field, and no tooltip formatter, which ECharts shows as
@@ -152,7 +153,7 @@ func htmlProblems(s, page string, want []string) []string {
 	if !slices.Equal(skel, want) {
 		out = append(out, fmt.Sprintf("tags differ from the plain page's:\n%s\nwant\n%s", strings.Join(skel, " "), strings.Join(want, " ")))
 	}
-	shown := strings.ReplaceAll("T"+s, "\x00", "\uFFFD")
+	shown := Printable(string([]rune("T" + s))) // visibleCopy: JSON makes each invalid byte U+FFFD
 	for _, re := range []*regexp.Regexp{titleRE, auditTitleRE} {
 		if m := re.FindStringSubmatch(page); m == nil || html.UnescapeString(m[1]) != shown {
 			out = append(out, fmt.Sprintf("%s shows %q, want %q", re, m, shown))
