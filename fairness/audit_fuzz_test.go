@@ -45,11 +45,12 @@ classifier: linear
 `
 
 // fuzzAuditData is a seed table for fuzzAuditSpec: n rows alternating
-// between groups a and b, b's v1 shifted, the label depending on c and v1,
-// and one row with a missing v2 (dropped).
-func fuzzAuditData(n int) []byte {
+// between groups a and b, b's v1 shifted, the label depending on c and v1
+// (0/1, or no/yes with words true), one row with a missing v2, and a
+// column w outside the graph.
+func fuzzAuditData(n int, words bool) []byte {
 	var b strings.Builder
-	b.WriteString("g,c,y,v1,v2,s\n")
+	b.WriteString("g,c,y,v1,v2,s,w\n")
 	for i := range n {
 		g, shift := "a", 0.0
 		if i%2 == 1 {
@@ -61,12 +62,16 @@ func fuzzAuditData(n int) []byte {
 		if v1+0.4*float64(i%3)+math.Cos(float64(i)*2.1) > 0.8 {
 			y = 1
 		}
+		label := fmt.Sprint(y)
+		if words {
+			label = []string{"no", "yes"}[y]
+		}
 		v2 := fmt.Sprintf("%.3f", float64(y)+0.5*math.Cos(float64(i)*0.7))
 		if i == 5 {
 			v2 = "NA"
 		}
 		s := 1 / (1 + math.Exp(-(v1 + float64(y) - 1)))
-		fmt.Fprintf(&b, "%s,%s,%d,%.3f,%s,%.3f\n", g, c, y, v1, v2, s)
+		fmt.Fprintf(&b, "%s,%s,%s,%.3f,%s,%.3f,%d\n", g, c, label, v1, v2, s, i%7)
 	}
 	return []byte(b.String())
 }
@@ -81,13 +86,15 @@ func fuzzAuditData(n int) []byte {
 // replicates and exact_limit are capped (fuzzMax…) to keep executions
 // fast.
 func FuzzAudit(f *testing.F) {
-	data := fuzzAuditData(40)
+	data := fuzzAuditData(40, false)
 	f.Add([]byte(fuzzAuditSpec), data)
 	f.Add([]byte(fuzzAuditSpec+"intervals: {replicates: 2, keep_ratios: true}\nestimate_from: both\nclip_ratios: 0.9\n"), data)
 	f.Add([]byte(strings.Replace(fuzzAuditSpec, "  - node: s\n    parents: [v]\n", "", 1)+"exact_limit: 1\nece_bins: 3\n"), data)
 	f.Add([]byte(strings.Replace(fuzzAuditSpec, "[fnr, ece, auc]", "[fpr, ppv, npv, selection_rate, accuracy, brier, log_loss, calibration_in_the_large]", 1)+"title: t\nsynthetic: true\nseed: 3\n"), data)
 	f.Add([]byte(strings.Replace(fuzzAuditSpec, "missing: drop\n", "", 1)), data)
 	f.Add([]byte(strings.Replace(fuzzAuditSpec, "classifier: linear", "classifier: auto", 1)), data)
+	f.Add([]byte(strings.Replace(fuzzAuditSpec, "missing: drop", "missing: indicator", 1)+"model_inputs: [v1, v2, w]\n"), data)
+	f.Add([]byte(fuzzAuditSpec+"positive: yes\n"), fuzzAuditData(40, true))
 	f.Add([]byte(fuzzAuditSpec), []byte("g,c,y,v1,v2,s\na,x,1,0,0,1\na,x,0,0,0,0\nb,x,1,0,0,1\nb,x,0,0,0,0\n"))
 	f.Fuzz(func(t *testing.T, spec, data []byte) {
 		dir := t.TempDir()
