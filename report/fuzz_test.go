@@ -135,9 +135,8 @@ var (
 //     and the same sequence of tags and attribute names as the plain page
 //     (but for <code>, which backticks in s may pair differently);
 //   - the title element and the audit title show "T"+s itself once
-//     character references are decoded, with control characters as Go
-//     escapes (visibleCopy, Printable) after the JSON copy has made each
-//     byte that is not UTF-8 a U+FFFD;
+//     character references are decoded, with control characters and bytes
+//     that are not UTF-8 as Go escapes (visibleCopy, Printable);
 //   - the chart data is JSON with <, > and & escaped (so no string in it
 //     can end the script element); no label or tooltip formatter holds a
 //     {…} template field, and no tooltip formatter, which ECharts shows as
@@ -153,7 +152,7 @@ func htmlProblems(s, page string, want []string) []string {
 	if !slices.Equal(skel, want) {
 		out = append(out, fmt.Sprintf("tags differ from the plain page's:\n%s\nwant\n%s", strings.Join(skel, " "), strings.Join(want, " ")))
 	}
-	shown := Printable(string([]rune("T" + s))) // visibleCopy: JSON makes each invalid byte U+FFFD
+	shown := Printable("T" + s) // visibleCopy
 	for _, re := range []*regexp.Regexp{titleRE, auditTitleRE} {
 		if m := re.FindStringSubmatch(page); m == nil || html.UnescapeString(m[1]) != shown {
 			out = append(out, fmt.Sprintf("%s shows %q, want %q", re, m, shown))

@@ -1,8 +1,6 @@
 package report
 
 import (
-	"encoding/json"
-	"fmt"
 	"reflect"
 
 	"github.com/gapwise/gapwise/fairness"
@@ -13,41 +11,55 @@ import (
 // could do with user text, but not what the text itself can do to its
 // display: a right-to-left override (U+202E) in a group value would still
 // reverse the words after it, and a control character would be invisible.
-// In the page they read as Go escapes (\u202e), as in the text report. The
-// copy is made by a JSON round trip (the Result is its JSON contract; Go
-// encodes floats so that they decode to the same bits), then every string
-// reachable from it is rewritten.
+// In the page they read as Go escapes (\u202e, \xff for a byte that is not
+// UTF-8), as in the text report. The caller's Result is not touched.
 func visibleCopy(res *fairness.Result) (*fairness.Result, error) {
-	raw, err := json.Marshal(res)
-	if err != nil {
-		return nil, fmt.Errorf("report: copying the result: %w", err)
-	}
-	var c fairness.Result
-	if err := json.Unmarshal(raw, &c); err != nil {
-		return nil, fmt.Errorf("report: copying the result: %w", err)
-	}
-	printableStrings(reflect.ValueOf(&c).Elem())
-	return &c, nil
+	c := printableClone(reflect.ValueOf(res)).Interface().(*fairness.Result)
+	return c, nil
 }
 
-// printableStrings applies Printable to every settable string under v.
-func printableStrings(v reflect.Value) {
+// printableClone returns a deep copy of v with Printable applied to every
+// string: pointers, slices, arrays and structs are copied, other values
+// (numbers, booleans) taken as they are. A Result holds no maps,
+// interfaces, channels or functions.
+func printableClone(v reflect.Value) reflect.Value {
 	switch v.Kind() {
 	case reflect.String:
-		if v.CanSet() {
-			v.SetString(Printable(v.String()))
+		out := reflect.New(v.Type()).Elem()
+		out.SetString(Printable(v.String()))
+		return out
+	case reflect.Pointer:
+		if v.IsNil() {
+			return reflect.Zero(v.Type())
 		}
-	case reflect.Pointer, reflect.Interface:
-		if !v.IsNil() {
-			printableStrings(v.Elem())
+		out := reflect.New(v.Type().Elem())
+		out.Elem().Set(printableClone(v.Elem()))
+		return out
+	case reflect.Slice:
+		if v.IsNil() {
+			return reflect.Zero(v.Type())
 		}
-	case reflect.Struct:
-		for i := range v.NumField() {
-			printableStrings(v.Field(i))
-		}
-	case reflect.Slice, reflect.Array:
+		out := reflect.MakeSlice(v.Type(), v.Len(), v.Len())
 		for i := range v.Len() {
-			printableStrings(v.Index(i))
+			out.Index(i).Set(printableClone(v.Index(i)))
 		}
+		return out
+	case reflect.Array:
+		out := reflect.New(v.Type()).Elem()
+		for i := range v.Len() {
+			out.Index(i).Set(printableClone(v.Index(i)))
+		}
+		return out
+	case reflect.Struct:
+		out := reflect.New(v.Type()).Elem()
+		for i := range v.NumField() {
+			if out.Field(i).CanSet() {
+				out.Field(i).Set(printableClone(v.Field(i)))
+			}
+		}
+		return out
+	case reflect.Map, reflect.Interface, reflect.Chan, reflect.Func:
+		panic("report: printableClone: unexpected " + v.Kind().String() + " in a Result")
 	}
+	return v
 }

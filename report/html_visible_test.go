@@ -28,6 +28,9 @@ func TestHTMLShowsControlsEscaped(t *testing.T) {
 				t.Errorf("%q: the page holds %q from user text", h, b)
 			}
 		}
+		if strings.Contains(h, "\xff") && !strings.Contains(page.String(), `\xff`) {
+			t.Errorf("%q: the invalid byte is not shown as \\xff", h)
+		}
 		if strings.Contains(h, "\u202e") && !strings.Contains(page.String(), `\u202e`) {
 			t.Errorf("%q: the override is not shown as \\u202e", h)
 		}
