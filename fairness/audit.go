@@ -85,6 +85,7 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	r.Details = Describe(d, spec.Threshold, spec.ECEBins)
 	r.Warnings = Warnings(r) // after Settings.Intervals, whose failed replicates it reports
 	setReliability(r)
+	setHeadlines(r)
 	r.Assumptions = Assumptions(spec.ScoreIsNode(), spec.Synthetic)
 	if err := checkFinite(r); err != nil {
 		return nil, err

@@ -147,6 +147,9 @@ type MetricResult struct {
 	// residual warning fires only when it excludes zero.
 	ResidualCI    *Interval      `json:"residual_ci,omitempty"`
 	Contributions []Contribution `json:"contributions"`
+	// Headline names the mechanism of the largest contribution, its
+	// share of the gap and a verdict from the warnings (setHeadlines).
+	Headline Headline `json:"headline"`
 }
 
 // Contribution is one mechanism's Shapley value for a metric.

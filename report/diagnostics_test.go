@@ -88,7 +88,7 @@ func TestWriteMarkdownTitleAndLevel(t *testing.T) {
 	}
 	out := b.String()
 	for _, want := range []string{
-		"## Anaemia screening, spring audit\n\nGap audit of `risk` for women vs men.",
+		"## Anaemia screening, spring audit\n\nPerformance audit of `risk`: women compared with men.",
 		"| Mechanism | Contribution | 90% interval | Alone | Gap if equalised |",
 		"Intervals in brackets: 100 bootstrap replicates",
 		"is +9.0 pts (90% interval [+6.1, +11.8] pts)",

@@ -29,6 +29,8 @@ func handResult() *fairness.Result {
 					{Node: "hb", Mechanism: "hb | anaemia", Value: 0.061, CILow: ptr(0.048), CIHigh: ptr(0.073), Alone: 0.058, IfEqualised: 0.02},
 					{Node: "ferritin", Mechanism: "ferritin | anaemia, hb", Value: 0.0002, Alone: 0.0001, IfEqualised: 0.079},
 				},
+				// hb's 0.061 is the largest; 0.061 / 0.09 ≈ 0.678; no warning concerns it.
+				Headline: fairness.Headline{Lead: "hb", LeadShare: ptr(0.061 / 0.09), Verdict: fairness.VerdictSound, Warnings: []int{}},
 			},
 			{
 				Metric: "brier", Reference: 0.0812, Comparison: 0.0745, Gap: -0.0067, Estimated: -0.006, Residual: -0.0007, RecordsReference: 1200, RecordsComparison: 1100,
@@ -38,6 +40,7 @@ func handResult() *fairness.Result {
 					{Node: "hb", Mechanism: "hb | anaemia", Value: -0.0025, Alone: -0.002, IfEqualised: -0.0035},
 					{Node: "ferritin", Mechanism: "ferritin | anaemia, hb", Value: -0.0005, Alone: -0.0004, IfEqualised: -0.0055},
 				},
+				Headline: fairness.Headline{Lead: "anaemia", LeadShare: ptr(0.004 / 0.0067), Verdict: fairness.VerdictSound, Warnings: []int{}},
 			},
 		},
 		Mechanisms: []fairness.MechanismResult{

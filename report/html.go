@@ -79,7 +79,9 @@ type page struct {
 	Reliability  []reliabilityRow
 	HasDetails   bool
 	Columns      []columnView
-	Warnings     []template.HTML
+	Overview     []overviewView
+	Caution      string // overviewCaution
+	Warnings     []warningView
 	Assumptions  []string
 	Settings     []keyValue
 	Scripts      []template.JS     // the text of each script element, in order
@@ -97,6 +99,24 @@ type page struct {
 }
 
 type keyValue struct{ Key, Value string }
+
+// overviewView is one metric's row of the overview (overviewRow), its
+// user text escaped for HTML (htmlInline).
+type overviewView struct {
+	Metric                            string
+	Title, Lead, Because              template.HTML
+	Reference, Comparison, Gap, Share string
+	Level, Verdict                    string
+	Refs                              []int
+}
+
+// warningView is one warning as the page lists it: its number in
+// warningOrder, its severity and its sentence.
+type warningView struct {
+	Number   int
+	Severity string
+	Message  template.HTML
+}
 
 // metricView is one metric's summary, group values and decomposition.
 type metricView struct {
@@ -173,7 +193,7 @@ type chartData struct {
 func newPage(res *fairness.Result) (*page, error) {
 	p := &page{
 		Res:             res,
-		Title:           fmt.Sprintf("Gap audit: %s for %s vs %s", res.Score, res.Groups.Comparison, res.Groups.Reference),
+		Title:           fmt.Sprintf("Performance audit of %s: %s compared with %s", res.Score, res.Groups.Comparison, res.Groups.Reference),
 		IntervalName:    intervalName(res),
 		IntervalSetting: intervalSetting(res),
 		Diagnostics:     diagnostics(res),
@@ -184,6 +204,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		Assumptions:     res.Assumptions,
 		LowESSShare:     fmt.Sprintf("%.0f%%", 100*fairness.WarnESSShare),
 		DrillNodes:      drillNodes,
+		Caution:         overviewCaution,
 	}
 	if res.Inputs.DataFile == "" {
 		p.Cohort = "the audited records"
@@ -256,8 +277,14 @@ func newPage(res *fairness.Result) (*page, error) {
 	for _, m := range res.Mechanisms {
 		p.Mechanisms = append(p.Mechanisms, mechanismDiagnostics(m, flags[m.Node]))
 	}
-	for _, w := range res.Warnings {
-		p.Warnings = append(p.Warnings, codeSpans(w.Message))
+	for _, r := range overviewRows(res, htmlInline) {
+		p.Overview = append(p.Overview, overviewView{Metric: r.Metric, Title: template.HTML(r.Title), Lead: template.HTML(r.Lead),
+			Because: template.HTML(r.Because), Reference: r.Reference, Comparison: r.Comparison, Gap: r.Gap, Share: r.Share,
+			Level: r.Level, Verdict: r.Verdict, Refs: r.Refs})
+	}
+	for n, i := range warningOrder(res.Warnings) {
+		w := res.Warnings[i]
+		p.Warnings = append(p.Warnings, warningView{Number: n + 1, Severity: severityWord(w.Severity), Message: codeSpans(w.Message)})
 	}
 	if d := res.Details; d != nil {
 		p.HasDetails = true

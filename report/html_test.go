@@ -58,7 +58,7 @@ func cellText(s string) string {
 
 func TestWriteHTMLSections(t *testing.T) {
 	page := renderHTML(t, true, nil)
-	for _, id := range []string{"summary", "groups", "decomposition", "graph", "drilldown", "diagnostics", "assumptions", "reproducibility", "synthetic",
+	for _, id := range []string{"overview", "overview-table", "overview-caution", "warnings-section", "warnings", "summary", "groups", "decomposition", "graph", "drilldown", "diagnostics", "assumptions", "reproducibility", "synthetic",
 		"chart-walk", "chart-graph", "chart-reliability", "column-cards", "gw-metric"} {
 		if !strings.Contains(page, `id="`+id+`"`) {
 			t.Errorf("page lacks element #%s", id)
@@ -70,11 +70,17 @@ func TestWriteHTMLSections(t *testing.T) {
 		"The causal graph is right enough.",
 		`<option value="fnr" selected>false-negative rate</option>`,
 		`<option value="brier">Brier score</option>`,
-		"<li>mechanism ferritin: largest weight carries 11% of the total</li>",
+		`<li id="warning-2"><span class="gw-sev gw-sev-caution">caution</span> mechanism ferritin: largest weight carries 11% of the total</li>`,
 	} {
 		if !strings.Contains(page, want) {
 			t.Errorf("page lacks %q", want)
 		}
+	}
+	// The overview opens the page, the warnings follow it.
+	main := page[strings.Index(page, "<main>"):]
+	if !strings.HasPrefix(strings.TrimSpace(strings.TrimPrefix(main, "<main>")), `<section id="overview">`) ||
+		strings.Index(main, `id="warnings-section"`) > strings.Index(main, `id="summary"`) {
+		t.Errorf("the overview and then the warnings do not open the page")
 	}
 	if n := strings.Count(page, `data-chart="column"`); n != 4 {
 		t.Errorf("%d column charts, want one per Details column (4)", n)
@@ -90,6 +96,11 @@ func TestWriteHTMLTables(t *testing.T) {
 		row   int
 		want  []string
 	}{
+		// (Text is read with a space where a tag was.)
+		{"overview-table", 0, []string{"false-negative rate", "12.0%", "21.0%", "+9.0 pts [+6.1, +11.8] pts",
+			"how hb presents given anaemia : +6.1 pts (95% interval [+4.8, +7.3] pts); 68% of the gap", "Reliable , no warning concerns it"}},
+		{"overview-table", 1, []string{"Brier score", "0.081", "0.074", "−0.007",
+			"how often anaemia occurs given age : −0.004; 60% of the gap", "Reliable , no warning concerns it"}},
 		{"metric-table", 0, []string{"false-negative rate", "12.0% [10.1%, 13.9%]", "21.0%", "+9.0 pts [+6.1, +11.8] pts", "200 / 190 positives"}},
 		{"metric-table", 1, []string{"Brier score", "0.081", "0.074", "−0.007", "1,200 / 1,100 records"}},
 		{"decomp-fnr", 0, []string{"age", "−1.2 pts", "[−2.0, −0.4] pts", "−1.0 pts", "+9.3 pts"}},

@@ -1,5 +1,7 @@
 package report
 
+import "html/template"
+
 // inlineStyle is how a sentence of the report (the summary of a metric)
 // writes user text: as running text, and as code (node names).
 type inlineStyle struct {
@@ -17,3 +19,10 @@ var plainInline = inlineStyle{
 // markdownInline escapes text for the Markdown report (mdText) and writes
 // code as code spans (mdCode).
 var markdownInline = inlineStyle{text: mdText, code: mdCode}
+
+// htmlInline escapes text for HTML and writes code as <code> elements,
+// for the HTML page's sentences built from user text.
+var htmlInline = inlineStyle{
+	text: template.HTMLEscapeString,
+	code: func(s string) string { return "<code>" + template.HTMLEscapeString(s) + "</code>" },
+}

@@ -10,25 +10,31 @@ import (
 )
 
 // WriteMarkdown writes a compact Markdown report of res to w, for pasting
-// into a pull request or an issue: a title, the plain-language summary of
-// every metric, a table of the two groups' metric values and one table per
-// metric with its decomposition (contributions, intervals as "[low, high]"
-// when the bootstrap ran, the residual). The spec's title, when given, is
-// the heading. Numbers are formatted exactly as in the
-// HTML report. It returns the first write error.
+// into a pull request or an issue: a title; the overview of every metric
+// (gap, largest contribution and its share, verdict) with a caution; the
+// warnings with their severities, most serious first; the groups and the
+// plain-language summary of every metric; a table of the two groups'
+// metric values and one table per metric with its decomposition
+// (contributions, intervals as "[low, high]" when the bootstrap ran, the
+// residual); the assumptions and cautions. The spec's title, when given,
+// is the heading. Numbers are formatted exactly as in the HTML report. It
+// returns the first write error.
 func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 	bw := bufio.NewWriter(w)
 	p := func(format string, args ...any) { fmt.Fprintf(bw, format, args...) }
 	mdHeader(p, res)
+	mdOverview(p, res)
+	mdWarnings(p, res)
+	mdSummaries(p, res)
 	mdGroupTable(p, res)
 	flags := unreliable(res)
 	for _, m := range res.Metrics {
 		mdDecomposition(p, res, m, flags)
 	}
-	if len(res.Warnings) > 0 {
-		p("### Warnings\n\n")
-		for _, w := range res.Warnings {
-			p("- %s\n", mdSentence(w.Message))
+	if len(res.Assumptions) > 0 {
+		p("### Assumptions and cautions\n\n")
+		for _, a := range res.Assumptions {
+			p("- %s\n", mdText(a))
 		}
 		p("\n")
 	}
@@ -42,19 +48,24 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 // mdSentence (markdown_escape.go).
 type mdPrinter func(format string, args ...any)
 
-// mdHeader prints the heading, the synthetic-data note, the groups, the
-// summary of every metric and how the intervals were made.
+// mdHeader prints the heading and the synthetic-data note.
 func mdHeader(p mdPrinter, res *fairness.Result) {
 	g := res.Groups
 	if res.Title != "" {
 		p("## %s\n\n", mdText(res.Title))
-		p("Gap audit of %s for %s vs %s.\n\n", mdCode(res.Score), mdText(g.Comparison), mdText(g.Reference))
+		p("Performance audit of %s: %s compared with %s.\n\n", mdCode(res.Score), mdText(g.Comparison), mdText(g.Reference))
 	} else {
-		p("## Gap audit: %s for %s vs %s\n\n", mdCode(res.Score), mdText(g.Comparison), mdText(g.Reference))
+		p("## Performance audit of %s: %s compared with %s\n\n", mdCode(res.Score), mdText(g.Comparison), mdText(g.Reference))
 	}
 	if res.Synthetic {
 		p("> **Synthetic data.** These numbers come from an invented cohort and describe no real patients.\n\n")
 	}
+}
+
+// mdSummaries prints the groups, the summary of every metric and how the
+// intervals were made.
+func mdSummaries(p mdPrinter, res *fairness.Result) {
+	g := res.Groups
 	p("Groups by %s: reference %s (%d records, %d events), comparison %s (%d records, %d events). Label %s%s, decision threshold %s.\n\n",
 		mdCode(g.Column), mdText(g.Reference), g.NReference, g.EventsReference,
 		mdText(g.Comparison), g.NComparison, g.EventsComparison, mdCode(res.Label), mdText(labelWords(res.LabelValues)), formatThreshold(res.Threshold))

@@ -22,7 +22,8 @@ func TestWriteMarkdown(t *testing.T) {
 		"| `ferritin \\| anaemia, hb` (unreliable) | 0.0 pts | – | 0.0 pts | +7.9 pts |",
 		"| Residual (not assigned) | +1.1 pts | | | |",
 		"| Observed gap | +9.0 pts | [+6.1, +11.8] pts | | |",
-		"- mechanism ferritin: largest weight carries 11% of the total",
+		"2. **caution**: mechanism ferritin: largest weight carries 11% of the total",
+		"| false-negative rate | 12.0% | 21.0% | +9.0 pts [+6.1, +11.8] pts | how `hb` presents given `anaemia`: +6.1 pts (95% interval [+4.8, +7.3] pts); 68% of the gap | **Reliable**, no warning concerns it |",
 	} {
 		if !strings.Contains(got, want) {
 			t.Errorf("markdown lacks %q", want)

@@ -10,14 +10,17 @@ import (
 	"github.com/gapwise/gapwise/fairness"
 )
 
-// WriteText renders res as a plain-text report for a terminal: the groups
+// WriteText renders res as a plain-text report for a terminal: first the
+// overview of every metric (overviewRows: the gap, the largest
+// contribution and its share, the verdict) with a caution, and the
+// warnings with their severities, most serious first; then the groups
 // and their sizes; per metric the reference and comparison values, the gap,
 // each mechanism's contribution (Shapley value), its effect alone v({i}) and
 // the gap if it alone were equalised v(N∖{i}) (with the Monte Carlo
 // standard error when the values were sampled, and the difference between
 // the two sides' estimates when both sides estimate), the residual
 // gap − Σ contributions with what it holds, the effective records behind
-// the estimate and the comparison of the two sides; then per-mechanism diagnostics, warnings and the
+// the estimate and the comparison of the two sides; then per-mechanism diagnostics and the
 // assumptions under which the numbers hold. Columns are aligned; metric
 // values print with four decimals, differences with a sign. NaN prints as
 // "n/a". It returns the first write error.
@@ -25,12 +28,13 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 	bw := bufio.NewWriter(w)
 	tw := &textWriter{w: bw}
 	tw.header(res)
+	tw.overview(res)
+	tw.warnings(res)
 	tw.groups(res)
 	for _, m := range res.Metrics {
 		tw.metric(res, m)
 	}
 	tw.diagnostics(res)
-	tw.list("Warnings", messages(res.Warnings), "none")
 	tw.list("Assumptions and cautions", res.Assumptions, "")
 	tw.inputs(res)
 	return bw.Flush()

@@ -116,7 +116,7 @@ func TestWriteTextNoIntervalsNoWarnings(t *testing.T) {
 			t.Errorf("unexpected %q in\n%s", bad, out)
 		}
 	}
-	if !strings.Contains(out, "Warnings\n  none") {
+	if !strings.Contains(out, "Warnings (most serious first)\n  none") {
 		t.Errorf("no 'none' under Warnings:\n%s", out)
 	}
 }
@@ -176,7 +176,12 @@ func ExampleWriteText() {
 				{Node: "age", Mechanism: "age", Value: 0.015, Alone: 0.01, IfEqualised: 0.045},
 				{Node: "lab", Mechanism: "lab | dx, age", Value: 0.04, Alone: 0.035, IfEqualised: 0.02},
 			},
+			Headline: fairness.Headline{Lead: "lab", LeadShare: ptr(0.04 / 0.06), Verdict: fairness.VerdictSound, Warnings: []int{}},
 		}},
+		Mechanisms: []fairness.MechanismResult{
+			{Node: "age", Mechanism: "age", Classifier: "linear", ParentClassifier: "prior", AUC: 0.55, ESS: 760, ESSShare: 0.95, MaxShare: 0.002, MeanRatio: 1, WorstStratumMean: 1.01},
+			{Node: "lab", Mechanism: "lab | dx, age", Parents: []string{"dx", "age"}, Classifier: "linear", ParentClassifier: "linear", AUC: 0.61, ESS: 640, ESSShare: 0.8, MaxShare: 0.004, MeanRatio: 0.99, WorstStratumMean: 0.97},
+		},
 		Assumptions: []string{"The causal graph is right."},
 	}
 	if err := WriteText(os.Stdout, res); err != nil {
@@ -184,6 +189,15 @@ func ExampleWriteText() {
 	}
 	// Output:
 	// gapwise v1.0.0: audit of "risk" against label "dx", positive when score >= 0.5
+	//
+	// Overview: gap = south − north
+	//   false-positive rate: south 16.0%, north 10.0%; gap +6.0 pts
+	//     largest contribution: how `lab` presents given `dx` and `age`: +4.0 pts; 67% of the gap
+	//     reliable: no warning concerns it
+	//   These are statistical estimates that hold under the causal assumptions listed in this report (the graph is right, no hidden confounders, overlap between the groups); they are not clinical or legal findings. Local regulation and institutional review govern how a model may be used and changed.
+	//
+	// Warnings (most serious first)
+	//   none
 	//
 	// Groups (column "clinic")
 	//   role        value  records  events  dropped
@@ -203,8 +217,17 @@ func ExampleWriteText() {
 	//   residual (gap - sum)       +0.0050
 	//   The residual holds estimation error and the effect of anything outside the graph that differs between the groups.
 	//
-	// Warnings
-	//   none
+	// Mechanism diagnostics (reference records reweighted by one mechanism's ratio)
+	//   mechanism      classifier  parents by  oof AUC    ESS  ESS share  max weight share  mean ratio  worst-fifth mean ratio  weights > 20  tail shape
+	//   age            linear      prior        0.5500  760.0     0.9500            0.0020      1.0000                  1.0100        0.0000         n/a
+	//   lab | dx, age  linear      linear       0.6100  640.0     0.8000            0.0040      0.9900                  0.9700        0.0000         n/a
+	//   oof AUC: out-of-fold AUC of the group classifier on (node, parents); near 0.5 the groups barely differ on this mechanism.
+	//   ESS: effective sample size (sum w)^2 / sum w^2 of the reweighted reference records; ESS share divides it by their number.
+	//   max weight share: the largest single record's share of the total weight.
+	//   mean ratio: average ratio over the reference records, near 1 when the ratios are right.
+	//   worst-fifth mean ratio: the same average in the fifth of the records (ranked by the parents' classifier) farthest from 1; near 1 when right.
+	//   weights > 20: share of reference records whose weight (ratio) is above 20; a few such records can dominate the estimate, a sign of poor overlap.
+	//   tail shape: Pareto shape of the largest ratios; above 0.5 the weights have infinite variance, above 0.7 the estimate is unreliable.
 	//
 	// Assumptions and cautions
 	//   - The causal graph is right.
