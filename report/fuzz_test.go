@@ -430,11 +430,11 @@ func mdDecode(s string) string {
 	return b.String()
 }
 
-// scoreSpan returns the code span of the line "Gap audit of `score` for
-// …": the text between the run of backticks there and the next run of
-// as many.
+// scoreSpan returns the code span of the line "Performance audit of
+// `score`: …": the text between the run of backticks there and the next
+// run of as many.
 func scoreSpan(md string) (string, bool) {
-	_, rest, ok := strings.Cut(md, "\nGap audit of `")
+	_, rest, ok := strings.Cut(md, "\nPerformance audit of `")
 	if !ok {
 		return "", false
 	}

@@ -47,7 +47,7 @@ var hostileTexts = []string{
 
 // hostileResult is handResult with s in every place that holds user text:
 // the title, the group column and values (an excluded one too), label and score, node,
-// mechanism, column and metric names, learners, the warnings (quoting s
+// mechanism (the headline's lead too), column and metric names, learners, the warnings (quoting s
 // in backticks as fairness does), the assumptions and the input paths.
 // Each place gets s with a different prefix, so that the places stay
 // distinct.
@@ -71,6 +71,9 @@ func hostileResult(s string) *fairness.Result {
 			c := &m.Contributions[j]
 			c.Mechanism = c.Node + s + " | " + s
 			c.Node += s
+		}
+		if m.Headline.Lead != "" {
+			m.Headline.Lead += s
 		}
 	}
 	for i := range r.Mechanisms {

@@ -105,18 +105,19 @@ func TestWriteMarkdownHostile(t *testing.T) {
 		if got, want := strings.Count(md, "\n"), strings.Count(clean, "\n"); got != want {
 			t.Errorf("markdown for %q has %d lines, the clean one %d:\n%s", h, got, want, md)
 		}
-		if got, want := cellSeparators(md), cellSeparators(clean); !slices.Equal(got, want) {
+		if got, want := rowSeparators(md), rowSeparators(clean); !slices.Equal(got, want) {
 			t.Errorf("markdown for %q: table rows have %v cell separators, the clean ones %v:\n%s", h, got, want, md)
 		}
 	}
 }
 
-// cellSeparators counts the unescaped pipes of every table row of md.
-func cellSeparators(md string) []int {
+// rowSeparators counts the cell separators (cellSeparators) of every
+// table row of md.
+func rowSeparators(md string) []int {
 	var out []int
 	for _, line := range strings.Split(md, "\n") {
 		if strings.HasPrefix(line, "| ") {
-			out = append(out, strings.Count(strings.ReplaceAll(line, `\|`, ""), "|"))
+			out = append(out, cellSeparators(line))
 		}
 	}
 	return out
