@@ -1,5 +1,7 @@
 package metrics
 
+import "math"
+
 // Records says which records a metric counts; a metric is undefined on a
 // sample that has none of them.
 type Records int
@@ -16,30 +18,36 @@ const (
 // Fact is what the rest of gapwise needs to know about a metric besides
 // how to compute it: its name in specs and outputs, its title in running
 // text, whether it is a share of records (printed as a percentage, gaps in
-// percentage points), whether it depends on the decision threshold, and
-// which records it counts (hence when it is undefined).
+// percentage points), whether it depends on the decision threshold, which
+// records it counts (hence when it is undefined), and the range [Min,
+// Max] its values can take (Max is +Inf for the log loss), so that a gap
+// or a Shapley value of it lies within ±(Max − Min).
 type Fact struct {
 	Name       string
 	Title      string
 	Proportion bool
 	Threshold  bool
 	Counts     Records
+	Min, Max   float64
 }
 
-// facts is the one table of metric facts, in the order of Names.
+// facts is the one table of metric facts, in the order of Names. The
+// ranges follow from the definitions: rates, predictive values, the Brier
+// score, the ECE and the AUC lie in [0, 1]; the mean score minus the event
+// rate in [−1, 1]; the log loss in [0, ∞).
 var facts = []Fact{
-	{NameFPR, "false-positive rate", true, true, Negatives},
-	{NameTPR, "true-positive rate", true, true, Positives},
-	{NameFNR, "false-negative rate", true, true, Positives},
-	{NamePPV, "positive predictive value", true, true, DecidedPositive},
-	{NameNPV, "negative predictive value", true, true, DecidedNegative},
-	{NameSelectionRate, "share flagged positive", true, true, AllRecords},
-	{NameAccuracy, "accuracy", true, true, AllRecords},
-	{NameBrier, "Brier score", false, false, AllRecords},
-	{NameLogLoss, "log loss", false, false, AllRecords},
-	{NameCalibrationInTheLarge, "calibration-in-the-large (mean score − event rate)", false, false, AllRecords},
-	{NameECE, "expected calibration error", false, false, AllRecords},
-	{NameAUC, "area under the ROC curve", false, false, BothClasses},
+	{NameFPR, "false-positive rate", true, true, Negatives, 0, 1},
+	{NameTPR, "true-positive rate", true, true, Positives, 0, 1},
+	{NameFNR, "false-negative rate", true, true, Positives, 0, 1},
+	{NamePPV, "positive predictive value", true, true, DecidedPositive, 0, 1},
+	{NameNPV, "negative predictive value", true, true, DecidedNegative, 0, 1},
+	{NameSelectionRate, "share flagged positive", true, true, AllRecords, 0, 1},
+	{NameAccuracy, "accuracy", true, true, AllRecords, 0, 1},
+	{NameBrier, "Brier score", false, false, AllRecords, 0, 1},
+	{NameLogLoss, "log loss", false, false, AllRecords, 0, math.Inf(1)},
+	{NameCalibrationInTheLarge, "calibration-in-the-large (mean score − event rate)", false, false, AllRecords, -1, 1},
+	{NameECE, "expected calibration error", false, false, AllRecords, 0, 1},
+	{NameAUC, "area under the ROC curve", false, false, BothClasses, 0, 1},
 }
 
 // Facts returns the facts of every supported metric, in the order of Names.

@@ -2,6 +2,7 @@ package metrics
 
 import (
 	"errors"
+	"math"
 	"slices"
 	"testing"
 )
@@ -101,6 +102,34 @@ func TestFactBasis(t *testing.T) {
 			if undefined := errors.Is(err, ErrUndefined); undefined != (f.Basis(s[0], s[1], 0.5) == 0) {
 				t.Errorf("%s on %v: undefined %v but basis %d", f.Name, s, undefined, f.Basis(s[0], s[1], 0.5))
 			}
+		}
+	}
+}
+
+// TestFactRanges: every metric stays within [Min, Max] on extreme samples
+// (all events missed, all non-events flagged, perfect and reversed
+// scores, a mixed one), and a bounded metric reaches both ends on them
+// (by hand: e.g. calibration-in-the-large is 0 − 1 = −1 when every
+// record has the event and score 0, and 1 − 0 = +1 in the opposite case).
+func TestFactRanges(t *testing.T) {
+	samples := [][2][]float64{
+		{{1, 1}, {0, 0}}, {{0, 0}, {1, 1}}, {{0, 1}, {0, 1}}, {{0, 1}, {1, 0}},
+		{{0, 1, 0, 1}, {0.2, 0.8, 0.7, 0.3}},
+	}
+	for _, f := range Facts() {
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for _, s := range samples {
+			v, err := Compute(f.Name, s[0], s[1], 0.5, 2, nil)
+			if err != nil {
+				continue
+			}
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+		if lo < f.Min || hi > f.Max {
+			t.Errorf("%s: values in [%v, %v], outside its range [%v, %v]", f.Name, lo, hi, f.Min, f.Max)
+		}
+		if !math.IsInf(f.Max, 1) && (math.Abs(lo-f.Min) > 1e-9 || math.Abs(hi-f.Max) > 1e-9) {
+			t.Errorf("%s: values reach [%v, %v], not the ends of its range [%v, %v]", f.Name, lo, hi, f.Min, f.Max)
 		}
 	}
 }

@@ -112,7 +112,7 @@ func TestBrowserRendersReport(t *testing.T) {
 	if strings.Contains(body, "data-charts-error") {
 		t.Fatalf("page script failed: %s", body)
 	}
-	// walk, graph, reliability, and one chart per Details column.
+	// forest, graph, reliability, and one chart per Details column.
 	want := 3 + len(res.Details.Columns)
 	for _, attr := range []string{"data-charts-expected", "data-charts-rendered"} {
 		m := regexp.MustCompile(attr + `="(\d+)"`).FindStringSubmatch(body)

@@ -12,7 +12,7 @@ import (
 	"github.com/go-echarts/go-echarts/v2/types"
 )
 
-// The report's palette. Group and direction colours are taken from the
+// The report's palette. Group and contribution colours are taken from the
 // eight-colour set of Okabe & Ito (2008), "Color Universal Design (CUD):
 // how to make figures and presentations that are friendly to colorblind
 // people", chosen so that every pair stays distinguishable under the common
@@ -21,8 +21,9 @@ import (
 const (
 	colourReference  = "#009E73" // Okabe–Ito bluish green
 	colourComparison = "#CC79A7" // Okabe–Ito reddish purple
-	colourUp         = "#D55E00" // Okabe–Ito vermillion: a step that raises the metric
-	colourDown       = "#0072B2" // Okabe–Ito blue: a step that lowers it
+	colourWidens     = "#E69F00" // Okabe–Ito orange: a contribution that widens the gap
+	colourNarrows    = "#56B4E9" // Okabe–Ito sky blue: one that narrows it
+	colourFlag       = "#D55E00" // Okabe–Ito vermillion: the outline of an unreliable estimate
 	colourResidual   = "#9A9A9A"
 	colourNeutral    = "#F3F0E8" // the page's paper tone, the middle of the node ramp
 	colourInk        = "#22252B"
@@ -56,7 +57,7 @@ func optionOf(c interface {
 	// room in our layout.
 	delete(o, "toolbox")
 	delete(o, "title")
-	o["color"] = []string{colourReference, colourComparison, colourDown, colourUp, colourResidual}
+	o["color"] = []string{colourReference, colourComparison, colourNarrows, colourWidens, colourResidual}
 	o["animation"] = false // charts must be final when printed or captured
 	// A concrete font list, not "inherit": ECharts measures text on a canvas
 	// with this font, and an unknown family would skew label widths.

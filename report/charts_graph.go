@@ -10,13 +10,13 @@ import (
 	"github.com/gapwise/gapwise/fairness"
 )
 
-// rampColour maps t ∈ [−1, 1] to a colour: colourDown at −1, colourNeutral
-// at 0, colourUp at 1, interpolating linearly in sRGB.
+// rampColour maps t ∈ [−1, 1] to a colour: colourNarrows at −1,
+// colourNeutral at 0, colourWidens at 1, interpolating linearly in sRGB.
 func rampColour(t float64) string {
 	t = math.Max(-1, math.Min(1, t))
-	end := colourUp
+	end := colourWidens
 	if t < 0 {
-		end, t = colourDown, -t
+		end, t = colourNarrows, -t
 	}
 	var a, b [3]int
 	fmt.Sscanf(colourNeutral, "#%02x%02x%02x", &a[0], &a[1], &a[2])
@@ -28,18 +28,37 @@ func rampColour(t float64) string {
 	return fmt.Sprintf("#%02X%02X%02X", c[0], c[1], c[2])
 }
 
+// gapShade is the shade of a node in rampColour's terms: its contribution
+// relative to the largest |φ| of the metric, positive when it widens the
+// gap and negative when it narrows it; 0 when the gap prints as zero or
+// the contribution is not estimable.
+func gapShade(m fairness.MetricResult, c fairness.Contribution, maxAbs float64) float64 {
+	if maxAbs == 0 || c.NotEstimable || isZeroText(formatMagnitude(m.Metric, m.Gap)) {
+		return 0
+	}
+	t := c.Value / maxAbs
+	if m.Gap < 0 {
+		t = -t
+	}
+	return t
+}
+
 // graphChart draws the causal graph for one metric: nodes in layoutDAG's
-// layers, arrows from parents to children, each node filled by its
-// contribution φ relative to the largest |φ| of the metric (rampColour), its
-// label showing the contribution, and a tooltip with the mechanism's
+// layers, arrows from parents to children, each node filled by the part
+// its contribution φ plays in the gap (gapShade, rampColour: orange when
+// it widens the gap, sky blue when it narrows it, stronger for larger
+// |φ|), outlined dashed in vermillion and labelled so when unreliable,
+// its label showing the contribution, and a tooltip with the mechanism's
 // estimation diagnostics.
 func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 	nodes, edges := layoutDAG(res.Mechanisms)
-	contrib := map[string]float64{}
+	contrib := map[string]fairness.Contribution{}
 	var maxAbs float64
 	for _, c := range m.Contributions {
-		contrib[c.Node] = c.Value
-		maxAbs = math.Max(maxAbs, math.Abs(c.Value))
+		contrib[c.Node] = c
+		if !c.NotEstimable {
+			maxAbs = math.Max(maxAbs, math.Abs(c.Value))
+		}
 	}
 	diag := map[string]fairness.MechanismResult{}
 	for _, mr := range res.Mechanisms {
@@ -48,16 +67,13 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 	flags := unreliable(res)
 	var data []opts.GraphNode
 	for _, n := range nodes {
-		v, has := contrib[n.Name]
-		t := 0.0
-		if maxAbs > 0 {
-			t = v / maxAbs
-		}
+		c, has := contrib[n.Name]
+		t := gapShade(m, c, maxAbs)
 		tip := []string{n.Name}
 		if has {
 			d := diag[n.Name]
 			tip = []string{d.Mechanism,
-				"contribution to " + MetricTitle(m.Metric) + ": " + formatDelta(m.Metric, v),
+				"contribution to " + MetricTitle(m.Metric) + ": " + nodeValue(m.Metric, c),
 				"classifier " + d.Classifier + " (parents: " + d.ParentClassifier + ")",
 				"out-of-fold AUC " + formatDiag(d.AUC),
 				fmt.Sprintf("effective sample size %s (%.0f%% of reference)", formatCount(math.Round(d.ESS)), 100*d.ESSShare),
@@ -71,7 +87,7 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 		}
 		border := colourMuted
 		if _, ok := flags[n.Name]; ok {
-			border = colourUp
+			border = colourFlag
 		}
 		width := math.Max(76, 8.5*float64(len([]rune(n.Name)))+28)
 		data = append(data, opts.GraphNode{Name: n.Name, X: float32(n.X), Y: float32(n.Y), Symbol: "roundRect",
@@ -153,19 +169,30 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 				it.(map[string]any)["label"] = map[string]any{"show": false}
 				continue
 			}
-			t := 0.0
-			if v, ok := contrib[nodes[i].Name]; ok && maxAbs > 0 {
-				t = v / maxAbs
+			c, ok := contrib[nodes[i].Name]
+			if !ok {
+				continue
 			}
-			if math.Abs(t) > 0.6 {
-				it.(map[string]any)["label"] = map[string]any{"color": "#FFFFFF"}
+			text := formatterText(nodes[i].Name) + "\n" + nodeValue(m.Metric, c)
+			if _, flagged := flags[c.Node]; flagged {
+				text += " · unreliable"
+				if is, ok := it.(map[string]any)["itemStyle"].(map[string]any); ok {
+					is["borderType"] = "dashed"
+				}
 			}
-			if v, ok := contrib[nodes[i].Name]; ok {
-				it.(map[string]any)["label"] = mergeLabel(it.(map[string]any)["label"], formatterText(nodes[i].Name)+"\n"+formatDelta(m.Metric, v))
-			}
+			it.(map[string]any)["label"] = mergeLabel(it.(map[string]any)["label"], text)
 		}
 	}
 	return o
+}
+
+// nodeValue is a node's contribution as its label and tooltip print it,
+// or "not estimable".
+func nodeValue(metric string, c fairness.Contribution) string {
+	if c.NotEstimable {
+		return notEstimable
+	}
+	return formatDelta(metric, c.Value)
 }
 
 // mergeLabel sets the formatter of a data item's label, keeping its other

@@ -34,11 +34,13 @@ var pageTemplate = template.Must(template.ParseFS(templateFS, "templates/report.
 const drillNodes = 3
 
 // WriteHTML writes res to w as one standalone HTML page: the audit's
-// question and plain-language summary, the groups' metrics, confusion
+// question, the overview of every metric and the warnings (most serious
+// first), the plain-language summaries, the groups' metrics, confusion
 // counts and reliability curves, the decomposition of every metric as a
-// walk from the reference value to the comparison value with a table, the
+// chart of each mechanism's contribution with its interval around zero
+// (forestChart) beside a table, the
 // causal graph shaded by contribution, per-column distributions for the
-// largest contributions, estimation diagnostics and warnings, assumptions
+// largest contributions, estimation diagnostics, assumptions
 // and cautions, and a reproducibility footer. All scripts (ECharts 6.1.0,
 // vendored under assets/ with its licence), styles and data are inline: the
 // page makes no network request. Its Content-Security-Policy admits
@@ -138,7 +140,8 @@ type contributionRow struct {
 	Node, Mechanism, Value, CI, Alone, IfEqualised string
 	StdError                                       string // "" unless sampled
 	Sides                                          string // difference between the sides, or ""
-	Direction                                      string // "up", "down" or "zero"
+	Role                                           string // gapRole: "widens", "narrows" or "neutral"
+	RoleWords                                      string // the role in words
 	Unreliable                                     string // reason, or ""
 }
 
@@ -181,7 +184,7 @@ type binRow struct{ Bin, Reference, Comparison string }
 // chartData is everything the page script draws, keyed for lookup.
 type chartData struct {
 	Metric      string                 `json:"metric"` // initially selected
-	Walk        map[string]chartOption `json:"walk"`
+	Forest      map[string]chartOption `json:"forest"`
 	Graph       map[string]chartOption `json:"graph"`
 	Reliability chartOption            `json:"reliability,omitempty"`
 	Columns     map[string]chartOption `json:"columns"`
@@ -212,7 +215,7 @@ func newPage(res *fairness.Result) (*page, error) {
 	if res.Title != "" {
 		p.Title = res.Title
 	}
-	data := chartData{Walk: map[string]chartOption{}, Graph: map[string]chartOption{}, Columns: map[string]chartOption{},
+	data := chartData{Forest: map[string]chartOption{}, Graph: map[string]chartOption{}, Columns: map[string]chartOption{},
 		Order: map[string][]string{}, Top: map[string][]string{}}
 	flags := unreliable(res)
 	nodeOfColumn := map[string]string{}
@@ -231,23 +234,16 @@ func newPage(res *fairness.Result) (*page, error) {
 			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m),
 			SidesNote: sidesLine(m), ResidualNote: residualNote(res), SumLabel: sumLabel(m, "Sum of contributions")}
 		for _, c := range m.Contributions {
-			dir := "zero"
-			switch {
-			case isZeroText(formatMagnitude(m.Metric, c.Value)):
-			case c.Value > 0:
-				dir = "up"
-			default:
-				dir = "down"
-			}
+			role := gapRole(m, c.Value)
 			ci := formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)
 			if ci != "" {
 				p.HasIntervals = true
 			}
 			row := contributionRow{Node: c.Node, Mechanism: c.Mechanism, Value: formatDelta(m.Metric, c.Value),
 				CI: ci, Alone: formatDelta(m.Metric, c.Alone), IfEqualised: formatDelta(m.Metric, c.IfEqualised),
-				Direction: dir, Unreliable: flags[c.Node]}
+				Role: role, RoleWords: roleWords[role], Unreliable: flags[c.Node]}
 			if c.NotEstimable {
-				row.Value, row.CI, row.Alone, row.IfEqualised, row.Direction = notEstimable, "", "–", "–", "zero"
+				row.Value, row.CI, row.Alone, row.IfEqualised, row.Role, row.RoleWords = notEstimable, "", "–", "–", "none", "not estimable"
 			}
 			if c.StdError != nil {
 				row.StdError = formatMagnitude(m.Metric, *c.StdError)
@@ -264,7 +260,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		if m.ReferenceCI != nil || m.ComparisonCI != nil || m.GapCI != nil {
 			p.HasIntervals = true
 		}
-		data.Walk[m.Metric] = walkChart(res, m)
+		data.Forest[m.Metric] = forestChart(res, m)
 		data.Graph[m.Metric] = graphChart(res, m)
 		order, top := columnOrder(res, m, nodeOfColumn)
 		data.Order[m.Metric], data.Top[m.Metric] = order, top

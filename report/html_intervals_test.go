@@ -25,57 +25,65 @@ func pageData(t *testing.T, page string) map[string]any {
 	return data
 }
 
-// whiskers returns the items of the walk chart's interval series for a
-// metric, or nil when the chart has none.
-func whiskers(t *testing.T, data map[string]any, metric string) []any {
+// forestItems returns the items of a metric's contribution chart.
+func forestItems(t *testing.T, data map[string]any, metric string) []map[string]any {
 	t.Helper()
-	walk, ok := data["walk"].(map[string]any)[metric].(map[string]any)
+	chart, ok := data["forest"].(map[string]any)[metric].(map[string]any)
 	if !ok {
-		t.Fatalf("no walk chart for %s", metric)
+		t.Fatalf("no contribution chart for %s", metric)
 	}
-	for _, s := range walk["series"].([]any) {
-		if sm := s.(map[string]any); sm["id"] == "gw-whiskers" {
-			items, _ := sm["data"].([]any)
-			return items
+	for _, s := range chart["series"].([]any) {
+		if sm := s.(map[string]any); sm["id"] == "gw-forest" {
+			var out []map[string]any
+			for _, it := range sm["data"].([]any) {
+				out = append(out, it.(map[string]any))
+			}
+			return out
 		}
 	}
+	t.Fatalf("%s: no gw-forest series", metric)
 	return nil
 }
 
 // TestWriteHTMLIntervals: when the Result has bootstrap intervals, the
-// walk chart draws one whisker per interval at the right place, and the
+// contribution chart draws each interval around its value, and the
 // tables print them with the level of settings.intervals; without them
-// there is no whisker series. handResult's FNR has intervals for the
-// reference value and for two contributions (age, hb); Brier has none.
+// no row has an interval. handResult's FNR has intervals for two
+// contributions (age, hb) and the gap; Brier has none.
 func TestWriteHTMLIntervals(t *testing.T) {
 	page := renderHTML(t, true, func(r *fairness.Result) {
 		r.Settings.Intervals = &fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 200, Level: 0.9}}
 	})
 	data := pageData(t, page)
-	w := whiskers(t, data, "fnr")
-	if len(w) != 3 {
-		t.Fatalf("%d FNR whiskers, want 3 (reference value, age, hb)", len(w))
-	}
-	// Rows: 0 reference, then contributions by size: hb (row 1), anaemia,
-	// age (row 3). The reference whisker spans its interval in percent;
-	// hb's spans reference + [4.8, 7.3] points = [16.8, 19.3]% (hand
-	// arithmetic: 12.0 + 4.8 and 12.0 + 7.3).
-	want := map[float64][2]float64{0: {10.1, 13.9}, 1: {16.8, 19.3}}
-	for _, item := range w {
-		v := item.(map[string]any)["value"].([]any)
-		row := v[2].(float64)
-		if span, ok := want[row]; ok && (!near(v[0].(float64), span[0]) || !near(v[1].(float64), span[1])) {
-			t.Errorf("whisker on row %v spans %v–%v, want %v", row, v[0], v[1], span)
+	// Rows in graph order: age, anaemia, hb, ferritin, then the residual
+	// and the gap. Values and intervals are in points (the fixture's
+	// numbers times 100, by hand).
+	want := map[float64][3]float64{0: {-1.2, -2.0, -0.4}, 2: {6.1, 4.8, 7.3}, 5: {9.0, 6.1, 11.8}}
+	n := 0
+	for _, item := range forestItems(t, data, "fnr") {
+		v := item["value"].([]any)
+		row := v[3].(float64)
+		if item["gwInterval"] != true {
+			continue
+		}
+		n++
+		if w, ok := want[row]; !ok || !near(v[0].(float64), w[0]) || !near(v[1].(float64), w[1]) || !near(v[2].(float64), w[2]) {
+			t.Errorf("row %v: value and interval %v, want %v", row, v[:3], w)
 		}
 	}
+	if n != 3 {
+		t.Errorf("%d FNR rows with an interval, want 3 (age, hb, gap)", n)
+	}
 	// The axis ticks fall on multiples of the step, both ends included.
-	x := data["walk"].(map[string]any)["fnr"].(map[string]any)["xAxis"].([]any)[0].(map[string]any)
+	x := data["forest"].(map[string]any)["fnr"].(map[string]any)["xAxis"].([]any)[0].(map[string]any)
 	lo, hi, step := x["min"].(float64), x["max"].(float64), x["interval"].(float64)
 	if n := (hi - lo) / step; step <= 0 || math.Abs(n-math.Round(n)) > 1e-9 || math.Abs(lo/step-math.Round(lo/step)) > 1e-9 {
-		t.Errorf("walk axis [%v, %v] is not a whole number of steps %v", lo, hi, step)
+		t.Errorf("axis [%v, %v] is not a whole number of steps %v", lo, hi, step)
 	}
-	if w := whiskers(t, data, "brier"); w != nil {
-		t.Errorf("Brier walk has whiskers %v but no intervals", w)
+	for _, item := range forestItems(t, data, "brier") {
+		if item["gwInterval"] == true {
+			t.Errorf("Brier row %v has an interval but the result has none", item["value"])
+		}
 	}
 	for _, want := range []string{
 		`<th class="num">90% interval</th>`,
@@ -98,8 +106,10 @@ func TestWriteHTMLIntervals(t *testing.T) {
 	})
 	noData := pageData(t, none)
 	for _, m := range []string{"fnr", "brier"} {
-		if w := whiskers(t, noData, m); w != nil {
-			t.Errorf("%s: whiskers without intervals: %v", m, w)
+		for _, item := range forestItems(t, noData, m) {
+			if item["gwInterval"] == true {
+				t.Errorf("%s: an interval without intervals: %v", m, item["value"])
+			}
 		}
 	}
 }

@@ -59,7 +59,7 @@ func cellText(s string) string {
 func TestWriteHTMLSections(t *testing.T) {
 	page := renderHTML(t, true, nil)
 	for _, id := range []string{"overview", "overview-table", "overview-caution", "warnings-section", "warnings", "summary", "groups", "decomposition", "graph", "drilldown", "diagnostics", "assumptions", "reproducibility", "synthetic",
-		"chart-walk", "chart-graph", "chart-reliability", "column-cards", "gw-metric"} {
+		"chart-forest", "chart-graph", "chart-reliability", "column-cards", "gw-metric"} {
 		if !strings.Contains(page, `id="`+id+`"`) {
 			t.Errorf("page lacks element #%s", id)
 		}

@@ -8,47 +8,72 @@
   var charts = [];
   var rendered = 0;
 
-  // Drawing functions for custom series, looked up by series id.
-  function floatingBar(params, api) {
-    var row = api.value(2);
-    var a = api.coord([api.value(0), row]);
-    var b = api.coord([api.value(1), row]);
-    var h = api.size([0, 1])[1] * 0.56;
-    var x0 = Math.min(a[0], b[0]);
-    var w = Math.max(Math.abs(b[0] - a[0]), 2);
-    var item = params.context.items[params.dataIndex];
-    var children = [{
-      type: "rect",
-      shape: { x: x0, y: a[1] - h / 2, width: w, height: h, r: 2 },
-      style: { fill: api.visual("color"), stroke: "#22252B", lineWidth: 0.5 }
-    }];
-    if (item && item.name) {
-      var anchor = api.coord([api.value(3), row]);
-      children.push({
-        type: "text",
-        style: { x: Math.max(x0 + w, anchor[0]) + 6, y: a[1], text: item.name, fill: "#22252B", font: "600 12px sans-serif", verticalAlign: "middle", align: "left" }
-      });
+  var ink = "#22252B", muted = "#6B6F76", rule = "#D9D4C7";
+
+  // Draws one row of a contribution chart (series gw-forest): a mechanism
+  // as a marker at its contribution with its interval, a square when it
+  // widens the gap and a circle when it narrows it, in the item's colour;
+  // hollow with a dashed interval in that colour when unreliable; "not estimable" instead of a marker; the
+  // residual; the observed gap as a diamond spanning its interval. The
+  // value label goes right of the row's drawing, or left of it when it
+  // would leave the plot. Data: [value, low, high, row]; the item carries
+  // gwKind, gwRole, gwHollow and gwInterval.
+  function forestRow(params, api) {
+    var item = params.context.items[params.dataIndex] || {};
+    var row = api.value(3);
+    var y = api.coord([0, row])[1];
+    var h = api.size([0, 1])[1];
+    var cs = params.coordSys;
+    var children = [];
+    if (item.gwKind === "residual") {
+      children.push({ type: "line", shape: { x1: cs.x, y1: y - h / 2, x2: cs.x + cs.width, y2: y - h / 2 },
+        style: { stroke: rule, lineWidth: 1, lineDash: [4, 3] } });
     }
+    if (item.gwKind === "unestimable") {
+      children.push({ type: "text", style: { x: api.coord([0, row])[0] + 6, y: y, text: item.name, fill: muted,
+        font: "italic 12px sans-serif", verticalAlign: "middle", align: "left" } });
+      return { type: "group", children: children };
+    }
+    var p = api.coord([api.value(0), row])[0];
+    var lo = api.coord([api.value(1), row])[0], hi = api.coord([api.value(2), row])[0];
+    var hollow = !!item.gwHollow;
+    if (item.gwKind === "gap") {
+      var half = h * 0.26;
+      if (!item.gwInterval) { lo = p - 8; hi = p + 8; }
+      children.push({ type: "polygon", shape: { points: [[lo, y], [p, y - half], [hi, y], [p, y + half]] },
+        style: { fill: ink, stroke: ink, lineWidth: 1 } });
+    } else {
+      var colour = api.visual("color");
+      if (item.gwInterval) {
+        var line = { stroke: hollow ? colour : ink, lineWidth: hollow ? 2 : 1.5 };
+        if (hollow) { line.lineDash = [5, 3]; }
+        var cap = h * 0.2;
+        children.push(
+          { type: "line", shape: { x1: lo, y1: y, x2: hi, y2: y }, style: line },
+          { type: "line", shape: { x1: lo, y1: y - cap, x2: lo, y2: y + cap }, style: line },
+          { type: "line", shape: { x1: hi, y1: y - cap, x2: hi, y2: y + cap }, style: line });
+      }
+      var mark = { fill: hollow ? "#FFFFFF" : colour, stroke: hollow ? colour : ink, lineWidth: hollow ? 2.5 : 1 };
+      if (item.gwRole === "narrows") {
+        children.push({ type: "circle", shape: { cx: p, cy: y, r: 6 }, style: mark });
+      } else if (item.gwKind === "residual") {
+        children.push({ type: "polygon", shape: { points: [[p - 6, y], [p, y - 6], [p + 6, y], [p, y + 6]] }, style: mark });
+      } else {
+        children.push({ type: "rect", shape: { x: p - 5.5, y: y - 5.5, width: 11, height: 11 }, style: mark });
+      }
+      lo = Math.min(lo, p - 7); hi = Math.max(hi, p + 7);
+    }
+    var text = item.name || "";
+    var width = 6.8 * text.length;
+    var x = hi + 8, align = "left";
+    if (x + width > cs.x + cs.width && lo - 8 - width >= cs.x) { x = lo - 8; align = "right"; }
+    children.push({ type: "text", style: { x: x, y: y, text: text, fill: ink, font: "600 12px sans-serif",
+      verticalAlign: "middle", align: align } });
     return { type: "group", children: children };
   }
 
-  function whisker(params, api) {
-    var row = api.value(2);
-    var a = api.coord([api.value(0), row]);
-    var b = api.coord([api.value(1), row]);
-    var h = api.size([0, 1])[1] * 0.3;
-    var line = { stroke: "#22252B", lineWidth: 1.4 };
-    return {
-      type: "group",
-      children: [
-        { type: "line", shape: { x1: a[0], y1: a[1], x2: b[0], y2: b[1] }, style: line },
-        { type: "line", shape: { x1: a[0], y1: a[1] - h / 2, x2: a[0], y2: a[1] + h / 2 }, style: line },
-        { type: "line", shape: { x1: b[0], y1: b[1] - h / 2, x2: b[0], y2: b[1] + h / 2 }, style: line }
-      ]
-    };
-  }
-
-  var renderers = { "gw-walk-bars": floatingBar, "gw-whiskers": whisker };
+  // Drawing functions for custom series, looked up by series id.
+  var renderers = { "gw-forest": forestRow };
 
   function prepare(option) {
     var o = JSON.parse(JSON.stringify(option));
@@ -133,6 +158,30 @@
     return o;
   }
 
+  // A contribution chart keeps at most 38% of its width for row labels,
+  // so that on a phone the rows keep room to draw; labels are cut with an
+  // ellipsis (the table beside the chart has them in full).
+  function fitForest(chart, option) {
+    var o = prepare(option);
+    var grid = (o.grid || [])[0] || o.grid;
+    var y = (o.yAxis || [])[0];
+    if (!grid || !y) {
+      return o;
+    }
+    var left = Math.min(+grid.left || 0, Math.max(72, Math.round(chart.getWidth() * 0.38)));
+    grid.left = left;
+    if (y.axisLabel) { y.axisLabel.width = left - 12; }
+    return o;
+  }
+
+  // The height of a contribution chart: 34 px per row and room for the
+  // axis, set before the chart is drawn.
+  function forestHeight(el, option) {
+    var y = option && (option.yAxis || [])[0];
+    var rows = y && y.data ? y.data.length : 6;
+    el.style.height = (rows * 34 + 64) + "px";
+  }
+
   function drawGraph(chart, option) {
     chart.setOption(fitGraph(chart, option), true);
   }
@@ -152,17 +201,19 @@
     return chart;
   }
 
-  var walk = null, graph = null, graphMetric = data && data.metric;
+  var forest = null, graph = null, shown = data && data.metric;
 
   function selectMetric(name) {
     document.querySelectorAll(".gw-metric-panel").forEach(function (p) {
       p.hidden = p.getAttribute("data-metric") !== name;
     });
-    if (walk && data.walk[name]) {
-      walk.setOption(prepare(data.walk[name]), true);
+    if (data.forest[name]) {
+      shown = name;
+    }
+    if (forest && data.forest[name]) {
+      forest.setOption(fitForest(forest, data.forest[name]), true);
     }
     if (graph && data.graph[name]) {
-      graphMetric = name;
       drawGraph(graph, data.graph[name]);
     }
     var box = document.getElementById("column-cards");
@@ -182,8 +233,11 @@
 
   function resizeAll() {
     charts.forEach(function (c) { c.resize(); });
-    if (graph && data.graph[graphMetric]) {
-      drawGraph(graph, data.graph[graphMetric]);
+    if (forest && data.forest[shown]) {
+      forest.setOption(fitForest(forest, data.forest[shown]), true);
+    }
+    if (graph && data.graph[shown]) {
+      drawGraph(graph, data.graph[shown]);
     }
   }
 
@@ -196,14 +250,14 @@
     document.querySelectorAll("[data-chart]").forEach(function (el) {
       var kind = el.getAttribute("data-chart");
       var option = null;
-      if (kind === "walk") { option = data.walk[data.metric]; }
+      if (kind === "forest") { option = data.forest[data.metric]; forestHeight(el, option); }
       if (kind === "graph") { option = data.graph[data.metric]; }
       if (kind === "reliability") { option = data.reliability; }
       if (kind === "column") { option = data.columns[el.getAttribute("data-column")]; }
-      var c = draw(el, option, kind === "graph" ? fitGraph : null);
+      var c = draw(el, option, kind === "graph" ? fitGraph : kind === "forest" ? fitForest : null);
       if (c) {
         expected++;
-        if (kind === "walk") { walk = c; }
+        if (kind === "forest") { forest = c; }
         if (kind === "graph") { graph = c; }
       }
     });
@@ -211,7 +265,7 @@
     var menu = document.getElementById("gw-metric");
     // A link may choose the metric: report.html#metric=fpr.
     var wanted = /metric=([A-Za-z0-9_]+)/.exec(window.location.hash);
-    if (menu && wanted && data.walk[wanted[1]]) {
+    if (menu && wanted && data.forest[wanted[1]]) {
       menu.value = wanted[1];
     }
     if (menu) {
