@@ -3,6 +3,8 @@ package report
 import (
 	"math"
 	"testing"
+
+	"github.com/gapwise/gapwise/fairness"
 )
 
 // TestForestRows: the contribution chart has one row per mechanism in
@@ -95,4 +97,23 @@ func forestItemsOf(t *testing.T, o chartOption) []map[string]any {
 	}
 	t.Fatal("no gw-forest series")
 	return nil
+}
+
+// TestShareAxisMax: a column chart's share axis ends at the largest
+// share rounded up to a 1-2-5 step, and never above 100% (by hand: 37%
+// rounds up to 40% at step 10; 96% would round to 100 at step 20 and 99%
+// to 100 too, not 120).
+func TestShareAxisMax(t *testing.T) {
+	for _, tc := range []struct {
+		ref, cmp []float64
+		want     float64
+	}{
+		{[]float64{0.37, 0.2}, []float64{0.3, 0.1}, 40},
+		{[]float64{0.96, 0.04}, []float64{0.5, 0.5}, 100},
+		{[]float64{0.99, 0.01}, []float64{0.98, 0.02}, 100},
+	} {
+		if got := shareAxisMax(fairness.ColumnDetails{Reference: tc.ref, Comparison: tc.cmp}); got != tc.want {
+			t.Errorf("shares %v, %v: axis top %v, want %v", tc.ref, tc.cmp, got, tc.want)
+		}
+	}
 }

@@ -1,6 +1,8 @@
 package report
 
 import (
+	"math"
+
 	"github.com/go-echarts/go-echarts/v2/charts"
 	"github.com/go-echarts/go-echarts/v2/opts"
 	"github.com/go-echarts/go-echarts/v2/types"
@@ -57,7 +59,7 @@ func columnChart(res *fairness.Result, c fairness.ColumnDetails) chartOption {
 		charts.WithTooltipOpts(opts.Tooltip{Show: opts.Bool(true), Trigger: "axis", BackgroundColor: "#FFFFFF", BorderColor: colourRule}),
 		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(true), Top: "0"}),
 		charts.WithGridOpts(opts.Grid{Left: "8", Right: "8", Top: "32", Bottom: "8", ContainLabel: opts.Bool(true)}),
-		charts.WithYAxisOpts(opts.YAxis{Type: "value", AxisLabel: &opts.AxisLabel{Formatter: types.FuncStr("{value}%")},
+		charts.WithYAxisOpts(opts.YAxis{Type: "value", Min: 0, Max: shareAxisMax(c), AxisLabel: &opts.AxisLabel{Formatter: types.FuncStr("{value}%")},
 			SplitLine: &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: colourRule, Type: "dashed"}}}),
 		charts.WithXAxisOpts(opts.XAxis{Type: "category", AxisLabel: &opts.AxisLabel{Interval: "0", Rotate: rotateFor(len(c.Reference))}}),
 	)
@@ -72,6 +74,20 @@ func columnChart(res *fairness.Result, c fairness.ColumnDetails) chartOption {
 	bar.AddSeries(res.Groups.Reference, shares(c.Reference), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourReference}))
 	bar.AddSeries(res.Groups.Comparison, shares(c.Comparison), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourComparison, BorderColor: colourInk, BorderWidth: 0.5}))
 	return optionOf(bar)
+}
+
+// shareAxisMax is the top of a column chart's axis in percent: the
+// largest share rounded up to a 1-2-5 step, never above 100%.
+func shareAxisMax(c fairness.ColumnDetails) float64 {
+	top := 0.0
+	for _, v := range append(append([]float64{}, c.Reference...), c.Comparison...) {
+		top = max(top, 100*v)
+	}
+	if top <= 0 {
+		return 100
+	}
+	step := niceStep(top / 5)
+	return min(100, math.Ceil(top/step)*step)
 }
 
 // rotateFor tilts category labels when there are many of them.
