@@ -135,3 +135,25 @@ func TestGeneratedSpecsParse(t *testing.T) {
 		}
 	}
 }
+
+// TestDemoWarningsFew: the demo is a clean case whose contributions match
+// the generator's truth (TestDemoAgainstGroundTruth), so its warnings must
+// be few, distinct and no more than notes: a caution or an "unreliable"
+// there would be a false alarm.
+func TestDemoWarningsFew(t *testing.T) {
+	res := loadResult(t, filepath.Join(demoDir(t), resultFile))
+	if len(res.Warnings) > 2 {
+		t.Errorf("%d warnings on the demo, want at most 2", len(res.Warnings))
+	}
+	seen := map[string]bool{}
+	for _, w := range res.Warnings {
+		if w.Severity != fairness.SeverityNote {
+			t.Errorf("%s warning on the demo: %s", w.Severity, w.Message)
+		}
+		key := string(w.Kind) + "|" + w.Metric + "|" + strings.Join(w.Nodes, ",")
+		if seen[key] {
+			t.Errorf("repeated warning %s", key)
+		}
+		seen[key] = true
+	}
+}
