@@ -62,6 +62,18 @@ type BootstrapSummary struct {
 // not depend on the number of goroutines. Each replicate runs its fits one
 // at a time on a single goroutine (the replicates already occupy the
 // workers).
+//
+// With R = Options.FoldSplits > 1 fold splits, replicate b takes what it
+// reuses from split r = b mod R of the point estimate: its learner choice
+// (refit mode, where the replicate also draws a fold split of its own) or
+// its fitted log-ratios (fast mode). The replicates then form a mixture
+// over the splits, whose variance is E_r[Var(θ* | r)] + Var_r(E[θ* | r]):
+// the resampling variance within a split plus the between-split variance,
+// the bootstrap counterpart of the variance σ² = (1/R) Σ_r (σ_r² + (θ_r −
+// θ̄)²) with which Chernozhukov et al. (2018, §3.4) fold the uncertainty of
+// the sample splitting into the interval of the split-averaged estimate θ̄.
+// It is conservative: θ̄ itself varies between seeds by about
+// SplitSD/√R, while the mixture carries the whole between-split spread.
 func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, opt Options, bopt BootstrapOptions) (*Decomposition, *BootstrapSummary, error) {
 	if bopt.Replicates == 0 {
 		bopt.Replicates = 200
@@ -76,25 +88,12 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		return nil, nil, fmt.Errorf("attribution: bootstrap needs at least 2 replicates, got %d", bopt.Replicates)
 	}
 	opt = withDefaults(opt)
-	d, ratios, err := decompose(s, mechs, metricNames, opt, nil)
+	d, fits, err := decomposeSplits(s, mechs, metricNames, opt)
 	if err != nil {
 		return nil, nil, err
 	}
-	chosen := fixedLearners{}
-	for _, mr := range ratios {
-		chosen[mr.jointKey] = mr.jointRefit
-		if mr.parentKey != "" {
-			chosen[mr.parentKey] = mr.parentRefit
-		}
-	}
+	chosen, logRatio := reuseBySplit(fits, bopt.KeepRatios)
 	g := splitGroups(s)
-	var logRatio [][]float64
-	if bopt.KeepRatios {
-		logRatio = make([][]float64, len(ratios))
-		for i, mr := range ratios {
-			logRatio[i] = mr.LogRatio
-		}
-	}
 
 	B := bopt.Replicates
 	reps := make([][]MetricDecomposition, B)
@@ -109,10 +108,11 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		ci := resample(g.cmpIdx, rng)
 		var md []MetricDecomposition
 		var err error
+		r := b % len(fits)
 		if bopt.KeepRatios {
-			md, err = replicateKeep(s, ri, ci, logRatio, metricNames, inner)
+			md, err = replicateKeep(s, ri, ci, logRatio[r], metricNames, inner)
 		} else {
-			md, err = replicateRefit(s, mechs, ri, ci, metricNames, inner, chosen, uint64(b))
+			md, err = replicateRefit(s, mechs, ri, ci, metricNames, inner, chosen[r], uint64(b))
 		}
 		if err == nil {
 			reps[b] = md
@@ -158,6 +158,31 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		}
 	}
 	return d, sum, nil
+}
+
+// reuseBySplit returns, per fold split, what a bootstrap replicate reuses
+// from it: the learner fitted on each column set (chosen[r]) and, in fast
+// mode (keep), the log-ratios logRatio[r][i] of mechanism i at every
+// record of the Sample.
+func reuseBySplit(fits []splitFit, keep bool) (chosen []fixedLearners, logRatio [][][]float64) {
+	chosen = make([]fixedLearners, len(fits))
+	logRatio = make([][][]float64, len(fits))
+	for r, f := range fits {
+		chosen[r] = fixedLearners{}
+		for _, mr := range f.ratios {
+			chosen[r][mr.jointKey] = mr.jointRefit
+			if mr.parentKey != "" {
+				chosen[r][mr.parentKey] = mr.parentRefit
+			}
+		}
+		if keep {
+			logRatio[r] = make([][]float64, len(f.ratios))
+			for i, mr := range f.ratios {
+				logRatio[r][i] = mr.LogRatio
+			}
+		}
+	}
+	return chosen, logRatio
 }
 
 // resample draws len(idx) elements of idx with replacement.

@@ -16,9 +16,11 @@ import (
 // reference records with w_S = Π_{i∈S} r_i (EvaluateCoalitions), forms the
 // game v(S) = M(P_S) − M(P_∅), and returns φ = ExactShapley(v). Because the
 // reweighted grand coalition only estimates the comparison group's metric,
-// Residual = Gap − Σφ is reported rather than absorbed.
+// Residual = Gap − Σφ is reported rather than absorbed. All of this is
+// repeated on Options.FoldSplits independent fold splits and averaged
+// (decomposeSplits, aggregateSplits).
 func Decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options) (*Decomposition, error) {
-	d, _, err := decompose(s, mechs, metricNames, opt, nil)
+	d, _, err := decomposeSplits(s, mechs, metricNames, opt)
 	return d, err
 }
 
@@ -46,8 +48,9 @@ func splitGroups(s *Sample) groupSplit {
 
 // decompose is Decompose that also returns the density ratios; chosen, if
 // non-nil, fixes the learner per column set (a bootstrap replicate, see
-// estimateRatios), and then only the metric splits are computed, not the
-// weight diagnostics. The phases, in order: observe (observed metrics, so
+// estimateRatios), and then (as for a split after the first,
+// Options.splitOnly) only the metric splits are computed, not the weight
+// diagnostics. The phases, in order: observe (observed metrics, so
 // that an undefined metric is reported before any fitting),
 // estimateRatios, estimateSides (clipped log-ratios and mechanism
 // diagnostics), splitGapsSides (Shapley values), and for the point
@@ -71,7 +74,7 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 		mix = opt.Mix.resolve()
 	}
 	out.Mix = mix
-	diag := chosen == nil
+	diag := chosen == nil && !opt.splitOnly
 	sides, reports, err := estimateSides(s, ratios, g, opt, out.Side, diag)
 	if err != nil {
 		return nil, nil, err

@@ -31,6 +31,14 @@ type Options struct {
 	// their central interval of probability ClipQuantile over the records
 	// of each side used (ClipAtQuantiles); 0 means no clipping.
 	ClipQuantile float64
+	// FoldSplits is the number R of independent cross-fitting fold splits
+	// whose estimates are averaged (see aggregateSplits); 0 means
+	// DefaultFoldSplits for the Sample's group sizes.
+	FoldSplits int
+
+	// splitOnly marks a split after the first: decompose skips the
+	// diagnostics, which describe split 0 only.
+	splitOnly bool
 }
 
 // DefaultExactLimit is the default Options.ExactLimit.
@@ -42,6 +50,7 @@ type Decomposition struct {
 	Metrics    []MetricDecomposition // in the order requested
 	Side       Side                  // the side used (never SideDefault)
 	Mix        Mix                   // the combination used for SideBoth (never MixDefault); MixDefault for one side
+	FoldSplits int                   // R, the fold splits averaged (Options.FoldSplits)
 	// Weights describes, per side used (reference first), the weights
 	// that emulate the hybrid distributions on that side's records.
 	Weights []SideWeights
@@ -79,6 +88,12 @@ type MetricDecomposition struct {
 	// StdErrors are the Monte Carlo standard errors of Contributions when
 	// they were estimated by permutation sampling; nil when exact.
 	StdErrors []float64
+	// SplitSD[i] is the standard deviation of mechanism i's contribution
+	// over the R fold splits (divisor R − 1), and SplitContributions[r]
+	// split r's contributions; both nil for one split. The seed-to-seed
+	// spread of Contributions[i] is about SplitSD[i]/√R.
+	SplitSD            []float64
+	SplitContributions [][]float64
 	// EffectiveRecords is n_eff of the weights behind the estimate of the
 	// far end of the gap, over the records the metric counts (negatives
 	// for FPR, positives for FNR and TPR, flagged records for PPV, ...):

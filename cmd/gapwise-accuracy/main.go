@@ -6,6 +6,7 @@
 //	go run ./cmd/gapwise-accuracy [-sizes 2000,10000,50000] [-reps 3]
 //	go run ./cmd/gapwise-accuracy -sides -learners auto
 //	go run ./cmd/gapwise-accuracy -coverage -learners expanded [-draws 30] [-boot 40]
+//	go run ./cmd/gapwise-accuracy -splits -learners auto [-seeds 10] [-fold-splits 1,0] [-boot 40]
 //
 // Ground truth: every hybrid distribution simulated with common random
 // numbers and split with the Shapley (1953) formula. All data is synthetic.
@@ -39,7 +40,12 @@ type options struct {
 	checks   bool            // measure how often the warnings fire instead (checks.go)
 	mix      attribution.Mix // combination of the sides in the checks study
 	draws    int             // independent draws per case and size in the coverage and checks studies
-	boot     int             // bootstrap replicates per draw in the coverage study
+	boot     int             // bootstrap replicates per draw in the coverage study, per row in the splits study
+	splits   bool            // measure seed stability by fold splits instead (splits.go)
+	seeds    int             // seeds per row in the splits study
+	// foldSplits are the fold splits R compared by the splits study (0:
+	// attribution.DefaultFoldSplits for the size).
+	foldSplits []int
 }
 
 func main() {
@@ -56,6 +62,9 @@ func main() {
 	}
 	if opt.checks {
 		study = runChecks
+	}
+	if opt.splits {
+		study = runSplits
 	}
 	if err := study(opt, os.Stdout, os.Stderr); err != nil {
 		fmt.Fprintln(os.Stderr, "gapwise-accuracy:", err)
@@ -80,27 +89,33 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	checks := fs.Bool("checks", false, "measure how often each warning fires on clean and broken setups (default sizes "+strconv.Itoa(checksSize)+")")
 	mixName := fs.String("mix", "", "with -checks: how both sides are combined (coalition, metric-ess, metric-variance, pick, mechanism; default the library's)")
 	draws := fs.Int("draws", 30, "independent draws per case and size with -coverage and -checks")
-	boot := fs.Int("boot", 40, "bootstrap replicates (full refit) per draw with -coverage")
+	boot := fs.Int("boot", 40, "bootstrap replicates (full refit) per draw with -coverage, per row with -splits")
+	splits := fs.Bool("splits", false, "measure how much the contributions move with the seed for each -fold-splits value (default sizes "+strconv.Itoa(splitsSize)+", cases "+strings.Join(splitsCases, ",")+"; first -learners choice)")
+	seeds := fs.Int("seeds", 10, "seeds per row with -splits")
+	foldSplits := fs.String("fold-splits", "1,0", "comma-separated fold splits R compared with -splits (0: the default for the size)")
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
 	}
-	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot}
-	if opt.checks {
-		set := map[string]bool{}
-		fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
-		if !set["sizes"] {
-			*sizes = strconv.Itoa(checksSize)
-		}
+	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot, splits: *splits, seeds: *seeds}
+	set := map[string]bool{}
+	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	if opt.checks && !set["sizes"] {
+		*sizes = strconv.Itoa(checksSize)
 	}
 	if opt.coverage {
-		set := map[string]bool{}
-		fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
-		if !set["sizes"] {
-			*sizes = strconv.Itoa(coverageSize)
+		defaultSizesCases(set, sizes, cases, coverageSize, coverageCases)
+	}
+	if opt.splits {
+		defaultSizesCases(set, sizes, cases, splitsSize, splitsCases)
+	}
+	for _, f := range split(*foldSplits) {
+		r, err := strconv.Atoi(f)
+		if err != nil || r < 0 {
+			err = fmt.Errorf("-fold-splits: %q is not a number of splits (0 for the default)", f)
+			fmt.Fprintln(stderr, err)
+			return options{}, err
 		}
-		if !set["cases"] {
-			*cases = strings.Join(coverageCases, ",")
-		}
+		opt.foldSplits = append(opt.foldSplits, r)
 	}
 	for _, f := range split(*sizes) {
 		n, err := strconv.Atoi(f)
@@ -129,12 +144,23 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 			return options{}, err
 		}
 	}
-	if opt.reps < 1 || opt.truthN < 1 || opt.draws < 1 || opt.boot < 2 {
-		err := fmt.Errorf("-reps, -truth-n and -draws must be positive and -boot at least 2")
+	if opt.reps < 1 || opt.truthN < 1 || opt.draws < 1 || opt.boot < 2 || opt.seeds < 2 {
+		err := fmt.Errorf("-reps, -truth-n and -draws must be positive, -boot and -seeds at least 2")
 		fmt.Fprintln(stderr, err)
 		return options{}, err
 	}
 	return opt, nil
+}
+
+// defaultSizesCases sets -sizes and -cases to a study's own defaults where
+// they were not given (set holds the flags given).
+func defaultSizesCases(set map[string]bool, sizes, cases *string, size int, names []string) {
+	if !set["sizes"] {
+		*sizes = strconv.Itoa(size)
+	}
+	if !set["cases"] {
+		*cases = strings.Join(names, ",")
+	}
 }
 
 func split(s string) []string {
