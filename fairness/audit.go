@@ -47,12 +47,13 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		return nil, specErr(spec.File, spec.KeyLine("classifier"), "classifier", ErrClassifierUnavailable, "classifier %s is not available", spec.Classifier)
 	}
 	aopt := attribution.Options{
-		Threshold: spec.Threshold,
-		Folds:     spec.Folds,
-		Seed:      spec.Seed,
-		Learners:  learners,
-		ECEBins:   spec.ECEBins,
-		Workers:   opt.Workers,
+		Threshold:  spec.Threshold,
+		Folds:      spec.Folds,
+		Seed:       spec.Seed,
+		FoldSplits: spec.FoldSplits,
+		Learners:   learners,
+		ECEBins:    spec.ECEBins,
+		Workers:    opt.Workers,
 
 		ExactLimit:   spec.ExactLimit,
 		ClipQuantile: spec.ClipRatios,
@@ -125,6 +126,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		Seed:        spec.Seed,
 		Settings: Settings{
 			Folds:       spec.Folds,
+			FoldSplits:  dec.FoldSplits,
 			Classifier:  spec.Classifier,
 			ECEBins:     spec.ECEBins,
 			DropMissing: spec.DropMissing(),
@@ -255,6 +257,10 @@ func metricResult(md attribution.MetricDecomposition, mechs []attribution.Mechan
 		}
 		if a := md.Agreement; a != nil && i < len(a.Contributions) {
 			c.SideDifference = sideDifference(a.Contributions[i])
+		}
+		if i < len(md.SplitSD) {
+			sd := md.SplitSD[i]
+			c.SplitSD = &sd
 		}
 		res.Contributions = append(res.Contributions, c)
 	}

@@ -2,6 +2,7 @@ package fairness
 
 import (
 	"bufio"
+	"bytes"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -26,6 +27,7 @@ var badSentinels = map[string]error{
 	"duplicate_key":        ErrDuplicateKey,
 	"duplicate_node":       ErrDuplicateNode,
 	"empty_file":           ErrEmptyFile,
+	"fold_splits_too_many": ErrBadValue,
 	"folds_too_small":      ErrBadValue,
 	"group_absent":         ErrGroupAbsent,
 	"hex_number":           ErrNotNumeric,
@@ -283,6 +285,12 @@ func TestRunDeterministic(t *testing.T) {
 				t.Errorf("metric %s mechanism %d: %+v with 1 worker, %+v with 4", r1.Metrics[i].Metric, j, a, b)
 			}
 		}
+	}
+	// The contract promises byte-identical JSON at any number of workers.
+	j1, err1 := json.Marshal(r1)
+	j4, err4 := json.Marshal(r4)
+	if err1 != nil || err4 != nil || !bytes.Equal(j1, j4) {
+		t.Errorf("JSON differs between 1 and 4 workers (errors %v, %v)", err1, err4)
 	}
 }
 

@@ -21,6 +21,11 @@ const (
 	MaxLineBytes = 1 << 20
 	// MaxFolds caps the cross-fitting folds (common practice uses 5 to 10).
 	MaxFolds = 50
+	// MaxFoldSplits caps fold_splits, the independent fold splits whose
+	// estimates are averaged: each costs one full estimate, and the
+	// split-to-split noise of the average falls as 1/√R, so beyond 100 it
+	// is far below the sampling error.
+	MaxFoldSplits = 100
 	// MaxECEBins caps the bins of the expected calibration error.
 	MaxECEBins = 1000
 	// MaxReplicates caps the bootstrap replicates (intervals.replicates and

@@ -1,6 +1,7 @@
 package fairness
 
 import (
+	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/classify"
 )
 
@@ -21,6 +22,7 @@ type PlanInfo struct {
 	Classifier  string
 	Learners    []string // candidate learners per mechanism
 	Folds       int
+	FoldSplits  int       // fold splits the audit would average (fold_splits or its default)
 	Warnings    []Warning // problems visible before fitting, e.g. dropped rows
 }
 
@@ -59,6 +61,10 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 		Classifier:  spec.Classifier,
 		Learners:    classify.NamesOf(learners),
 		Folds:       spec.Folds,
+		FoldSplits:  spec.FoldSplits,
+	}
+	if info.FoldSplits == 0 {
+		info.FoldSplits = attribution.DefaultFoldSplits(sample.Counts())
 	}
 	info.ModelInputs = modelInputs(spec)
 	info.Warnings = append(dataWarnings(info.Groups), modelInputWarnings(info.ModelInputs, spec.Groups.Column, spec.Score, spec.ScoreIsNode(), nil)...)

@@ -52,7 +52,10 @@ type InputInfo struct {
 
 // Settings echoes the estimation settings that shaped the numbers.
 type Settings struct {
-	Folds       int    `json:"folds"`
+	Folds int `json:"folds"`
+	// FoldSplits is the number R of independent fold splits whose
+	// estimates were averaged (spec key fold_splits or its default).
+	FoldSplits  int    `json:"fold_splits"`
 	Classifier  string `json:"classifier"`
 	ECEBins     int    `json:"ece_bins"`
 	DropMissing bool   `json:"drop_missing"`
@@ -167,6 +170,12 @@ type Contribution struct {
 	// mechanism's reliability.estimable is false): Value and the interval
 	// are kept for completeness, but reports show no value.
 	NotEstimable bool `json:"not_estimable,omitempty"`
+	// SplitSD is the standard deviation of the contribution over the
+	// fold splits (Settings.FoldSplits, divisor R − 1), present when there
+	// were several: how much one split's estimate depends on which
+	// records share a fold. Value, their mean, moves with the seed by
+	// about SplitSD/√R.
+	SplitSD *float64 `json:"split_sd,omitempty"`
 	// Alone is the change in the metric if only this mechanism took the
 	// comparison group's form: v({i}).
 	Alone float64 `json:"alone"`

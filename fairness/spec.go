@@ -41,6 +41,7 @@ import (
 //	categorical: [sex]   # columns one-hot encoded, levels sorted
 //	model_inputs: [age, hb, bmi]  # the columns the model reads (checked against the graph)
 //	folds: 5             # cross-fitting folds, >= 2
+//	fold_splits: 10      # independent fold splits averaged, 1 to MaxFoldSplits; omit for the default by group size
 //	classifier: auto     # auto, linear, expanded or boosted
 //	ece_bins: 10         # >= 1
 //	estimate_from: both       # records that estimate the hybrids: reference, comparison or both
@@ -76,8 +77,12 @@ type Spec struct {
 	// described (Dataset.Outside).
 	ModelInputs []string
 	Folds       int
-	Classifier  string
-	ECEBins     int
+	// FoldSplits is attribution.Options.FoldSplits: the independent fold
+	// splits whose estimates are averaged; 0 (key omitted) means
+	// attribution.DefaultFoldSplits for the group sizes.
+	FoldSplits int
+	Classifier string
+	ECEBins    int
 	// EstimateFrom is attribution.Side's name: reference, comparison or
 	// both (default attribution.DefaultSide).
 	EstimateFrom string
@@ -327,6 +332,11 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		}
 		if err == nil && s.Folds > MaxFolds {
 			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "folds must be at most %d, got %d", MaxFolds, s.Folds)
+		}
+	case "fold_splits":
+		err = p.decode(k.Value, v, &s.FoldSplits, "an integer")
+		if err == nil && (s.FoldSplits < 1 || s.FoldSplits > MaxFoldSplits) {
+			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "fold_splits must be between 1 and %d, got %d (omit it for the default by group size)", MaxFoldSplits, s.FoldSplits)
 		}
 	case "classifier":
 		s.Classifier, err = p.oneOf(k.Value, v, ClassifierAuto, ClassifierLinear, ClassifierExpanded, ClassifierBoosted)

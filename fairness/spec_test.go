@@ -75,6 +75,7 @@ func TestParseSpecOptionalKeys(t *testing.T) {
 	src := exampleSpec + `missing: drop
 categorical: [m2]
 folds: 3
+fold_splits: 7
 classifier: expanded
 ece_bins: 15
 synthetic: true
@@ -88,7 +89,7 @@ intervals: {replicates: 50, level: 0.9, keep_ratios: true}
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !s.DropMissing() || s.Folds != 3 || s.Classifier != "expanded" || s.ECEBins != 15 || !s.Synthetic ||
+	if !s.DropMissing() || s.Folds != 3 || s.FoldSplits != 7 || s.Classifier != "expanded" || s.ECEBins != 15 || !s.Synthetic ||
 		s.Title != "Anaemia screening (synthetic)" || !reflect.DeepEqual(s.Categorical, []string{"m2"}) || s.DataPath != "/data/cohort.csv" ||
 		s.EstimateFrom != "both" || s.ClipRatios != 0.98 || s.ExactLimit != 12 ||
 		s.Intervals != (Intervals{Replicates: 50, Level: 0.9, KeepRatios: true}) {
@@ -133,6 +134,9 @@ func TestParseSpecErrors(t *testing.T) {
 		{"empty label", edit("label: dx ", "label: ''"), ErrBadValue, 2, "label", "non-empty"},
 		{"folds 1", exampleSpec + "folds: 1\n", ErrBadValue, 18, "folds", "at least 2"},
 		{"folds text", exampleSpec + "folds: many\n", ErrBadValue, 18, "folds", `"many"`},
+		{"fold_splits 0", exampleSpec + "fold_splits: 0\n", ErrBadValue, 18, "fold_splits", "between 1 and 100, got 0"},
+		{"fold_splits over the limit", exampleSpec + "fold_splits: 101\n", ErrBadValue, 18, "fold_splits", "between 1 and 100, got 101"},
+		{"fold_splits text", exampleSpec + "fold_splits: auto\n", ErrBadValue, 18, "fold_splits", `"auto"`},
 		{"seed negative", edit("seed: 1", "seed: -1"), ErrBadValue, 17, "seed", "non-negative"},
 		{"missing mode", exampleSpec + "missing: ignore\n", ErrBadValue, 18, "missing", "error, drop"},
 		{"classifier", exampleSpec + "classifier: forest\n", ErrUnknownClassifier, 18, "classifier", `"forest"`},

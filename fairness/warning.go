@@ -104,6 +104,13 @@ const (
 	// contribution; Nodes are the mechanisms whose contributions differ
 	// by more than WarnSidesZ.
 	KindSidesDisagree WarningKind = "sides_disagree"
+	// KindSplitDependent (caution): some contributions still move with
+	// the seed by more than WarnSplitShare of their interval's half-width
+	// (or, without intervals, of their value and WarnSplitMin): their fold
+	// splits disagree (Contribution.SplitSD). One warning for all metrics;
+	// Nodes are the mechanisms concerned, leaving out those already
+	// unreliable or not estimable.
+	KindSplitDependent WarningKind = "split_dependent"
 	// KindOutlyingValues (note): a numeric graph column has values outside
 	// its typical range (classify.TypicalRange), which the logistic
 	// learners treat as the range's nearer edge; they may be entry errors.

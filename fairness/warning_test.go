@@ -68,6 +68,8 @@ func TestWarningFields(t *testing.T) {
 			Warning{KindSidesDisagree, SeverityCaution, "fnr", []string{"hb"}, "disagree by up to 5.2 standard errors (comparison end +0.0400 ± 0.0100, reference end -0.0010 ± 0.0100; the contributions of `hb` differ most)"}},
 		{"sides disagree, ends only", func(r *Result) { r.Metrics[0] = sidesMetric(9, 0.01) },
 			Warning{KindSidesDisagree, SeverityUnreliable, "fnr", []string{}, "disagree by up to 9.0 standard errors (comparison end +0.0400 ± 0.0100, reference end -0.0010 ± 0.0100):"}},
+		{"split dependent", func(r *Result) { splitContribution(r, 10, 0.03, 0.04, 0, 0) },
+			Warning{KindSplitDependent, SeverityCaution, "", []string{"age"}, "the contributions of `age` (fnr) depend on the fold split"}},
 		{"bootstrap failures", func(r *Result) {
 			r.Settings.Intervals = &IntervalSettings{Intervals: Intervals{Replicates: 50}, Failed: 3}
 		},
@@ -98,8 +100,8 @@ func TestWarningFields(t *testing.T) {
 			seen[w.Kind] = true
 		})
 	}
-	if len(seen) != 15 {
-		t.Errorf("the table covers %d kinds, want all 15", len(seen))
+	if len(seen) != 16 {
+		t.Errorf("the table covers %d kinds, want all 16", len(seen))
 	}
 }
 

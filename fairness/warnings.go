@@ -47,6 +47,15 @@ const (
 	// README's accuracy section for the false-alarm and detection rates.
 	WarnSidesZ           = 4.0
 	WarnSidesZUnreliable = 8.0
+	// WarnSplitShare and WarnSplitMin: a contribution's seed noise, the
+	// standard error SplitSD/√R of the mean over R fold splits, exceeds
+	// WarnSplitShare of its interval's half-width; without intervals, both
+	// WarnSplitShare·|value| and WarnSplitMin. At 0.3 half-widths, ten
+	// reruns with other seeds would spread over about the half-width (the
+	// range of ten normal draws is about 3.1 standard deviations; common
+	// practice).
+	WarnSplitShare = 0.3
+	WarnSplitMin   = 0.005
 )
 
 // Warnings lists the problems a reader of r should know about, in a fixed
@@ -56,7 +65,8 @@ const (
 // extreme ratios), effective sample size, heavy tail, largest weight
 // share, mean ratio overall and per stratum of the parents, and clipping;
 // then per side of estimation its worst hybrid; then per metric its
-// effective records, a large residual and disagreeing sides; last, failed bootstrap
+// effective records, a large residual and disagreeing sides; then the
+// contributions that depend on the fold split; last, failed bootstrap
 // replicates (r.Settings.Intervals.Failed). The result is never nil.
 //
 // Effective sample sizes are judged on the side(s) that estimate the
@@ -76,6 +86,9 @@ func Warnings(r *Result) []Warning {
 	out = append(out, hybridWarnings(r)...)
 	for _, mr := range r.Metrics {
 		out = append(out, metricWarnings(mr, r.Settings.EstimateFrom)...)
+	}
+	if w, ok := splitWarning(r, out); ok {
+		out = append(out, w)
 	}
 	out = append(out, outlyingWarnings(r.Details)...)
 	if iv := r.Settings.Intervals; iv != nil && iv.Failed > 0 {
@@ -263,6 +276,87 @@ func plusMinus(d SideDifference) string {
 		return fmt.Sprintf("%+.4f", d.Difference)
 	}
 	return fmt.Sprintf("%+.4f ± %.4f", d.Difference, *d.StdError)
+}
+
+// splitWarning speaks up once when contributions still move with the
+// seed after averaging R = r.Settings.FoldSplits > 1 fold splits: a
+// contribution's standard error SplitSD/√R exceeds WarnSplitShare of its
+// interval's half-width, or without an interval both
+// WarnSplitShare·|value| and WarnSplitMin (splitNoise). A mechanism that
+// is not estimable or already has an unreliable warning in prior (whose
+// cause also explains the spread) is left out. Nodes lists the mechanisms
+// concerned in graph order; the sentence names, per node, the metrics and
+// quotes the largest case relative to its yardstick.
+func splitWarning(r *Result, prior []Warning) (Warning, bool) {
+	skip := map[string]bool{}
+	for _, m := range r.Mechanisms {
+		skip[m.Node] = estimability(r, m) != ""
+	}
+	for _, w := range prior {
+		if w.Severity == SeverityUnreliable {
+			for _, n := range w.Nodes {
+				skip[n] = true
+			}
+		}
+	}
+	metricsOf := map[string][]string{}
+	var order []string // nodes in graph order: the order of the contributions
+	var worst splitCase
+	for _, mr := range r.Metrics {
+		for _, c := range mr.Contributions {
+			sc, ok := splitNoise(c, r.Settings.FoldSplits)
+			if !ok || skip[c.Node] {
+				continue
+			}
+			if _, seen := metricsOf[c.Node]; !seen {
+				order = append(order, c.Node)
+			}
+			metricsOf[c.Node] = append(metricsOf[c.Node], mr.Metric)
+			if sc.ratio > worst.ratio {
+				sc.metric = mr.Metric
+				worst = sc
+			}
+		}
+	}
+	if len(metricsOf) == 0 {
+		return Warning{}, false
+	}
+	parts := make([]string, len(order))
+	for i, n := range order {
+		parts[i] = fmt.Sprintf("`%s` (%s)", n, strings.Join(metricsOf[n], ", "))
+	}
+	msg := fmt.Sprintf("the contributions of %s depend on the fold split: averaged over %d splits they still move with the seed by more than %.0f%% of their interval's half-width (without intervals, of their value); the largest, `%s` for %s, has standard deviation %.4f between the splits and moves by about %.4f with the seed, against %s; raise fold_splits (this noise falls as 1/√fold_splits)",
+		strings.Join(parts, ", "), r.Settings.FoldSplits, 100*WarnSplitShare, worst.c.Mechanism, worst.metric, *worst.c.SplitSD, worst.se, worst.against)
+	return Warning{Kind: KindSplitDependent, Severity: SeverityCaution, Nodes: order, Message: msg}, true
+}
+
+// splitCase is a contribution whose mean over the fold splits moves with
+// the seed: its standard error se, the yardstick it is judged against (in
+// words) and se over WarnSplitShare times the yardstick.
+type splitCase struct {
+	c       Contribution
+	metric  string
+	se      float64
+	against string
+	ratio   float64
+}
+
+// splitNoise reports whether contribution c, the mean over R fold splits,
+// moves with the seed: se = SplitSD/√R above WarnSplitShare of its
+// interval's half-width, or without an interval above both
+// WarnSplitShare·|value| and WarnSplitMin.
+func splitNoise(c Contribution, R int) (splitCase, bool) {
+	if c.SplitSD == nil || R < 2 {
+		return splitCase{}, false
+	}
+	sc := splitCase{c: c, se: *c.SplitSD / math.Sqrt(float64(R))}
+	if c.CILow != nil && c.CIHigh != nil {
+		hw := (*c.CIHigh - *c.CILow) / 2
+		sc.against, sc.ratio = fmt.Sprintf("its interval's half-width %.4f", hw), sc.se/(WarnSplitShare*hw)
+		return sc, sc.ratio > 1
+	}
+	sc.against, sc.ratio = fmt.Sprintf("its value %+.4f", c.Value), sc.se/(WarnSplitShare*math.Abs(c.Value))
+	return sc, sc.ratio > 1 && sc.se > WarnSplitMin
 }
 
 // nodeList renders nodes as "`a`, `b`", or "no node" for none.

@@ -32,6 +32,18 @@ func warningsBase() *Result {
 	}
 }
 
+// splitContribution gives r's metric one contribution of age with value v
+// over R fold splits with standard deviation sd, and the interval [lo, hi]
+// unless both are 0.
+func splitContribution(r *Result, R int, v, sd, lo, hi float64) {
+	r.Settings.FoldSplits = R
+	c := Contribution{Node: "age", Mechanism: "age", Value: v, SplitSD: &sd}
+	if lo != 0 || hi != 0 {
+		c.CILow, c.CIHigh = &lo, &hi
+	}
+	r.Metrics[0].Contributions = []Contribution{c}
+}
+
 func TestWarnings(t *testing.T) {
 	base := warningsBase
 	tests := []struct {
@@ -123,6 +135,34 @@ func TestWarnings(t *testing.T) {
 			r.Mechanisms[0].Classifier = "expanded"
 			r.Mechanisms[0].Losses = []LearnerLoss{{Classifier: "expanded", LogLoss: 0.6, OddsCheck: 1.2, MaxShare: 0.5}}
 		}, nil},
+		// Split checks (WarnSplitShare 0.3, WarnSplitMin 0.005): with 4
+		// splits the seed noise is SplitSD/2.
+		{"split vs interval", func(r *Result) { splitContribution(r, 4, 0.05, 0.031, 0.00, 0.10) }, []string{"the contributions of `age` (fnr) depend on the fold split: averaged over 4 splits they still move with the seed by more than 30% of their interval's half-width (without intervals, of their value); the largest, `age` for fnr, has standard deviation 0.0310 between the splits and moves by about 0.0155 with the seed, against its interval's half-width 0.0500"}},
+		{"split vs interval fine", func(r *Result) { splitContribution(r, 4, 0.05, 0.029, 0.00, 0.10) }, nil},
+		{"split vs value", func(r *Result) { splitContribution(r, 4, 0.02, 0.013, 0, 0) }, []string{"moves by about 0.0065 with the seed, against its value +0.0200"}},
+		{"split vs value small", func(r *Result) { splitContribution(r, 4, 0.002, 0.009, 0, 0) }, nil},
+		{"split vs value fine", func(r *Result) { splitContribution(r, 4, 0.05, 0.02, 0, 0) }, nil},
+		{"one split", func(r *Result) { splitContribution(r, 1, 0.02, 0.5, 0, 0) }, nil},
+		{"split over metrics and nodes", func(r *Result) {
+			splitContribution(r, 4, 0.02, 0.013, 0, 0)
+			hb := healthy
+			hb.Node, hb.Mechanism = "hb", "hb | age"
+			r.Mechanisms = append(r.Mechanisms, hb)
+			sd1, sd2 := 0.02, 0.05
+			r.Metrics[0].Contributions = append(r.Metrics[0].Contributions, Contribution{Node: "hb", Mechanism: "hb | age", Value: 0.01, SplitSD: &sd1})
+			fpr := r.Metrics[0]
+			fpr.Metric = "fpr"
+			fpr.Contributions = []Contribution{{Node: "age", Mechanism: "age", Value: 0.001, SplitSD: &sd1}, {Node: "hb", Mechanism: "hb | age", Value: 0.03, SplitSD: &sd2}}
+			r.Metrics = append(r.Metrics, fpr)
+		}, []string{"the contributions of `age` (fnr, fpr), `hb` (fnr, fpr) depend on the fold split: averaged over 4 splits they still move with the seed by more than 30% of their interval's half-width (without intervals, of their value); the largest, `age` for fpr, has standard deviation 0.0200"}},
+		{"split of an unreliable mechanism", func(r *Result) {
+			splitContribution(r, 4, 0.02, 0.013, 0, 0)
+			r.Mechanisms[0].AUC = 0.96
+		}, []string{"nearly separable"}},
+		{"split of a mechanism not estimable", func(r *Result) {
+			splitContribution(r, 4, 0.02, 0.013, 0, 0)
+			r.Mechanisms[0].AUC = 0.995
+		}, []string{"the contribution of `age` is not estimable here"}},
 		{"order", func(r *Result) {
 			r.Groups.DroppedReference = 1
 			bad := healthy
@@ -130,7 +170,10 @@ func TestWarnings(t *testing.T) {
 			r.Mechanisms = append(r.Mechanisms, bad)
 			r.Weights[0].Worst.ESS = 30
 			r.Metrics[0].Residual, r.Metrics[0].EffectiveRecords = 0.05, 30
-		}, []string{"dropped", "separable on `hb | dx`", "weight above 20", "`hb` rests on 37 effective records", "the hybrid with", "for fnr, the reweighted", "for fnr the contributions"}},
+			splitContribution(r, 4, 0.02, 0.013, 0, 0) // age: also in the unreliable worst hybrid
+			sd := 0.013
+			r.Metrics[0].Contributions = append(r.Metrics[0].Contributions, Contribution{Node: "bmi", Mechanism: "bmi", Value: 0.02, SplitSD: &sd})
+		}, []string{"dropped", "separable on `hb | dx`", "weight above 20", "`hb` rests on 37 effective records", "the hybrid with", "for fnr, the reweighted", "for fnr the contributions", "the contributions of `bmi` (fnr) depend on the fold split"}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

@@ -97,6 +97,7 @@ type page struct {
 	IntervalSetting string // how the intervals were made, or ""
 	HasStdError     bool   // some contribution has a sampling standard error
 	HasSides        bool   // some contribution has a difference between the sides
+	HasSplitSD      bool   // some contribution has a spread over fold splits
 	Diagnostics     diagnosticsView
 }
 
@@ -142,6 +143,7 @@ type contributionRow struct {
 	Sides                                          string // difference between the sides, or ""
 	Role                                           string // gapRole: "widens", "narrows" or "neutral"
 	RoleWords                                      string // the role in words
+	SplitSD                                        string // "" for one fold split
 	Unreliable                                     string // reason, or ""
 }
 
@@ -246,14 +248,15 @@ func newPage(res *fairness.Result) (*page, error) {
 				row.Value, row.CI, row.Alone, row.IfEqualised, row.Role, row.RoleWords = notEstimable, "", "–", "–", "none", "not estimable"
 			}
 			if c.StdError != nil {
-				row.StdError = formatMagnitude(m.Metric, *c.StdError)
-				if isProportion(m.Metric) {
-					row.StdError += " pts"
-				}
+				row.StdError = formatSpread(m.Metric, *c.StdError)
 				p.HasStdError = true
 			}
 			if row.Sides = contributionSides(m.Metric, c); row.Sides != "" {
 				p.HasSides = true
+			}
+			if c.SplitSD != nil && !c.NotEstimable {
+				row.SplitSD = formatSpread(m.Metric, *c.SplitSD)
+				p.HasSplitSD = true
 			}
 			mv.Rows = append(mv.Rows, row)
 		}
@@ -309,7 +312,8 @@ func newPage(res *fairness.Result) (*page, error) {
 		{"Spec file", res.Inputs.SpecFile}, {"Spec SHA-256", res.Inputs.SpecSHA256},
 		{"Data file", res.Inputs.DataFile}, {"Data SHA-256", res.Inputs.DataSHA256},
 		{"Seed", fmt.Sprint(res.Seed)}, {"Decision threshold", p.Threshold},
-		{"Cross-fitting folds", fmt.Sprint(res.Settings.Folds)}, {"Classifier setting", res.Settings.Classifier},
+		{"Cross-fitting folds", fmt.Sprint(res.Settings.Folds)}, {"Fold splits", foldSplitsSetting(res.Settings.FoldSplits)},
+		{"Classifier setting", res.Settings.Classifier},
 		{"Candidate learners", strings.Join(res.Settings.Learners, ", ")},
 		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Missing values", missingSetting(res.Settings)},
 		{"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},

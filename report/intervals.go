@@ -43,8 +43,21 @@ func intervalSetting(res *fairness.Result) string {
 		mode = "fitted density ratios kept (fast mode: narrower)"
 	}
 	s := fmt.Sprintf("%d bootstrap replicates, %s, level %s", iv.Replicates, mode, intervalLevel(res))
+	if r := res.Settings.FoldSplits; r > 1 {
+		s += fmt.Sprintf(", replicates spread over the %d fold splits", r)
+	}
 	if iv.Failed > 0 {
 		s += fmt.Sprintf("; %d could not be computed", iv.Failed)
 	}
 	return s
+}
+
+// foldSplitsSetting describes the fold splits behind the contributions,
+// e.g. "1" or "10 (contributions are their mean; split SD is the spread
+// between them)".
+func foldSplitsSetting(r int) string {
+	if r <= 1 {
+		return fmt.Sprint(r)
+	}
+	return fmt.Sprintf("%d (contributions are their mean; split SD is the spread between them)", r)
 }

@@ -99,42 +99,75 @@ func mdGroupTable(p mdPrinter, res *fairness.Result) {
 // residual and the observed gap; flags marks unreliable mechanisms.
 func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult, flags map[string]string) {
 	p("### Decomposition of the %s gap\n\n", mdText(MetricTitle(m.Metric)))
-	sides, extra := false, ""
-	for _, c := range m.Contributions {
-		sides = sides || c.SideDifference != nil
+	extra := mdExtraColumns(m)
+	head, rule, blank := "", "", ""
+	for _, col := range extra {
+		head += " " + col.head + " |"
+		rule += " ---: |"
+		blank += " |"
 	}
-	if sides {
-		extra = " |"
-		p("| Mechanism | Contribution | %s | Alone | Gap if equalised | Sides differ |\n", mdText(intervalName(res)))
-		p("| --- | ---: | ---: | ---: | ---: | ---: |\n")
-	} else {
-		p("| Mechanism | Contribution | %s | Alone | Gap if equalised |\n", mdText(intervalName(res)))
-		p("| --- | ---: | ---: | ---: | ---: |\n")
-	}
-	for _, c := range m.Contributions {
+	p("| Mechanism | Contribution | %s | Alone | Gap if equalised |%s\n", mdText(intervalName(res)), head)
+	p("| --- | ---: | ---: | ---: | ---: |%s\n", rule)
+	for i, c := range m.Contributions {
 		name := mdCodeCell(c.Mechanism)
 		if _, ok := flags[c.Node]; ok {
 			name += " (unreliable)"
 		}
 		if c.NotEstimable {
-			p("| %s | %s | – | – | – |%s\n", name, notEstimable, strings.Repeat(" – |", len(extra)/2))
+			p("| %s | %s | – | – | – |%s\n", name, notEstimable, strings.Repeat(" – |", len(extra)))
 			continue
 		}
-		row := fmt.Sprintf("| %s | %s | %s | %s | %s |", name, formatDelta(m.Metric, c.Value),
-			orDash(formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)),
-			formatDelta(m.Metric, c.Alone), formatDelta(m.Metric, c.IfEqualised))
-		if sides {
-			row += " " + orDash(contributionSides(m.Metric, c)) + " |"
+		cells := ""
+		for _, col := range extra {
+			cells += " " + col.cells[i] + " |"
 		}
-		p("%s\n", row)
+		p("| %s | %s | %s | %s | %s |%s\n", name, formatDelta(m.Metric, c.Value),
+			orDash(formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)),
+			formatDelta(m.Metric, c.Alone), formatDelta(m.Metric, c.IfEqualised), cells)
 	}
-	p("| %s | %s | | | |%s\n", sumLabel(m, "Sum of contributions"), formatDelta(m.Metric, m.Estimated), extra)
-	p("| Residual (not assigned) | %s | | | |%s\n", formatDelta(m.Metric, m.Residual), extra)
-	p("| Observed gap | %s | %s | | |%s\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)), extra)
+	p("| %s | %s | | | |%s\n", sumLabel(m, "Sum of contributions"), formatDelta(m.Metric, m.Estimated), blank)
+	p("| Residual (not assigned) | %s | | | |%s\n", formatDelta(m.Metric, m.Residual), blank)
+	p("| Observed gap | %s | %s | | |%s\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)), blank)
 	if s := sidesLine(m); s != "" {
 		p("%s\n\n", mdText(s))
 	}
 	p("%s\n\n", mdText(residualNote(res)))
+}
+
+// mdColumn is an optional column of the decomposition table: its heading
+// and one cell per contribution.
+type mdColumn struct {
+	head  string
+	cells []string
+}
+
+// mdExtraColumns returns the decomposition table's optional columns, in
+// order: "Split SD" (each contribution's standard deviation over the fold
+// splits) when some contribution has one, and "Sides differ" when some
+// contribution has a difference between the two sides' estimates; a
+// contribution without the value gets a dash.
+func mdExtraColumns(m fairness.MetricResult) []mdColumn {
+	n := len(m.Contributions)
+	sd := mdColumn{head: "Split SD", cells: make([]string, n)}
+	sides := mdColumn{head: "Sides differ", cells: make([]string, n)}
+	hasSD, hasSides := false, false
+	for i, c := range m.Contributions {
+		sd.cells[i] = "–"
+		if c.SplitSD != nil {
+			hasSD = true
+			sd.cells[i] = formatSpread(m.Metric, *c.SplitSD)
+		}
+		hasSides = hasSides || c.SideDifference != nil
+		sides.cells[i] = orDash(contributionSides(m.Metric, c))
+	}
+	var out []mdColumn
+	if hasSD {
+		out = append(out, sd)
+	}
+	if hasSides {
+		out = append(out, sides)
+	}
+	return out
 }
 
 // formatThreshold prints the decision threshold with up to four decimals.

@@ -66,6 +66,16 @@ func deltaAt(metric string, v float64, dec int) string {
 	return s
 }
 
+// formatSpread prints a standard error or deviation in the metric's delta
+// unit without sign: "3.1 pts" for proportions, "0.012" otherwise.
+func formatSpread(metric string, v float64) string {
+	s := formatMagnitude(metric, v)
+	if isProportion(metric) {
+		s += " pts"
+	}
+	return s
+}
+
 // formatMagnitude prints |v| in the metric's unit without sign or unit
 // suffix: points for proportions ("9.0"), three decimals otherwise.
 func formatMagnitude(metric string, v float64) string {

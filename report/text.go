@@ -17,7 +17,8 @@ import (
 // and their sizes; per metric the reference and comparison values, the gap,
 // each mechanism's contribution (Shapley value), its effect alone v({i}) and
 // the gap if it alone were equalised v(N∖{i}) (with the Monte Carlo
-// standard error when the values were sampled, and the difference between
+// standard error when the values were sampled, the standard deviation
+// over the fold splits when there were several, and the difference between
 // the two sides' estimates when both sides estimate), the residual
 // gap − Σ contributions with what it holds, the effective records behind
 // the estimate and the comparison of the two sides; then per-mechanism diagnostics and the
@@ -87,16 +88,21 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	vals.write(t.w, "  ")
 	t.line("")
 
-	hasCI, hasSE, hasSides := false, false, false
+	hasCI, hasSE, hasSD, hasSides := false, false, false, false
 	for _, c := range m.Contributions {
 		hasCI = hasCI || (c.CILow != nil && c.CIHigh != nil)
 		hasSE = hasSE || c.StdError != nil
+		hasSD = hasSD || c.SplitSD != nil
 		hasSides = hasSides || c.SideDifference != nil
 	}
 	head := []string{"mechanism", "contribution", "alone", "gap if equalised"}
 	right := []bool{false, true, true, true}
 	if hasSE {
 		head = append(head, "std error")
+		right = append(right, true)
+	}
+	if hasSD {
+		head = append(head, "split SD")
 		right = append(right, true)
 	}
 	if hasCI {
@@ -119,6 +125,13 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 				se = fixed(*c.StdError)
 			}
 			row = append(row, se)
+		}
+		if hasSD {
+			sd := ""
+			if c.SplitSD != nil && !c.NotEstimable {
+				sd = fixed(*c.SplitSD)
+			}
+			row = append(row, sd)
 		}
 		if hasCI {
 			ci := ""
@@ -177,6 +190,9 @@ func (t *textWriter) inputs(res *fairness.Result) {
 	tab.add("seed", fmt.Sprint(res.Seed))
 	if s.Folds > 0 {
 		tab.add("folds", fmt.Sprint(s.Folds))
+	}
+	if s.FoldSplits > 0 {
+		tab.add("fold splits", foldSplitsSetting(s.FoldSplits))
 	}
 	if s.Classifier != "" {
 		c := s.Classifier
