@@ -24,7 +24,9 @@ type Intervals struct {
 	// KeepRatios resamples records together with their already-fitted
 	// log-ratios instead of refitting the classifiers (fast mode). It
 	// ignores the classifiers' own estimation error, so intervals are
-	// narrower than the full bootstrap's.
+	// narrower than the full bootstrap's; with several fold splits the
+	// replicates still take the ratios of different splits, so the
+	// between-split spread is in them (see DecomposeWithIntervals).
 	KeepRatios bool `json:"keep_ratios"`
 }
 

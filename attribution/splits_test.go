@@ -9,6 +9,7 @@ import (
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/attribution/classify"
+	"github.com/gapwise/gapwise/internal/scm"
 )
 
 func TestDefaultFoldSplits(t *testing.T) {
@@ -129,6 +130,40 @@ func TestFoldSplitsDeterministicAcrossWorkers(t *testing.T) {
 		}
 		if !reflect.DeepEqual(got[0], got[1]) {
 			t.Errorf("keep=%v: results differ between 1 and 3 workers", keep)
+		}
+	}
+}
+
+// With sampled Shapley values (above ExactLimit) each split draws its own
+// permutations, so the Monte Carlo standard error of the mean of R splits
+// is √(Σ_r se_r²)/R, the standard error of a mean of independent
+// estimates (common practice).
+func TestFoldSplitsPoolSampledStdErrors(t *testing.T) {
+	s, mechs, err := scm.Pooled(gtCase(t, "prevalence").Model, 300, 300, 5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	const R = 3
+	opt := attribution.Options{Threshold: scm.ScreeningThreshold, Seed: 2, Learners: []classify.Learner{classify.NewLinear()}, ExactLimit: 2, FoldSplits: R}
+	d, err := attribution.Decompose(s, mechs, []string{"fnr"}, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := make([]float64, len(mechs))
+	for r := 0; r < R; r++ {
+		o := opt
+		o.Seed, o.FoldSplits = attribution.SplitSeed(opt.Seed, r), 1
+		dr, err := attribution.Decompose(s, mechs, []string{"fnr"}, o)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i, se := range dr.Metrics[0].StdErrors {
+			want[i] += se * se
+		}
+	}
+	for i, got := range d.Metrics[0].StdErrors {
+		if w := math.Sqrt(want[i]) / R; math.Abs(got-w) > 1e-15 || got == 0 {
+			t.Errorf("std error %d = %v, want %v", i, got, w)
 		}
 	}
 }

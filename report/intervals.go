@@ -61,3 +61,12 @@ func foldSplitsSetting(r int) string {
 	}
 	return fmt.Sprintf("%d (contributions are their mean; split SD is the spread between them)", r)
 }
+
+// foldSplitsPhrase is the fold splits in the check table: "1 fold split"
+// (also for 0, a plan that does not say) or "10 fold splits averaged".
+func foldSplitsPhrase(r int) string {
+	if r <= 1 {
+		return "1 fold split"
+	}
+	return fmt.Sprintf("%d fold splits averaged", r)
+}

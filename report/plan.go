@@ -48,7 +48,7 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 		fmt.Fprintf(b, "  inputs      %s (%s)\n", list(mi.Declared), outside)
 	}
 	fmt.Fprintf(b, "  metrics     %s\n", list(p.Metrics))
-	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, seed %d\n", pt(p.Classifier), list(p.Learners), p.Folds, spec.Seed)
+	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, %s, seed %d\n", pt(p.Classifier), list(p.Learners), p.Folds, foldSplitsPhrase(p.FoldSplits), spec.Seed)
 	fmt.Fprintf(b, "  features    %d encoded columns\n", p.Features)
 	if iv := spec.Intervals; iv.Replicates > 0 {
 		mode := "refitting the classifiers"

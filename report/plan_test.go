@@ -15,7 +15,7 @@ func TestPlan(t *testing.T) {
 	p := &fairness.PlanInfo{
 		Label: "dx", Score: "score", Threshold: 0.5, Metrics: []string{"fnr", "fpr"},
 		Groups:     fairness.GroupInfo{Column: "sex", Reference: "m", Comparison: "f", NReference: 10, NComparison: 12, EventsReference: 4, EventsComparison: 5, DroppedComparison: 1},
-		Classifier: "auto", Learners: []string{"linear", "boosted"}, Folds: 5, Features: 3,
+		Classifier: "auto", Learners: []string{"linear", "boosted"}, Folds: 5, FoldSplits: 10, Features: 3,
 		ModelInputs: &fairness.ModelInputs{Declared: []string{"age", "mcv", "bmi"}, OutsideGraph: []string{"bmi"}},
 		Nodes: []fairness.PlanNode{
 			{Node: "age", Mechanism: "age", Columns: []string{"age"}, Features: 1},
@@ -30,7 +30,7 @@ func TestPlan(t *testing.T) {
 	for _, want := range []string{
 		"audit.yaml: spec and data are valid\n",
 		"  groups      column sex: reference m (10 records, 4 events, 0 dropped), comparison f (12 records, 5 events, 1 dropped)\n",
-		"  classifier  auto (candidates: linear, boosted), 5 folds, seed 3\n",
+		"  classifier  auto (candidates: linear, boosted), 5 folds, 10 fold splits averaged, seed 3\n",
 		"  inputs      age, mcv, bmi (outside the graph: bmi)\n",
 		"  intervals   50 bootstrap replicates at level 0.9, keeping the fitted ratios\n",
 		"  mechanism    columns   features\n",
