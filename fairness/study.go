@@ -17,7 +17,7 @@ import (
 func WarningsOf(dec *attribution.Decomposition, nRef, nCmp int) []Warning {
 	r := &Result{
 		Groups:   GroupInfo{NReference: nRef, NComparison: nCmp},
-		Settings: Settings{EstimateFrom: dec.Side.String(), CombineSides: combineSides(dec)},
+		Settings: Settings{EstimateFrom: dec.Side.String(), CombineSides: combineSides(dec), FoldSplits: dec.FoldSplits},
 	}
 	addEstimates(r, dec, nil)
 	return slices.DeleteFunc(Warnings(r), func(w Warning) bool {
