@@ -24,10 +24,17 @@ import (
 //     a convex combination of two consistent games, so φ = λ·φ_ref +
 //     (1−λ)·φ_cmp (Shapley values are linear) and a mechanism both sides
 //     credit with 0 gets 0.
-//   - MixMetricVariance: one weight per metric, λ = V_cmp / (V_ref + V_cmp),
-//     V_j the delta-method variance of side j's estimated gap v_j(N)
-//     (deltaVariances): the inverse-variance combination of the two gap
-//     estimates. Falls back to MixMetricESS's λ when a variance is unknown.
+//   - MixMetricVariance: one weight per metric, λ = V_cmp / (V_ref + V_cmp):
+//     the inverse-variance combination of the two sides' estimated gaps
+//     v_j(N). V_j is the larger of the delta-method variance of v_j(N)
+//     (deltaVariances) and Kish's design-effect approximation of the far
+//     end's variance, V_j(own end)·m_j / n_eff,j(far), m_j the records of
+//     side j the metric counts and n_eff,j(far) that of the far hybrid's
+//     weights over them (Kish 1965, "Survey Sampling"). The delta method
+//     alone understates the variance when the weights collapse onto a few
+//     records (one dominant record makes its own influence vanish); the
+//     Kish term keeps a collapsed side from being trusted. Falls back to
+//     MixMetricESS's λ when a variance is unknown.
 //   - MixPick: per metric, the side with the smaller V_j (λ ∈ {0, 1};
 //     MixMetricESS's λ rounded when a variance is unknown).
 //   - MixMechanism: per mechanism, φ_i = λ_i·φ_ref,i + (1−λ_i)·φ_cmp,i with
@@ -66,7 +73,7 @@ const (
 const GuardZ = 4.0
 
 // DefaultMix is the combination used when Options.Mix is MixDefault.
-const DefaultMix = MixCoalition
+const DefaultMix = MixMetricVariance
 
 // Mixes lists the combinations, for studies.
 func Mixes() []Mix {
@@ -123,8 +130,8 @@ func (x Mix) needsVariance() bool {
 func mixWeights(rule Mix, sides []*sideEstimate, names []string, vars [][]sideVariances, opt Options) []float64 {
 	lambda := make([]float64, len(names))
 	for m, name := range names {
-		essRef, _ := farMetricESS(sides[0], name, opt)
-		essCmp, _ := farMetricESS(sides[1], name, opt)
+		essRef, countRef := farMetricESS(sides[0], name, opt)
+		essCmp, countCmp := farMetricESS(sides[1], name, opt)
 		byESS := essRef / (essRef + essCmp)
 		if math.IsNaN(byESS) {
 			byESS = 0.5
@@ -133,7 +140,10 @@ func mixWeights(rule Mix, sides []*sideEstimate, names []string, vars [][]sideVa
 		if !rule.needsVariance() {
 			continue
 		}
-		vr, vc := vars[0][m].gap, vars[1][m].gap
+		// The reference side's own (unweighted) end is ∅, the comparison
+		// side's is N.
+		vr := math.Max(vars[0][m].gap, vars[0][m].empty*countRef/essRef)
+		vc := math.Max(vars[1][m].gap, vars[1][m].full*countCmp/essCmp)
 		known := !math.IsNaN(vr) && !math.IsNaN(vc) && vr+vc > 0
 		switch {
 		case (rule == MixMetricVariance || rule == MixMechanism || rule == MixGuarded) && known:

@@ -66,6 +66,13 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		}
 		aopt.Side = side
 	}
+	if spec.CombineSides != "" {
+		mix, err := attribution.ParseMix(spec.CombineSides)
+		if err != nil {
+			return nil, specErr(spec.File, spec.KeyLine("combine_sides"), "combine_sides", ErrBadValue, "%v", err)
+		}
+		aopt.Mix = mix
+	}
 	var dec *attribution.Decomposition
 	var boot *attribution.BootstrapSummary
 	if iv := opt.intervals(spec); iv.Replicates != 0 {

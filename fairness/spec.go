@@ -45,6 +45,7 @@ import (
 //	classifier: auto     # auto, linear, expanded or boosted
 //	ece_bins: 10         # >= 1
 //	estimate_from: both       # records that estimate the hybrids: reference, comparison or both
+//	combine_sides: metric-variance  # with both: one weight per metric (default) or coalition
 //	clip_ratios: 0.99    # clip log-ratios to their central 99% interval; omit for none
 //	exact_limit: 16      # exact Shapley values up to this many mechanisms, sampled above
 //	intervals:           # percentile bootstrap intervals; omit for none
@@ -86,6 +87,9 @@ type Spec struct {
 	// EstimateFrom is attribution.Side's name: reference, comparison or
 	// both (default attribution.DefaultSide).
 	EstimateFrom string
+	// CombineSides is attribution.Mix's name: how both sides' estimates
+	// are combined (default attribution.DefaultMix).
+	CombineSides string
 	// ClipRatios, if > 0, is the central probability kept when clipping
 	// each mechanism's log-ratios (attribution.ClipAtQuantiles).
 	ClipRatios float64
@@ -355,6 +359,12 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		}
 	case "estimate_from":
 		s.EstimateFrom, err = p.oneOf(k.Value, v, attribution.SideReference.String(), attribution.SideComparison.String(), attribution.SideBoth.String())
+	case "combine_sides":
+		var names []string
+		for _, x := range attribution.Mixes() {
+			names = append(names, x.String())
+		}
+		s.CombineSides, err = p.oneOf(k.Value, v, names...)
 	case "clip_ratios":
 		s.ClipRatios, err = p.float(k.Value, v)
 		if err == nil && !(s.ClipRatios > 0 && s.ClipRatios < 1) {
@@ -404,6 +414,9 @@ func (s *Spec) finish(p *specParser) error {
 	}
 	if s.EstimateFrom == "" {
 		s.EstimateFrom = attribution.DefaultSide.String()
+	}
+	if s.CombineSides == "" {
+		s.CombineSides = attribution.DefaultMix.String()
 	}
 	if s.ExactLimit == 0 {
 		s.ExactLimit = attribution.DefaultExactLimit

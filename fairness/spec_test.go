@@ -47,7 +47,7 @@ func TestParseSpecExample(t *testing.T) {
 			{Node: "labs", Columns: []string{"m1", "m2"}, Parents: []string{"dx", "age"}, Line: 14},
 		},
 		Seed: 1, Missing: MissingError, Folds: DefaultFolds, Classifier: ClassifierAuto, ECEBins: 10,
-		EstimateFrom: attribution.DefaultSide.String(), ExactLimit: 16, Intervals: Intervals{Level: DefaultIntervalLevel},
+		EstimateFrom: attribution.DefaultSide.String(), CombineSides: attribution.DefaultMix.String(), ExactLimit: 16, Intervals: Intervals{Level: DefaultIntervalLevel},
 	}
 	// Compare exported fields only.
 	got := *s
@@ -81,6 +81,7 @@ ece_bins: 15
 synthetic: true
 title: Anaemia screening (synthetic)
 estimate_from: both
+combine_sides: coalition
 clip_ratios: 0.98
 exact_limit: 12
 intervals: {replicates: 50, level: 0.9, keep_ratios: true}
@@ -91,7 +92,7 @@ intervals: {replicates: 50, level: 0.9, keep_ratios: true}
 	}
 	if !s.DropMissing() || s.Folds != 3 || s.FoldSplits != 7 || s.Classifier != "expanded" || s.ECEBins != 15 || !s.Synthetic ||
 		s.Title != "Anaemia screening (synthetic)" || !reflect.DeepEqual(s.Categorical, []string{"m2"}) || s.DataPath != "/data/cohort.csv" ||
-		s.EstimateFrom != "both" || s.ClipRatios != 0.98 || s.ExactLimit != 12 ||
+		s.EstimateFrom != "both" || s.CombineSides != "coalition" || s.ClipRatios != 0.98 || s.ExactLimit != 12 ||
 		s.Intervals != (Intervals{Replicates: 50, Level: 0.9, KeepRatios: true}) {
 		t.Errorf("got %+v", s)
 	}
@@ -143,6 +144,7 @@ func TestParseSpecErrors(t *testing.T) {
 		{"ece bins", exampleSpec + "ece_bins: 0\n", ErrBadValue, 18, "ece_bins", "at least 1"},
 		{"synthetic", exampleSpec + "synthetic: maybe\n", ErrBadValue, 18, "synthetic", "true or false"},
 		{"estimate_from", exampleSpec + "estimate_from: left\n", ErrBadValue, 18, "estimate_from", "reference, comparison, both"},
+		{"combine_sides", exampleSpec + "combine_sides: average\n", ErrBadValue, 18, "combine_sides", "coalition, metric-ess, metric-variance"},
 		{"clip_ratios 1", exampleSpec + "clip_ratios: 1\n", ErrBadValue, 18, "clip_ratios", "strictly between 0 and 1"},
 		{"clip_ratios text", exampleSpec + "clip_ratios: most\n", ErrBadValue, 18, "clip_ratios", `"most"`},
 		{"exact_limit 0", exampleSpec + "exact_limit: 0\n", ErrBadValue, 18, "exact_limit", "between 1 and 26"},
