@@ -445,10 +445,12 @@ func tailWarning(r *Result, m MechanismResult) (string, Severity) {
 	case side == "both" && ref && cmp:
 		k, where = math.Min(*m.TailShape, *m.ComparisonTailShape), "reference and comparison"
 	case side == "both" && ref != cmp:
-		heavySide, other, kh := "reference", "comparison", *m.TailShape
+		// Only the heavy side's shape is read: the other may be absent.
+		heavySide, other, shape := "reference", "comparison", m.TailShape
 		if cmp {
-			heavySide, other, kh = "comparison", "reference", *m.ComparisonTailShape
+			heavySide, other, shape = "comparison", "reference", m.ComparisonTailShape
 		}
+		kh := *shape
 		return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %s > %.1f); the two-sided estimate leans on the %s records, whose weights for it are lighter-tailed", m.Mechanism, heavySide, shapeText(kh, attribution.TailInfiniteVariance), attribution.TailInfiniteVariance, other), SeverityNote
 	case side != "comparison" && side != "both" && ref:
 		k, where = *m.TailShape, "reference"

@@ -82,6 +82,13 @@ func TestWarnings(t *testing.T) {
 			r.Mechanisms[0].ExtremeShare, r.Mechanisms[0].ComparisonExtremeShare = 0.034, &c
 		}, []string{"3.4% of reference and 2.0% of comparison records carry a weight above 20 for `age`"}},
 		{"extreme fine", func(r *Result) { r.Mechanisms[0].ExtremeShare = 0.01 }, nil},
+		// A tail shape is absent with too few records; the note on the
+		// heavy side must not read the absent one.
+		{"tail one side, other absent", func(r *Result) {
+			r.Settings.EstimateFrom = "both"
+			k := 0.8
+			r.Mechanisms[0].TailShape, r.Mechanisms[0].ComparisonTailShape = nil, &k
+		}, []string{"on the comparison records have a heavy tail (Pareto shape 0.80 > 0.5); the two-sided estimate leans on the reference records"}},
 		{"stratum", func(r *Result) { r.Mechanisms[0].WorstStratumMean = 1.4 }, []string{"average 1.400 in one fifth of the reference records"}},
 		{"stratum low", func(r *Result) { r.Mechanisms[0].WorstStratumMean = 0.7 }, []string{"average 0.700 in one fifth"}},
 		{"clipped", func(r *Result) { r.Settings.ClipRatios = 0.99; r.Mechanisms[0].ClippedReference = 120 }, []string{"the ratios of `age` were clipped for 120 reference and 0 comparison records (clip_ratios 0.99)"}},
