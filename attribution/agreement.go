@@ -103,3 +103,43 @@ func shifted(vals []float64) []float64 {
 	}
 	return v
 }
+
+// residualSE returns the delta-method standard error of metric m's
+// residual under SideBoth. The observed gap is M_cmp(N) − M_ref(∅), so for
+// a combination whose ends are M̂(N) = a·M̂_ref(N) + (1−a)·M_cmp and
+// M̂(∅) = (1−b)·M_ref + b·M̂_cmp(∅),
+//
+//	Residual = −a·D_N − b·D_∅,  D_N = M̂_ref(N) − M_cmp,  D_∅ = M_ref − M̂_cmp(∅),
+//
+// with a = λ, b = 1 − λ for a metric-level weight λ and, per coalition,
+// a = n_eff,ref(N)/(n_eff,ref(N) + n_eff,cmp(N)) and b = n_eff,cmp(∅)/
+// (n_eff,ref(∅) + n_eff,cmp(∅)). Each side contributes the variance of
+// a·M̂_j(N) + b·M̂_j(∅) (the sides are independent): a²V(N) + b²V(∅) +
+// 2ab·C, the covariance C = 2·V((M̂(N) + M̂(∅))/2) − (V(N) + V(∅))/2 from
+// sideVariances. nil for MixMechanism, whose contributions are not one
+// game's, and when a variance is unknown (AUC).
+func residualSE(md MetricDecomposition, sides []*sideEstimate, vars [][]sideVariances, m int, mix Mix) *float64 {
+	var a, b float64
+	switch {
+	case mix == MixMechanism:
+		return nil
+	case md.ReferenceWeight != nil:
+		a, b = *md.ReferenceWeight, 1-*md.ReferenceWeight
+	default:
+		full := uint64(1)<<len(sides[0].logr) - 1
+		wr, wc := sides[0].someWeights([]uint64{0, full}), sides[1].someWeights([]uint64{0, full})
+		a = wr[1].ESS / (wr[1].ESS + wc[1].ESS)
+		b = wc[0].ESS / (wr[0].ESS + wc[0].ESS)
+	}
+	var v float64
+	for j := range sides {
+		x := vars[j][m]
+		c := 2*x.mid - (x.full+x.empty)/2
+		v += a*a*x.full + b*b*x.empty + 2*a*b*c
+	}
+	if math.IsNaN(v) {
+		return nil
+	}
+	se := math.Sqrt(math.Max(v, 0))
+	return &se
+}

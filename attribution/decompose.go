@@ -301,6 +301,7 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 		}
 		if diag && len(sides) == 2 {
 			mds[m].Agreement = agreement(perSide, vars, m, k, true)
+			mds[m].ResidualSE = residualSE(mds[m], sides, vars, m, mix)
 		}
 	}
 	setOneSideWeight(mds, sides)
@@ -450,6 +451,7 @@ func splitGapsSampled(mds []MetricDecomposition, names []string, sides []*sideEs
 		if diag && len(sides) == 2 {
 			// special begins with ∅ and N, the order agreement reads.
 			mds[m].Agreement = agreement(perSide, vars, m, k, false)
+			mds[m].ResidualSE = residualSE(mds[m], sides, vars, m, mix)
 		}
 	}
 	setOneSideWeight(mds, sides)

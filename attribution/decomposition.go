@@ -110,6 +110,10 @@ type MetricDecomposition struct {
 	// Agreement compares the two one-sided estimates of the game (see
 	// SideAgreement); set for SideBoth in the point estimate, nil otherwise.
 	Agreement *SideAgreement
+	// ResidualSE is the delta-method standard error of Residual from the
+	// sampling of the records (see residualSE); set for SideBoth in the
+	// point estimate except with MixMechanism, nil otherwise.
+	ResidualSE *float64
 
 	// Percentile bootstrap intervals, set by Bootstrap; nil otherwise.
 	ReferenceCI     *Interval

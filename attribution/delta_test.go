@@ -133,3 +133,83 @@ func moments(x []float64) (mean, rms, sd float64) {
 	sd = math.Sqrt(math.Max(0, ms-mean*mean) * float64(len(x)) / float64(len(x)-1))
 	return mean, math.Sqrt(ms), sd
 }
+
+// randomLabelSides is randomLabelSide for both groups: reference records
+// with x_i ~ N(0, 1), comparison records with x_i ~ N(0, cmpSD_i²), the
+// same label model, and exact log-ratios (the comparison side's negated).
+func randomLabelSides(seed uint64, n int, cmpSD [2]float64) (ref, cmp *sideEstimate) {
+	draw := func(sd [2]float64, side Side, stream uint64) *sideEstimate {
+		rng := rand.New(rand.NewPCG(seed, stream))
+		y, s := make([]float64, n), make([]float64, n)
+		logr := [][]float64{make([]float64, n), make([]float64, n)}
+		for r := 0; r < n; r++ {
+			var sum float64
+			for i, c := range cmpSD {
+				x := sd[i] * rng.NormFloat64()
+				sum += x
+				logr[i][r] = -math.Log(c) - x*x/(2*c*c) + x*x/2
+			}
+			s[r] = 1 / (1 + math.Exp(-sum))
+			y[r] = pick01(rng.Float64() < 1/(1+math.Exp(0.5-sum)))
+		}
+		return newSideEstimate(side, y, s, logr)
+	}
+	return draw([2]float64{1, 1}, SideReference, 7), draw(cmpSD, SideComparison, 8)
+}
+
+// The residual's delta-method standard error (residualSE) must match the
+// spread of the residual over independent draws with exact ratios (Monte
+// Carlo, 300 draws; a ratio outside [0.85, 1.15] means a wrong variance),
+// for the metric-level and the per-coalition combinations.
+func TestResidualSEMatchesMonteCarlo(t *testing.T) {
+	if testing.Short() {
+		t.Skip("300 draws")
+	}
+	const draws, n = 300, 1500
+	names := []string{metrics.NameFNR, metrics.NameBrier}
+	opt := Options{Threshold: 1 / (1 + math.Exp(-1)), ECEBins: metrics.DefaultECEBins}
+	for _, mix := range []Mix{MixMetricVariance, MixCoalition} {
+		res := make([][]float64, len(names))
+		v2 := make([]float64, len(names))
+		for d := 0; d < draws; d++ {
+			ref, cmp := randomLabelSides(uint64(500+d), n, [2]float64{0.8, 1.2})
+			sides := []*sideEstimate{ref, cmp}
+			mds := make([]MetricDecomposition, len(names))
+			for m, name := range names {
+				mds[m].Metric = name
+			}
+			if err := splitGapsSides(mds, sides, opt, mix, true); err != nil {
+				t.Fatal(err)
+			}
+			for m, md := range mds {
+				// The observed gap: the comparison side's M(N) minus the
+				// reference side's M(∅), both unweighted.
+				gap := observedGap(t, ref, cmp, md.Metric, opt)
+				res[m] = append(res[m], gap-md.Estimated)
+				v2[m] += *md.ResidualSE * *md.ResidualSE / draws
+			}
+		}
+		for m, name := range names {
+			_, _, sd := moments(res[m])
+			r := math.Sqrt(v2[m]) / sd
+			t.Logf("%s %s: RMS residual SE / SD %.3f", mix, name, r)
+			if r < 0.85 || r > 1.15 {
+				t.Errorf("%s %s: RMS residual SE / Monte Carlo SD = %.3f", mix, name, r)
+			}
+		}
+	}
+}
+
+// observedGap is metric name on cmp's records minus on ref's, unweighted.
+func observedGap(t *testing.T, ref, cmp *sideEstimate, name string, opt Options) float64 {
+	t.Helper()
+	a, err := metrics.Compute(name, ref.y, ref.s, opt.Threshold, opt.ECEBins, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := metrics.Compute(name, cmp.y, cmp.s, opt.Threshold, opt.ECEBins, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b - a
+}

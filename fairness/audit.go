@@ -244,6 +244,7 @@ func metricResult(md attribution.MetricDecomposition, mechs []attribution.Mechan
 		ResidualCI:       interval(md.ResidualCI),
 		Contributions:    []Contribution{},
 		ReferenceWeight:  md.ReferenceWeight,
+		ResidualSE:       md.ResidualSE,
 		SideAgreement:    sideAgreement(md.Agreement),
 	}
 	for i, m := range mechs {

@@ -121,6 +121,10 @@ type MetricResult struct {
 	// gap are pinned to the observed metrics and the residual is small by
 	// construction whatever the estimate's quality: read SideAgreement.
 	Residual float64 `json:"residual"`
+	// ResidualSE is the residual's standard error from the sampling of
+	// the records (delta method, fitted ratios held fixed); present when
+	// both sides estimate.
+	ResidualSE *float64 `json:"residual_std_error,omitempty"`
 	// ReferenceWeight is the weight of the reference records' game in the
 	// estimate (1 for estimate_from reference, 0 for comparison, one
 	// weight per metric for both); absent when both sides are mixed per

@@ -43,9 +43,14 @@ func residualWarning(mr MetricResult) string {
 }
 
 // residualSE is the delta-method standard error of the residual (see
-// residualWarning); ok is false when the side agreement or a standard
-// error is missing.
+// residualWarning): the engine's (MetricResult.ResidualSE, which also
+// counts the covariance of the two ends through their shared records)
+// when present, else the approximation above; ok is false when the side
+// agreement or a standard error is missing.
 func residualSE(mr MetricResult) (float64, bool) {
+	if mr.ResidualSE != nil {
+		return *mr.ResidualSE, *mr.ResidualSE > 0
+	}
 	a := mr.SideAgreement
 	if a == nil || a.ComparisonEnd.StdError == nil || a.ReferenceEnd.StdError == nil {
 		return 0, false

@@ -73,6 +73,17 @@ func TestWarnings(t *testing.T) {
 		{"mean edge", func(r *Result) { r.Mechanisms[0].MeanRatio = 1.1 }, nil},
 		{"auc", func(r *Result) { r.Mechanisms[0].AUC = 0.95 }, []string{"nearly separable on `age` (out-of-fold AUC 0.950)"}},
 		{"residual", func(r *Result) { r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.06, 0.03 }, []string{"for fnr the contributions add up to 0.0600 but the observed gap is 0.0900"}},
+		// The residual's own standard error (both sides) decides against
+		// WarnResidualZ = 2.58: 0.03 is 2.5 standard errors of 0.012 and
+		// 4.3 of 0.007.
+		{"residual within noise", func(r *Result) {
+			se := 0.012
+			r.Metrics[0].Estimated, r.Metrics[0].Residual, r.Metrics[0].ResidualSE = 0.06, 0.03, &se
+		}, nil},
+		{"residual beyond noise", func(r *Result) {
+			se := 0.007
+			r.Metrics[0].Estimated, r.Metrics[0].Residual, r.Metrics[0].ResidualSE = 0.06, 0.03, &se
+		}, []string{"the residual 0.0300 is large"}},
 		{"residual tiny", func(r *Result) { r.Metrics[0].Gap, r.Metrics[0].Estimated, r.Metrics[0].Residual = 0.004, 0, 0.004 }, nil},
 		{"extreme", func(r *Result) { r.Mechanisms[0].ExtremeShare = 0.034 }, []string{"3.4% of reference records carry a weight above 20 for `age`: the groups barely overlap there"}},
 		{"extreme both one side", func(r *Result) { r.Settings.EstimateFrom = "both"; r.Mechanisms[0].ExtremeShare = 0.034 }, nil},
