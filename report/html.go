@@ -232,9 +232,9 @@ func newPage(res *fairness.Result) (*page, error) {
 			Reference: formatValue(m.Metric, m.Reference), Comparison: formatValue(m.Metric, m.Comparison),
 			Gap: formatDelta(m.Metric, m.Gap), ReferenceCI: formatValueInterval(m.Metric, m.ReferenceCI),
 			ComparisonCI: formatValueInterval(m.Metric, m.ComparisonCI), GapCI: formatGapInterval(m),
-			Estimated: formatDelta(m.Metric, m.Estimated), Residual: formatDelta(m.Metric, m.Residual),
+			Estimated: formatDelta(m.Metric, m.Estimated), Residual: residualDelta(m),
 			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m),
-			SidesNote: sidesLine(m), ResidualNote: residualNote(res), SumLabel: sumLabel(m, "Sum of contributions")}
+			SidesNote: sidesLine(m, reportUnits), ResidualNote: residualNote(res), SumLabel: sumLabel(m, "Sum of contributions")}
 		for _, c := range m.Contributions {
 			role := gapRole(m, c.Value)
 			ci := formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)
@@ -251,7 +251,7 @@ func newPage(res *fairness.Result) (*page, error) {
 				row.StdError = formatSpread(m.Metric, *c.StdError)
 				p.HasStdError = true
 			}
-			if row.Sides = contributionSides(m.Metric, c); row.Sides != "" {
+			if row.Sides = contributionSides(m.Metric, c, reportUnits); row.Sides != "" {
 				p.HasSides = true
 			}
 			if c.SplitSD != nil && !c.NotEstimable {

@@ -126,9 +126,9 @@ func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult,
 			formatDelta(m.Metric, c.Alone), formatDelta(m.Metric, c.IfEqualised), cells)
 	}
 	p("| %s | %s | | | |%s\n", sumLabel(m, "Sum of contributions"), formatDelta(m.Metric, m.Estimated), blank)
-	p("| Residual (not assigned) | %s | | | |%s\n", formatDelta(m.Metric, m.Residual), blank)
+	p("| Residual (not assigned) | %s | | | |%s\n", residualDelta(m), blank)
 	p("| Observed gap | %s | %s | | |%s\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)), blank)
-	if s := sidesLine(m); s != "" {
+	if s := sidesLine(m, reportUnits); s != "" {
 		p("%s\n\n", mdText(s))
 	}
 	p("%s\n\n", mdText(residualNote(res)))
@@ -158,7 +158,7 @@ func mdExtraColumns(m fairness.MetricResult) []mdColumn {
 			sd.cells[i] = formatSpread(m.Metric, *c.SplitSD)
 		}
 		hasSides = hasSides || c.SideDifference != nil
-		sides.cells[i] = orDash(contributionSides(m.Metric, c))
+		sides.cells[i] = orDash(contributionSides(m.Metric, c, reportUnits))
 	}
 	var out []mdColumn
 	if hasSD {

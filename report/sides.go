@@ -26,37 +26,67 @@ func residualNote(res *fairness.Result) string {
 // sentence, or "" when there is none: the difference at each end of the
 // gap and their average with one standard error each, and the largest
 // difference in standard errors against the warning's threshold.
-func sidesLine(m fairness.MetricResult) string {
+func sidesLine(m fairness.MetricResult, u units) string {
 	a := m.SideAgreement
 	if a == nil {
 		return ""
 	}
 	s := fmt.Sprintf("Reweighted reference minus reweighted comparison records: comparison end %s, reference end %s, their average %s",
-		sideDiff(m.Metric, a.ComparisonEnd), sideDiff(m.Metric, a.ReferenceEnd), sideDiff(m.Metric, a.EndsAverage))
+		u.diff(m.Metric, a.ComparisonEnd), u.diff(m.Metric, a.ReferenceEnd), u.diff(m.Metric, a.EndsAverage))
 	if a.MaxZ != nil {
 		s += fmt.Sprintf("; the largest difference, contributions included, is %.1f standard errors (a warning above %g)", *a.MaxZ, fairness.WarnSidesZ)
 	}
 	return s + "."
 }
 
-// sideDiff prints a difference between the sides in the metric's delta
-// unit with "± SE" when its standard error is known.
+// units prints differences between the sides: reportUnits in the
+// metric's delta unit (percentage points for a rate), as the Markdown and
+// HTML reports print gaps; textUnits as plain signed decimals, as the text
+// report does.
+type units struct {
+	delta, magnitude func(metric string, v float64) string
+	suffix           func(metric string) string
+}
+
+var (
+	reportUnits = units{delta: formatDelta, magnitude: formatMagnitude, suffix: func(metric string) string {
+		if isProportion(metric) {
+			return " pts"
+		}
+		return ""
+	}}
+	textUnits = units{delta: func(_ string, v float64) string { return signed(v) }, magnitude: func(_ string, v float64) string { return fixed(v) },
+		suffix: func(string) string { return "" }}
+)
+
+// diff prints a difference between the sides with "± SE" when its
+// standard error is known.
+func (u units) diff(metric string, d fairness.SideDifference) string {
+	if d.StdError == nil {
+		return u.delta(metric, d.Difference)
+	}
+	return u.delta(metric, d.Difference) + " ± " + u.magnitude(metric, *d.StdError) + u.suffix(metric)
+}
+
+// sideDiff is reportUnits.diff.
 func sideDiff(metric string, d fairness.SideDifference) string {
 	if d.StdError == nil {
 		return formatDelta(metric, d.Difference)
 	}
-	se := formatMagnitude(metric, *d.StdError)
-	if isProportion(metric) {
-		se += " pts"
-	}
-	return formatDelta(metric, d.Difference) + " ± " + se
+	return reportUnits.diff(metric, d)
 }
 
 // contributionSides prints a contribution's difference between the sides,
 // or "" when there is none.
-func contributionSides(metric string, c fairness.Contribution) string {
+func contributionSides(metric string, c fairness.Contribution, u units) string {
 	if c.SideDifference == nil {
 		return ""
 	}
-	return sideDiff(metric, *c.SideDifference)
+	return u.diff(metric, *c.SideDifference)
+}
+
+// residualDelta prints a metric's residual in its delta unit, with
+// "± SE" when its standard error is known.
+func residualDelta(m fairness.MetricResult) string {
+	return sideDiff(m.Metric, fairness.SideDifference{Difference: m.Residual, StdError: m.ResidualSE})
 }

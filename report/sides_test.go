@@ -19,10 +19,10 @@ func TestSidesWording(t *testing.T) {
 		EndsAverage:   fairness.SideDifference{Difference: 0.0046, StdError: &se},
 		MaxZ:          &z,
 	}}
-	if got, want := sidesLine(m), "comparison end +1.2 pts ± 0.4 pts, reference end −0.3 pts, their average +0.5 pts ± 0.4 pts; the largest difference, contributions included, is 2.5 standard errors (a warning above 4)."; !strings.HasSuffix(got, want) {
+	if got, want := sidesLine(m, reportUnits), "comparison end +1.2 pts ± 0.4 pts, reference end −0.3 pts, their average +0.5 pts ± 0.4 pts; the largest difference, contributions included, is 2.5 standard errors (a warning above 4)."; !strings.HasSuffix(got, want) {
 		t.Errorf("sidesLine = %q, want it to end %q", got, want)
 	}
-	if sidesLine(fairness.MetricResult{Metric: "fnr"}) != "" {
+	if sidesLine(fairness.MetricResult{Metric: "fnr"}, reportUnits) != "" {
 		t.Error("sidesLine without an agreement is not empty")
 	}
 	for _, tc := range []struct{ from, combine, want, not string }{

@@ -155,7 +155,10 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	if m.EffectiveRecords > 0 {
 		t.line("  effective records behind the estimated gap: %.1f", m.EffectiveRecords)
 	}
-	if s := sidesLine(m); s != "" {
+	if m.ResidualSE != nil {
+		t.line("  standard error of the residual (sampling of the records): %s", fixed(*m.ResidualSE))
+	}
+	if s := sidesLine(m, textUnits); s != "" {
 		t.line("  %s", s)
 	}
 	t.line("  %s", residualNote(res))
