@@ -273,22 +273,9 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 		return fmt.Errorf("attribution: evaluating coalitions: %w", err)
 	}
 	vars := sideVarianceSet(sides, names, opt, mix, diag, diag || mix == MixMechanism || mix == MixGuarded)
-	var values [][]float64
-	switch {
-	case len(sides) == 1:
-		values = perSide[0]
-	case mix == MixCoalition:
-		ess, err := essAllSides(sides, eopt)
-		if err != nil {
-			return err
-		}
-		values = combineByESS(perSide, ess)
-	case mix == MixGuarded:
-		if values, err = guardedValues(mds, perSide, sides, names, vars, opt, eopt, k); err != nil {
-			return err
-		}
-	default:
-		values = combineByLambda(perSide, setLambda(mds, mixWeights(mix, sides, names, vars, opt)))
+	values, err := combinedValues(mds, perSide, sides, names, vars, opt, eopt, mix)
+	if err != nil {
+		return err
 	}
 	full := uint64(1)<<k - 1
 	for m := range mds {
@@ -306,6 +293,25 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 	}
 	setOneSideWeight(mds, sides)
 	return nil
+}
+
+// combinedValues returns M̂(S) of every metric and coalition from one
+// side, or from both combined by mix (recording metric-level weights in
+// mds).
+func combinedValues(mds []MetricDecomposition, perSide [][][]float64, sides []*sideEstimate, names []string, vars [][]sideVariances, opt Options, eopt EngineOptions, mix Mix) ([][]float64, error) {
+	switch {
+	case len(sides) == 1:
+		return perSide[0], nil
+	case mix == MixCoalition:
+		ess, err := essAllSides(sides, eopt)
+		if err != nil {
+			return nil, err
+		}
+		return combineByESS(perSide, ess), nil
+	case mix == MixGuarded:
+		return guardedValues(mds, perSide, sides, names, vars, opt, eopt, len(sides[0].logr))
+	}
+	return combineByLambda(perSide, setLambda(mds, mixWeights(mix, sides, names, vars, opt))), nil
 }
 
 // sideVarianceSet returns vars[j][m], the delta-method variances of side j
