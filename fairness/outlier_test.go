@@ -30,7 +30,12 @@ func withCell(data string, row, col int, value string) string {
 // then come from another estimator and only the checks above apply (with
 // one weight per metric for the two sides, the default since issue 9, the
 // flip moved an FPR contribution by 0.09, about 2.5 of its standard
-// errors).
+// errors). A larger move is accepted only when the audit of the modified
+// table flags its own estimate (a warning of severity unreliable, or
+// split_dependent): with expanded, x = 1e308 gave the weights of x an
+// unreliable heavy tail and contributions that depend on the fold split,
+// and FNR's split between x and dx moved by 0.075 (0.024 with the
+// per-coalition combination).
 func TestOneExtremeValue(t *testing.T) {
 	clean := smallData(400)
 	for _, classifier := range []string{"linear", "expanded", "auto"} {
@@ -73,10 +78,21 @@ func TestOneExtremeValue(t *testing.T) {
 					}
 				}
 				t.Logf("largest change of a contribution: %.4f", worst)
-				if worst > 0.05 {
-					t.Errorf("one extreme value moved a contribution by %.4f", worst)
+				if worst > 0.05 && !flagsItself(r) {
+					t.Errorf("one extreme value moved a contribution by %.4f and the audit does not flag its estimate", worst)
 				}
 			})
 		}
 	}
+}
+
+// flagsItself reports whether a result warns that its own estimate is
+// unreliable or depends on the fold split.
+func flagsItself(r *Result) bool {
+	for _, w := range r.Warnings {
+		if w.Severity == SeverityUnreliable || w.Kind == KindSplitDependent {
+			return true
+		}
+	}
+	return false
 }
