@@ -89,9 +89,11 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 		if _, ok := flags[n.Name]; ok {
 			border = colourFlag
 		}
-		width := math.Max(76, 8.5*float64(len([]rune(n.Name)))+28)
+		// The box holds the name, the contribution and, when unreliable,
+		// that word, one line each (nodeBox).
+		width, height := nodeBox(n.Name, nodeValue(m.Metric, c), flags[n.Name] != "")
 		data = append(data, opts.GraphNode{Name: n.Name, X: float32(n.X), Y: float32(n.Y), Symbol: "roundRect",
-			SymbolSize: []float64{width, 46},
+			SymbolSize: []float64{width, height},
 			ItemStyle:  &opts.ItemStyle{Color: rampColour(t), BorderColor: border, BorderWidth: 1.5},
 			Tooltip:    itemTooltip(tip...)})
 	}
@@ -175,7 +177,7 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			}
 			text := formatterText(nodes[i].Name) + "\n" + nodeValue(m.Metric, c)
 			if _, flagged := flags[c.Node]; flagged {
-				text += " · unreliable"
+				text += "\nunreliable"
 				if is, ok := it.(map[string]any)["itemStyle"].(map[string]any); ok {
 					is["borderType"] = "dashed"
 				}
@@ -184,6 +186,20 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 		}
 	}
 	return o
+}
+
+// nodeBox returns the size in pixels of a node's box: wide enough for
+// the longer of its name and its value at about 8.5 px a character of
+// 12 px type (at least 76), and 16 px taller for a third line saying it
+// is unreliable.
+func nodeBox(name, value string, flagged bool) (width, height float64) {
+	n := max(len([]rune(name)), len([]rune(value)))
+	width = math.Max(76, 8.5*float64(n)+28)
+	height = 46
+	if flagged {
+		height += 16
+	}
+	return width, height
 }
 
 // nodeValue is a node's contribution as its label and tooltip print it,

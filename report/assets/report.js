@@ -66,7 +66,7 @@
     var text = item.name || "";
     var width = 6.8 * text.length;
     var x = hi + 8, align = "left";
-    if (x + width > cs.x + cs.width && lo - 8 - width >= cs.x) { x = lo - 8; align = "right"; }
+    if (x + width > api.getWidth() - 4 && lo - 8 - width >= cs.x) { x = lo - 8; align = "right"; }
     children.push({ type: "text", style: { x: x, y: y, text: text, fill: ink, font: "600 12px sans-serif",
       verticalAlign: "middle", align: align } });
     return { type: "group", children: children };
@@ -111,7 +111,17 @@
       minX = Math.min(minX, n.x); maxX = Math.max(maxX, n.x);
       minY = Math.min(minY, n.y); maxY = Math.max(maxY, n.y);
     });
-    var left = +s.left || 0, right = +s.right || 0, top = +s.top || 0, bottom = +s.bottom || 0;
+    // Margins hold half of the widest and tallest node box, so that no box
+    // and no arrow reaching it leaves the drawing.
+    var halfW = 0, halfH = 0;
+    s.data.forEach(function (n) {
+      if (n.symbolSize && n.symbolSize.length) {
+        halfW = Math.max(halfW, n.symbolSize[0] / 2);
+        halfH = Math.max(halfH, n.symbolSize[1] / 2);
+      }
+    });
+    var left = Math.max(+s.left || 0, halfW + 6), right = Math.max(+s.right || 0, halfW + 6);
+    var top = Math.max(+s.top || 0, halfH + 6), bottom = Math.max(+s.bottom || 0, halfH + 6);
     var w = chart.getWidth() - left - right, h = chart.getHeight() - top - bottom;
     var bw = maxX - minX, bh = maxY - minY;
     if (!(w > 0) || !(h > 0) || !(bw > 0) || !(bh > 0)) {
@@ -171,6 +181,13 @@
     var left = Math.min(+grid.left || 0, Math.max(72, Math.round(chart.getWidth() * 0.38)));
     grid.left = left;
     if (y.axisLabel) { y.axisLabel.width = left - 12; }
+    // Room on the right for the longest value label, within a quarter of
+    // the width, so that labels sit beside their rows.
+    var longest = 0;
+    ((o.series || [])[0] && o.series[0].data || []).forEach(function (d) {
+      longest = Math.max(longest, (d.name || "").length);
+    });
+    grid.right = Math.max(+grid.right || 0, Math.min(Math.round(chart.getWidth() * 0.25), Math.round(6.8 * longest) + 12));
     return o;
   }
 
@@ -194,6 +211,7 @@
     chart.on("finished", function once() {
       chart.off("finished", once);
       rendered++;
+      reportLayout();
       document.body.setAttribute("data-charts-rendered", String(rendered));
     });
     chart.setOption(fit ? fit(chart, option) : prepare(option));
@@ -216,6 +234,7 @@
     if (graph && data.graph[name]) {
       drawGraph(graph, data.graph[name]);
     }
+    layoutTables();
     var box = document.getElementById("column-cards");
     if (box && data.order[name]) {
       var top = {};
@@ -231,7 +250,43 @@
     }
   }
 
+  // A table wider than its box is re-flowed (class gw-stacked: each row a
+  // block of label–value pairs), so that no column is cut off and the page
+  // never scrolls sideways.
+  function layoutTables() {
+    var tables = document.querySelectorAll("table.gw-reflow");
+    tables.forEach(function (t) { t.classList.remove("gw-stacked"); });
+    tables.forEach(function (t) {
+      var box = t.parentElement;
+      if (box && t.offsetWidth > box.clientWidth + 1) {
+        t.classList.add("gw-stacked");
+      }
+    });
+  }
+
+  // Records on <body> what the browser test reads: the page's width
+  // against the window's (data-page-width, data-view-width) and the ids
+  // of visible tables and charts that stick out of their box (data-cut).
+  function reportLayout() {
+    var doc = document.documentElement;
+    var cut = [];
+    document.querySelectorAll("table, .gw-chart").forEach(function (el) {
+      var box = el.parentElement;
+      if (!box || el.offsetParent === null) {
+        return;
+      }
+      var r = el.getBoundingClientRect(), b = box.getBoundingClientRect();
+      if (r.right > b.right + 1 || el.scrollWidth > el.clientWidth + 1) {
+        cut.push(el.id || el.className);
+      }
+    });
+    document.body.setAttribute("data-page-width", String(doc.scrollWidth));
+    document.body.setAttribute("data-view-width", String(doc.clientWidth));
+    document.body.setAttribute("data-cut", cut.join(" "));
+  }
+
   function resizeAll() {
+    layoutTables();
     charts.forEach(function (c) { c.resize(); });
     if (forest && data.forest[shown]) {
       forest.setOption(fitForest(forest, data.forest[shown]), true);
@@ -239,6 +294,7 @@
     if (graph && data.graph[shown]) {
       drawGraph(graph, data.graph[shown]);
     }
+    reportLayout();
   }
 
   function start() {
@@ -262,6 +318,8 @@
       }
     });
     document.body.setAttribute("data-charts-expected", String(expected));
+    layoutTables();
+    reportLayout();
     var menu = document.getElementById("gw-metric");
     // A link may choose the metric: report.html#metric=fpr.
     var wanted = /metric=([A-Za-z0-9_]+)/.exec(window.location.hash);
@@ -275,11 +333,15 @@
     window.addEventListener("resize", resizeAll);
     // Print every table: open the collapsed equivalents, then restore.
     var opened = [];
+    // While printing, the page is laid out at a printed page's width
+    // (html.gw-print) so that charts and tables are sized for the paper.
     window.addEventListener("beforeprint", function () {
+      document.documentElement.classList.add("gw-print");
       document.querySelectorAll("details.gw-equiv:not([open])").forEach(function (d) { d.open = true; opened.push(d); });
       resizeAll();
     });
     window.addEventListener("afterprint", function () {
+      document.documentElement.classList.remove("gw-print");
       opened.forEach(function (d) { d.open = false; });
       opened = [];
       resizeAll();
