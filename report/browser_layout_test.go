@@ -17,7 +17,7 @@ import (
 // layoutResult is the hand result with every optional column a table can
 // have: the details, both sides' diagnostics with clipping (seventeen
 // diagnostics columns), sampled Shapley values and the sides' differences
-// in the decomposition, and a long title.
+// and split SDs in the decomposition, and a long title.
 func layoutResult() *fairness.Result {
 	res := handResult()
 	res.Details = handDetails()
@@ -26,7 +26,7 @@ func layoutResult() *fairness.Result {
 	for i := range res.Metrics {
 		for j := range res.Metrics[i].Contributions {
 			c := &res.Metrics[i].Contributions[j]
-			c.StdError = ptr(0.0012)
+			c.StdError, c.SplitSD = ptr(0.0012), ptr(0.0008)
 			c.SideDifference = &fairness.SideDifference{Difference: -0.0123, StdError: ptr(0.0045)}
 		}
 	}
