@@ -251,6 +251,8 @@ func replicateRefit(s *Sample, mechs []Mechanism, ri, ci []int, metricNames []st
 		Comparison: make([]bool, len(rows)),
 		Labels:     pick(s.Labels, rows),
 		Scores:     pick(s.Scores, rows),
+		// The same columns hold probabilities in the replicate.
+		ProbabilityCols: s.ProbabilityCols,
 	}
 	for a := len(ri); a < len(rows); a++ {
 		rs.Comparison[a] = true

@@ -70,11 +70,14 @@ type groupFit struct {
 	// rounds[l][fold] is the number of boosting rounds learner l's model
 	// kept on that fold (0 if it is not boosted or was not fitted there).
 	rounds [][]int
+	// started[l][fold] reports whether that boosted model's trees grew
+	// from its Start learner (classify.BoostedModel.Started).
+	started [][]bool
 	// refit is the learner a bootstrap replicate fits on this column set:
 	// the chosen learner, except that a Boosted learner with early
 	// stopping becomes one with a fixed number of rounds (the rounded mean
-	// over the folds of the rounds early stopping kept) and no
-	// validation split.
+	// over the folds of the rounds early stopping kept), no validation
+	// split, and its Start only if most folds kept theirs.
 	refit classify.Learner
 }
 
@@ -102,6 +105,10 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixed
 	if err != nil {
 		return nil, err
 	}
+	x, err := learnerFeatures(s)
+	if err != nil {
+		return nil, err
+	}
 	folds := assignFolds(s.Comparison, k, opt.Seed)
 	fs := &fitSets{learners: opt.Learners, chosen: chosen, index: map[string]*groupFit{}}
 	joints := make([]*groupFit, len(mechs))
@@ -110,7 +117,7 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixed
 		joints[i] = fs.need(unionCols(m.NodeCols, m.ParentCols))
 		parents[i] = fs.need(m.ParentCols)
 	}
-	if err := fitAll(s.X, s.comparisonLabels(), folds, k, fs.sets, opt); err != nil {
+	if err := fitAll(x, s.comparisonLabels(), folds, k, fs.sets, opt); err != nil {
 		return nil, err
 	}
 	nRef, nCmp := s.Counts()
@@ -120,6 +127,32 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixed
 		out[i] = mechanismRatio(m, joints[i], parents[i], prior, opt.Learners)
 	}
 	return out, nil
+}
+
+// learnerFeatures returns the matrix the group classifiers fit on: s.X
+// itself, or, when s.ProbabilityCols is set, a copy of it in which each of
+// those columns holds classify.Logit of its values. A value outside [0, 1]
+// in such a column is an error naming the record and column; a column
+// index outside X is a programmer error and panics.
+func learnerFeatures(s *Sample) (*mat.Dense, error) {
+	if len(s.ProbabilityCols) == 0 {
+		return s.X, nil
+	}
+	n, p := s.X.Dims()
+	x := mat.DenseCopyOf(s.X)
+	for _, c := range s.ProbabilityCols {
+		if c < 0 || c >= p {
+			panic(fmt.Sprintf("attribution: probability column %d outside the %d columns of Sample.X", c, p))
+		}
+		for r := 0; r < n; r++ {
+			v := x.At(r, c)
+			if !(v >= 0 && v <= 1) {
+				return nil, fmt.Errorf("attribution: record %d, column %d: %g is not a probability in [0, 1]", r, c, v)
+			}
+			x.Set(r, c, classify.Logit(v))
+		}
+	}
+	return x, nil
 }
 
 // checkRatioInputs returns the number of folds (opt.Folds, 5 if zero) after
@@ -291,8 +324,10 @@ func (p *fitPlan) resetSets() {
 		f.oddsMean = make([]float64, p.nl)
 		f.oddsShare = make([]float64, p.nl)
 		f.rounds = make([][]int, p.nl)
+		f.started = make([][]bool, p.nl)
 		for l := range f.rounds {
 			f.rounds[l] = make([]int, p.k)
+			f.started[l] = make([]bool, p.k)
 		}
 		for l := range f.losses {
 			f.losses[l], f.oddsMean[l], f.oddsShare[l] = math.NaN(), math.NaN(), math.NaN()
@@ -326,6 +361,7 @@ func (p *fitPlan) run(jobs []fitJob) error {
 		}
 		if bm, ok := model.(*classify.BoostedModel); ok {
 			f.rounds[jb.learner][jb.fold] = bm.Trees()
+			f.started[jb.learner][jb.fold] = bm.Started()
 		}
 		dst := make([]float64, len(p.test[jb.fold]))
 		model.LogOdds(subMatrix(p.x, p.test[jb.fold], f.cols), dst)
@@ -428,7 +464,7 @@ func (p *fitPlan) finish() {
 		if f.fixed != nil {
 			f.refit = f.fixed
 		} else {
-			f.refit = refitLearner(f.refit, f.rounds[f.best])
+			f.refit = refitLearner(f.refit, f.rounds[f.best], f.started[f.best])
 		}
 	}
 }
@@ -443,24 +479,30 @@ func threadedLearner(l classify.Learner, threads int) classify.Learner {
 }
 
 // refitLearner returns the learner bootstrap replicates fit where the point
-// estimate fitted l and its fold models kept rounds[fold] boosting rounds.
-// A Boosted learner with early stopping (and without Platt scaling, which
-// needs the validation split) becomes one that grows the rounded mean of
-// those rounds on all its training rows; any other learner is returned as
-// it is. Early stopping inside a replicate would be both slower (the
-// patience rounds and the validation pass) and biased: a resample repeats
-// records, so the inner validation split shares records with the training
-// rows and stops late.
-func refitLearner(l classify.Learner, rounds []int) classify.Learner {
+// estimate fitted l, its fold models kept rounds[fold] boosting rounds and
+// started[fold] says whether they grew from their Start learner. A Boosted
+// learner with early stopping (and without Platt scaling, which needs the
+// validation split) becomes one that grows the rounded mean of those
+// rounds on all its training rows, from its Start only if most fitted
+// folds kept theirs (without a validation split the start is always kept,
+// so the choice is made here); any other learner is returned as it is.
+// Early stopping inside a replicate would be both slower (the patience
+// rounds and the validation pass) and biased: a resample repeats records,
+// so the inner validation split shares records with the training rows and
+// stops late.
+func refitLearner(l classify.Learner, rounds []int, started []bool) classify.Learner {
 	b, ok := l.(classify.Boosted)
 	if !ok || b.ValidationFraction == 0 || b.Calibrate {
 		return l
 	}
-	var sum, k int
-	for _, r := range rounds {
-		if r > 0 {
+	var sum, k, kept int
+	for fo, r := range rounds {
+		if r > 0 || started[fo] {
 			sum += r
 			k++
+			if started[fo] {
+				kept++
+			}
 		}
 	}
 	if k == 0 {
@@ -468,6 +510,9 @@ func refitLearner(l classify.Learner, rounds []int) classify.Learner {
 	}
 	b.Rounds = max(1, int(math.Round(float64(sum)/float64(k))))
 	b.ValidationFraction = 0
+	if 2*kept <= k {
+		b.Start = nil
+	}
 	return b
 }
 

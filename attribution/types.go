@@ -48,6 +48,12 @@ type Sample struct {
 	Comparison []bool     // true for the comparison group's records
 	Labels     []float64  // 0/1 outcome
 	Scores     []float64  // model probability in [0, 1]
+	// ProbabilityCols lists the columns of X that hold probabilities in
+	// [0, 1], such as the model's score when it is a node; nil means none.
+	// The group classifiers read each as its clipped logit
+	// (classify.Logit): when a model scores σ(η), the log density ratio of
+	// the score given its parents is close to linear in η, not in σ(η).
+	ProbabilityCols []int
 }
 
 // Counts returns the number of reference and comparison records.

@@ -138,6 +138,7 @@ func checkOne(opt options, c scm.Case, su checkSetup, truth []scm.Truth, learner
 	if err != nil {
 		return checkDraw{err: err}
 	}
+	opt.onScale(s)
 	keep := make([]int, 0, len(mechs))
 	for i, m := range mechs {
 		if m.Node != su.drop {

@@ -167,6 +167,7 @@ func runCoverage(opt options, stdout, stderr io.Writer) error {
 			workers.For(0, opt.draws, func(_, d int) {
 				seed := drawSeed(opt.seed, ci, zi, d)
 				s, mechs, err := independentSample(c.Model, n, seed)
+				opt.onScale(s)
 				if err != nil {
 					draws[d].err = err
 					return
@@ -215,7 +216,8 @@ func independentSample(m *scm.Model, n int, seed uint64) (*attribution.Sample, [
 		return nil, nil, err
 	}
 	_, p := a.X.Dims()
-	s := &attribution.Sample{X: mat.NewDense(2*n, p, nil), Comparison: make([]bool, 2*n), Labels: make([]float64, 2*n), Scores: make([]float64, 2*n)}
+	s := &attribution.Sample{X: mat.NewDense(2*n, p, nil), Comparison: make([]bool, 2*n), Labels: make([]float64, 2*n), Scores: make([]float64, 2*n),
+		ProbabilityCols: a.ProbabilityCols}
 	for r := 0; r < n; r++ {
 		// Reference rows 0…n−1 of a; comparison rows 1…n of b (row 0 of
 		// b is its single reference record).

@@ -7,6 +7,7 @@
 //	go run ./cmd/gapwise-accuracy -sides -learners auto
 //	go run ./cmd/gapwise-accuracy -coverage -learners expanded [-draws 30] [-boot 40]
 //	go run ./cmd/gapwise-accuracy -splits -learners auto [-seeds 10] [-fold-splits 1,0] [-boot 40]
+//	go run ./cmd/gapwise-accuracy -cases score-node -scale raw
 //
 // Ground truth: every hybrid distribution simulated with common random
 // numbers and split with the Shapley (1953) formula. All data is synthetic.
@@ -46,7 +47,14 @@ type options struct {
 	// foldSplits are the fold splits R compared by the splits study (0:
 	// attribution.DefaultFoldSplits for the size).
 	foldSplits []int
+	scale      string // scaleLogit or scaleRaw: how probability-valued columns enter the learners
 }
+
+// Values of -scale.
+const (
+	scaleLogit = "logit"
+	scaleRaw   = "raw"
+)
 
 func main() {
 	opt, err := parseFlags(os.Args[1:], os.Stderr)
@@ -93,10 +101,16 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	splits := fs.Bool("splits", false, "measure how much the contributions move with the seed for each -fold-splits value (default sizes "+strconv.Itoa(splitsSize)+", cases "+strings.Join(splitsCases, ",")+"; first -learners choice)")
 	seeds := fs.Int("seeds", 10, "seeds per row with -splits")
 	foldSplits := fs.String("fold-splits", "1,0", "comma-separated fold splits R compared with -splits (0: the default for the size)")
+	scale := fs.String("scale", scaleLogit, "how probability-valued columns (the score-node case's score) enter the learners: logit (clipped, the engine's way) or raw")
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
 	}
-	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot, splits: *splits, seeds: *seeds}
+	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot, splits: *splits, seeds: *seeds, scale: *scale}
+	if opt.scale != scaleLogit && opt.scale != scaleRaw {
+		err := fmt.Errorf("-scale: %q is neither %s nor %s", opt.scale, scaleLogit, scaleRaw)
+		fmt.Fprintln(stderr, err)
+		return options{}, err
+	}
 	set := map[string]bool{}
 	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
 	if opt.checks && !set["sizes"] {

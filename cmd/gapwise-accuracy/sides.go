@@ -92,6 +92,7 @@ func sidesCase(opt options, ci int, c scm.Case, truth []scm.Truth, choice string
 			if err != nil {
 				return nil, err
 			}
+			opt.onScale(s)
 			for ei, est := range ests {
 				start := time.Now()
 				d, err := attribution.Decompose(s, mechs, opt.metrics, attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Side: est.side, Mix: est.mix})

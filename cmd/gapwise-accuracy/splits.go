@@ -68,6 +68,7 @@ func runSplits(opt options, stdout, stderr io.Writer) error {
 			if err != nil {
 				return err
 			}
+			opt.onScale(s)
 			for _, R := range opt.foldSplits {
 				if R == 0 {
 					R = attribution.DefaultFoldSplits(n, n)

@@ -67,6 +67,7 @@ func run(opt options, stdout, stderr io.Writer) error {
 					if err != nil {
 						return err
 					}
+					opt.onScale(s)
 					start := time.Now()
 					d, err := attribution.Decompose(s, mechs, opt.metrics, attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners})
 					if err != nil {
@@ -176,6 +177,15 @@ func (c *cell) meanAbsResidual() float64 {
 		}
 	}
 	return sum / float64(cnt)
+}
+
+// onScale applies -scale to a drawn sample: with raw, the
+// probability-valued columns (a score node's) enter the learners as they
+// are instead of as their logits.
+func (opt options) onScale(s *attribution.Sample) {
+	if opt.scale == scaleRaw {
+		s.ProbabilityCols = nil
+	}
 }
 
 // caseTruth simulates the ground-truth decomposition of case c with the

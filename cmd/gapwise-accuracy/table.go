@@ -69,17 +69,16 @@ func moments(e []float64) (mean, rms, sd float64) {
 
 // writeTruth prints each case's simulated gap and Shapley values with their
 // largest Monte Carlo standard error.
+// A new table starts wherever a case's nodes differ from the previous
+// case's.
 func writeTruth(w io.Writer, opt options, cases []scm.Case, truths [][]scm.Truth) {
-	fmt.Fprint(w, "\nGround truth (simulated, common random numbers; φ per mechanism):\n\n| case | metric | gap |")
-	for _, n := range cases[0].Model.Nodes {
-		fmt.Fprintf(w, " %s |", n.Name)
-	}
-	fmt.Fprint(w, " max MC SE |\n|---|---|---|")
-	for range cases[0].Model.Nodes {
-		fmt.Fprint(w, "---|")
-	}
-	fmt.Fprint(w, "---|\n")
+	fmt.Fprint(w, "\nGround truth (simulated, common random numbers; φ per mechanism):\n")
+	var header string
 	for ci, c := range cases {
+		if h := truthHeader(c.Model.Nodes); h != header {
+			header = h
+			fmt.Fprint(w, "\n"+h)
+		}
 		for _, t := range truths[ci] {
 			fmt.Fprintf(w, "| %s | %s | %+.4f |", c.Name, t.Metric, t.Gap)
 			se := t.GapSE
@@ -90,6 +89,21 @@ func writeTruth(w io.Writer, opt options, cases []scm.Case, truths [][]scm.Truth
 			fmt.Fprintf(w, " %.5f |\n", se)
 		}
 	}
+}
+
+// truthHeader is the header of a ground-truth table over nodes.
+func truthHeader(nodes []scm.Node) string {
+	var b strings.Builder
+	b.WriteString("| case | metric | gap |")
+	for _, n := range nodes {
+		fmt.Fprintf(&b, " %s |", n.Name)
+	}
+	b.WriteString(" max MC SE |\n|---|---|---|")
+	for range nodes {
+		b.WriteString("---|")
+	}
+	b.WriteString("---|\n")
+	return b.String()
 }
 
 // writeSizeHeader writes a Markdown table header: case, the second column,

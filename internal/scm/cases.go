@@ -1,7 +1,8 @@
 package scm
 
-// Case is a named Screening variant with the mechanisms whose ground-truth
-// contribution is exactly zero by construction.
+// Case is a named model (a Screening variant, or ScoreNode) with the
+// mechanisms whose ground-truth contribution is exactly zero by
+// construction.
 type Case struct {
 	Name  string
 	Shift Shift
@@ -15,9 +16,10 @@ type Case struct {
 	Hard bool
 }
 
-// Cases returns the accuracy cases, each isolating one kind of shift. In all
-// of them the unread covariate differs between groups (ground truth 0
-// because nothing reads it) and every unshifted mechanism is a null too.
+// Cases returns the accuracy cases, each isolating one kind of shift. In
+// the Screening ones the unread covariate differs between groups (ground
+// truth 0 because nothing reads it); in all, every unshifted mechanism is a
+// null too.
 //
 //	interaction   marker_a's mean drops by 0.8 among the diseased only
 //	spread-narrow marker_b's spread is 0.7 in the comparison group (safe)
@@ -25,6 +27,11 @@ type Case struct {
 //	prevalence    disease log-odds +0.7
 //	case-mix      age mean +0.5 and site mix shifted
 //	combined      every shift at once, the spread narrower
+//	score-node    the score is a node (ScoreNode): age mean +0.3, and the
+//	              unrecorded input weaker by 0.8 among the diseased
+//
+// The first six are Screening variants (node indices NodeAge…); the last
+// has its own nodes (ScoreNodeAge…).
 func Cases() []Case {
 	const unread = 1.0
 	cases := []Case{
@@ -44,5 +51,6 @@ func Cases() []Case {
 	for i := range cases {
 		cases[i].Model = Screening(cases[i].Name, cases[i].Shift)
 	}
-	return cases
+	return append(cases, Case{Name: "score-node", Model: ScoreNode("score-node", 0.3, -0.8),
+		Null: []int{ScoreNodeDisease, ScoreNodeMarker}})
 }

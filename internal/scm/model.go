@@ -31,6 +31,9 @@ const (
 	// Categorical nodes take levels 0..Levels−1; Levels−1 indicator columns
 	// (level 0 is the baseline).
 	Categorical
+	// Probability nodes take values in [0, 1], such as a model's score;
+	// one column, listed in the Sample's ProbabilityCols (Pooled).
+	Probability
 )
 
 // Equation is one group's structural equation of a node: it maps the

@@ -61,7 +61,8 @@ func (m *Model) Mechanisms() []attribution.Mechanism {
 
 // Pooled draws nRef reference and nCmp comparison records (Sample with the
 // same seed) and packs them as the engine's input: reference rows first,
-// then comparison rows, features encoded as in Columns.
+// then comparison rows, features encoded as in Columns; the columns of
+// Probability nodes are the Sample's ProbabilityCols.
 func Pooled(m *Model, nRef, nCmp int, seed uint64) (*attribution.Sample, []attribution.Mechanism, error) {
 	if nRef < 1 || nCmp < 1 {
 		return nil, nil, fmt.Errorf("scm: Pooled needs records in both groups, got %d reference and %d comparison", nRef, nCmp)
@@ -81,6 +82,11 @@ func Pooled(m *Model, nRef, nCmp int, seed uint64) (*attribution.Sample, []attri
 		Comparison: make([]bool, n),
 		Labels:     append(append([]float64(nil), ref.Labels...), cmp.Labels...),
 		Scores:     append(append([]float64(nil), ref.Scores...), cmp.Scores...),
+	}
+	for i, node := range m.Nodes {
+		if node.Kind == Probability {
+			s.ProbabilityCols = append(s.ProbabilityCols, cols[i][0])
+		}
 	}
 	for j := 0; j < n; j++ {
 		v := ref.Values
