@@ -139,6 +139,8 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 			DropMissing: spec.DropMissing(),
 			Missing:     spec.Missing,
 			Learners:    classify.NamesOf(learners),
+			// Never nil, so that JSON shows an empty list.
+			ProbabilityColumns: append([]string{}, spec.ProbabilityColumns()...),
 
 			EstimateFrom: dec.Side.String(),
 			CombineSides: combineSides(dec),

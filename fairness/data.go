@@ -168,6 +168,7 @@ type csvLoader struct {
 	nGraph                       int      // how many of names are graph columns
 	colIdx                       []int    // field of each graph column
 	categorical                  map[string]bool
+	probability                  map[string]bool // declared under probabilities
 
 	d                      *Dataset
 	raw                    [][]string // categorical cells of kept rows
@@ -259,6 +260,10 @@ func (l *csvLoader) locateColumns(pos map[string]int) error {
 	l.categorical = map[string]bool{}
 	for _, c := range spec.Categorical {
 		l.categorical[c] = true
+	}
+	l.probability = map[string]bool{}
+	for _, c := range spec.Probabilities {
+		l.probability[c] = true
 	}
 	return nil
 }
@@ -459,6 +464,9 @@ func (l *csvLoader) parseColumns(r *csvRow, label, score float64) error {
 		default:
 			if l.rowVals[j], err = parseNumber(r.cell(i)); err != nil {
 				return l.derr(r.at(i), c, err)
+			}
+			if v := l.rowVals[j]; l.probability[c] && !(v >= 0 && v <= 1) {
+				return l.derr(r.at(i), c, wrapf(ErrProbabilityRange, "%q is outside [0, 1] (the column is listed under probabilities)", r.cell(i)))
 			}
 		}
 	}

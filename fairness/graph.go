@@ -17,7 +17,8 @@ import (
 //   - the group column is not a graph column (it indexes the two
 //     distributions instead);
 //   - the score column is either absent from the graph or a node of its own;
-//   - categorical columns are graph columns other than label and score.
+//   - categorical columns are graph columns other than label and score;
+//   - probability columns are numeric graph columns other than the label.
 func validateGraph(s *Spec) error {
 	f := s.File
 	index := map[string]int{}
@@ -86,7 +87,32 @@ func validateGraph(s *Spec) error {
 		}
 		seen[c] = true
 	}
+	if err := validateProbabilities(s, owner); err != nil {
+		return err
+	}
 	return validateInputs(s)
+}
+
+// validateProbabilities checks probabilities: each entry once, a numeric
+// graph column, and not the label (a 0/1 outcome, not a probability).
+// owner maps each graph column to its node.
+func validateProbabilities(s *Spec, owner map[string]string) error {
+	seen := map[string]bool{}
+	for i, c := range s.Probabilities {
+		key := fmt.Sprintf("probabilities[%d]", i)
+		switch {
+		case seen[c]:
+			return specErr(s.File, s.probLines[i], key, ErrBadValue, "column %q is listed twice", c)
+		case owner[c] == "":
+			return specErr(s.File, s.probLines[i], key, ErrBadValue, "column %q is not a column of any graph node", c)
+		case c == s.Label:
+			return specErr(s.File, s.probLines[i], key, ErrBadValue, "column %q is the label, a 0/1 outcome rather than a probability", c)
+		case slices.Contains(s.Categorical, c):
+			return specErr(s.File, s.probLines[i], key, ErrBadValue, "column %q is categorical; a probability column holds numbers in [0, 1]", c)
+		}
+		seen[c] = true
+	}
+	return nil
 }
 
 // validateInputs checks model_inputs: each column once, and neither the

@@ -88,7 +88,11 @@ func metricBasis(spec *Spec, d *Dataset, metric string) (ref, cmp int) {
 // thus belongs to the column's node and so to that node's mechanism.
 // A mechanism's NodeCols are the feature columns of the
 // node's data columns and its ParentCols those of its parents, in the order
-// the parents are listed.
+// the parents are listed. The value columns of Spec.ProbabilityColumns
+// (the score when it is a node, and columns declared under probabilities)
+// are the sample's ProbabilityCols: X keeps the probabilities, and the
+// group classifiers read them as clipped logits (classify.Logit), since a
+// density ratio of a score σ(η) is close to linear in η.
 func encode(spec *Spec, d *Dataset) (*attribution.Sample, []attribution.Mechanism) {
 	n := len(d.Labels)
 	p := 0
@@ -139,6 +143,9 @@ func encode(spec *Spec, d *Dataset) (*attribution.Sample, []attribution.Mechanis
 		Comparison: append([]bool(nil), d.Comparison...),
 		Labels:     append([]float64(nil), d.Labels...),
 		Scores:     append([]float64(nil), d.Scores...),
+	}
+	for _, c := range spec.ProbabilityColumns() {
+		sample.ProbabilityCols = append(sample.ProbabilityCols, cols[c][0])
 	}
 	return sample, mechs
 }

@@ -62,6 +62,10 @@ type Settings struct {
 	// Missing is the spec's missing setting: error, drop or indicator.
 	Missing  string   `json:"missing"`
 	Learners []string `json:"learners"`
+	// ProbabilityColumns lists the graph columns the classifiers read as
+	// clipped logits: those under the spec key probabilities, and the
+	// score when it is a node (Spec.ProbabilityColumns).
+	ProbabilityColumns []string `json:"probability_columns"`
 	// EstimateFrom names the records that estimate the hybrid metrics:
 	// reference, comparison or both (see attribution.Side).
 	EstimateFrom string `json:"estimate_from"`

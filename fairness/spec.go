@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -40,6 +41,7 @@ import (
 //	missing: error       # or drop: drop rows with a missing value; or indicator: keep them, with a missingness indicator per column
 //	categorical: [sex]   # columns one-hot encoded, levels sorted
 //	model_inputs: [age, hb, bmi]  # the columns the model reads (checked against the graph)
+//	probabilities: [risk] # graph columns holding probabilities in [0, 1]; the classifiers read their logit (the score is read so when it is a node)
 //	folds: 5             # cross-fitting folds, >= 2
 //	fold_splits: 10      # independent fold splits averaged, 1 to MaxFoldSplits; omit for the default by group size
 //	classifier: auto     # auto, linear, expanded or boosted
@@ -77,7 +79,11 @@ type Spec struct {
 	// spec declares them; one in no graph node is warned about and
 	// described (Dataset.Outside).
 	ModelInputs []string
-	Folds       int
+	// Probabilities lists graph columns declared as holding probabilities
+	// in [0, 1] (spec key probabilities); with the score when it is a node
+	// they are ProbabilityColumns.
+	Probabilities []string
+	Folds         int
 	// FoldSplits is attribution.Options.FoldSplits: the independent fold
 	// splits whose estimates are averaged; 0 (key omitted) means
 	// attribution.DefaultFoldSplits for the group sizes.
@@ -106,6 +112,7 @@ type Spec struct {
 	lines      map[string]int // line of each top-level key
 	catLines   []int          // line of each categorical entry
 	inputLines []int          // line of each model_inputs entry
+	probLines  []int          // line of each probabilities entry
 }
 
 // GroupSpec names the group column and the two values compared.
@@ -261,6 +268,20 @@ func (s *Spec) ScoreIsNode() bool {
 	return false
 }
 
+// ProbabilityColumns lists the graph columns that hold probabilities, in
+// graph order: those declared under probabilities, and the score when it
+// is a node. The group classifiers read each as its clipped logit
+// (attribution.Sample.ProbabilityCols, classify.Logit).
+func (s *Spec) ProbabilityColumns() []string {
+	var out []string
+	for _, c := range s.Columns() {
+		if c == s.Score || slices.Contains(s.Probabilities, c) {
+			out = append(out, c)
+		}
+	}
+	return out
+}
+
 var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
 
 // specParser decodes values of the YAML tree into a Spec.
@@ -329,6 +350,8 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		s.Categorical, s.catLines, err = p.strs(k.Value, v)
 	case "model_inputs":
 		s.ModelInputs, s.inputLines, err = p.strs(k.Value, v)
+	case "probabilities":
+		s.Probabilities, s.probLines, err = p.strs(k.Value, v)
 	case "folds":
 		err = p.decode(k.Value, v, &s.Folds, "an integer")
 		if err == nil && s.Folds < 2 {

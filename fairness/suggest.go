@@ -4,7 +4,7 @@ package fairness
 // key (unknownKey).
 var (
 	topKeys = []string{"data", "label", "positive", "score", "threshold", "groups", "metrics", "graph", "seed",
-		"missing", "categorical", "model_inputs", "folds", "fold_splits", "classifier", "ece_bins", "estimate_from",
+		"missing", "categorical", "model_inputs", "probabilities", "folds", "fold_splits", "classifier", "ece_bins", "estimate_from",
 		"clip_ratios", "exact_limit", "intervals", "synthetic", "title"}
 	groupKeys     = []string{"column", "reference", "comparison"}
 	intervalKeys  = []string{"replicates", "level", "keep_ratios"}

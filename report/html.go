@@ -315,6 +315,7 @@ func newPage(res *fairness.Result) (*page, error) {
 		{"Cross-fitting folds", fmt.Sprint(res.Settings.Folds)}, {"Fold splits", foldSplitsSetting(res.Settings.FoldSplits)},
 		{"Classifier setting", res.Settings.Classifier},
 		{"Candidate learners", strings.Join(res.Settings.Learners, ", ")},
+		{"Probabilities read as logits", probabilitySetting(res.Settings.ProbabilityColumns)},
 		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Missing values", missingSetting(res.Settings)},
 		{"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},
 		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", p.IntervalSetting},
@@ -334,6 +335,15 @@ func clipSetting(p float64) string {
 		return "no clipping"
 	}
 	return "central " + trimPercent(p) + " of each mechanism's log-ratios"
+}
+
+// probabilitySetting lists the columns the classifiers read as logits, or
+// says there are none.
+func probabilitySetting(cols []string) string {
+	if len(cols) == 0 {
+		return "none"
+	}
+	return strings.Join(cols, ", ")
 }
 
 // exactSetting describes exact_limit, or "" when it is not recorded.

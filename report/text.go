@@ -204,6 +204,9 @@ func (t *textWriter) inputs(res *fairness.Result) {
 		}
 		tab.add("classifier", c)
 	}
+	if len(s.ProbabilityColumns) > 0 {
+		tab.add("read as logits", strings.Join(s.ProbabilityColumns, ", ")+" (probabilities)")
+	}
 	if s.ECEBins > 0 {
 		tab.add("ece bins", fmt.Sprint(s.ECEBins))
 	}
