@@ -38,9 +38,11 @@ var ErrBoostedOneClass = errors.New("classify: boosted: targets hold a single cl
 // internal/scm (16 000 records per group, marker_a's mechanism, true log
 // ratio linear in the finding among the diseased): at 2–3 standard
 // deviations below the mean the true log ratio is 1.53 and the trees from
-// a constant gave 1.29, at 2–3 above −2.18 against −1.41, and the
-// reweighted FNR gap came out 19 % short; neither Platt scaling (slope
-// 1.03–1.08) nor more patience changed that, and more rounds without early
+// a constant gave 1.29, at 2–3 above −2.18 against −1.41, and the FNR gap
+// of the reference records reweighted by that ratio came out 19 % short;
+// Platt scaling on the validation split and a slope fitted on the
+// out-of-fold log ratios (1.03–1.08) both left it about 11 % short, more
+// patience changed nothing, and more rounds without early
 // stopping removed the shrinkage only by fitting noise (mean density ratio
 // 1.04–1.10 at 150–300 rounds, where it should be 1). From the Expanded
 // start the same fits gave 1.57 and −1.99 and a gap 1 % short, with the
