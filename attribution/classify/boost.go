@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 
 	"github.com/gapwise/gapwise/internal/workers"
 	"gonum.org/v1/gonum/mat"
@@ -150,7 +151,6 @@ func (b Boosted) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	validBins := binning.binRows(x, valid, threads)
 
 	yv, wv := boostGather(y, valid), boostGather(wn, valid)
-	z := make([]float64, len(train))
 	sw := make([]float64, len(train))
 	var pos, neg float64
 	for i, r := range train {
@@ -165,36 +165,54 @@ func (b Boosted) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 	// Initial log-odds: the start's, or the weighted log prior odds of the
 	// training rows.
 	base := math.Log(pos / neg)
-	rawV := make([]float64, len(valid))
-	start, zt, zv := b.fitStart(x, y, wn, train, valid, base, seed, threads)
+	start, z, zv := b.fitStart(x, y, wn, train, valid, base, seed, threads)
 	if start != nil {
 		base = 0
-		copy(z, zt)
-		copy(rawV, zv)
 	} else {
-		for i := range z {
-			z[i] = base
-		}
-		for i := range rawV {
-			rawV[i] = base
-		}
+		z, zv = boostConstant(len(train), base), boostConstant(len(valid), base)
 	}
+	rawV := slices.Clone(zv)
 	grower := newBoostGrower(trainBins, binning, z, sw, boostTreeConfig{
 		maxLeaves: b.MaxLeaves, maxDepth: b.MaxDepth,
 		minRows: b.MinLeafRows, minHessian: b.MinLeafHessian,
 		l2: b.L2, rate: b.LearningRate, threads: threads,
 	})
 	words := boostWords(p)
+	trees, bestLoss := b.boostRounds(grower, validBins, words, rawV, yv, wv)
 
+	m := newBoostedModel(base, trees, p)
+	m.start = start
+	m.threads = b.Threads
+	m.validLoss = bestLoss
+	if b.Calibrate && len(valid) > 0 {
+		// The kept rounds' validation log-odds, from the initial ones.
+		for k := range trees {
+			trees[k].addBinned(validBins, words, zv)
+		}
+		a, c, err := plattFit(zv, yv, wv)
+		if err != nil {
+			return nil, fmt.Errorf("classify: boosted: calibration: %w", err)
+		}
+		m.slope, m.intercept = a, c
+	}
+	return m, nil
+}
+
+// boostRounds grows up to b.Rounds trees. With validation rows (packed
+// bins validBins, running log-odds rawV, targets yv, weights wv) it stops
+// once b.Patience rounds pass without the validation log loss improving by
+// more than 1e-7 and returns the trees up to the best round with that
+// loss; without, it returns every tree and +Inf.
+func (b Boosted) boostRounds(grower *boostGrower, validBins []uint64, words int, rawV, yv, wv []float64) ([]boostTree, float64) {
 	var trees []boostTree
 	bestLoss, bestRounds := math.Inf(1), 0
-	if len(valid) > 0 {
+	if len(rawV) > 0 {
 		bestLoss = boostLogLoss(rawV, yv, wv)
 	}
 	for t := 0; t < b.Rounds; t++ {
 		tree := grower.grow()
 		trees = append(trees, tree)
-		if len(valid) == 0 {
+		if len(rawV) == 0 {
 			bestRounds = len(trees)
 			continue
 		}
@@ -206,30 +224,16 @@ func (b Boosted) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 			break
 		}
 	}
-	trees = trees[:bestRounds]
+	return trees[:bestRounds], bestLoss
+}
 
-	m := newBoostedModel(base, trees, p)
-	m.start = start
-	m.threads = b.Threads
-	m.validLoss = bestLoss
-	if b.Calibrate && len(valid) > 0 {
-		// Recompute the kept rounds' validation log-odds.
-		for i := range rawV {
-			rawV[i] = base
-			if start != nil {
-				rawV[i] = zv[i]
-			}
-		}
-		for k := range trees {
-			trees[k].addBinned(validBins, words, rawV)
-		}
-		a, c, err := plattFit(rawV, yv, wv)
-		if err != nil {
-			return nil, fmt.Errorf("classify: boosted: calibration: %w", err)
-		}
-		m.slope, m.intercept = a, c
+// boostConstant returns n copies of v.
+func boostConstant(n int, v float64) []float64 {
+	out := make([]float64, n)
+	for i := range out {
+		out[i] = v
 	}
-	return m, nil
+	return out
 }
 
 // check reports settings out of range.
