@@ -117,6 +117,7 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 			md, err = replicateRefit(s, mechs, ri, ci, metricNames, inner, chosen[r], uint64(b))
 		}
 		if err == nil {
+			dropGames(md)
 			reps[b] = md
 		}
 		if bopt.Progress != nil {
@@ -160,6 +161,15 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		}
 	}
 	return d, sum, nil
+}
+
+// dropGames clears the games of a replicate's metrics: the intervals
+// read only the contributions and the ends, and B games of 2^k values
+// each would be held until the end.
+func dropGames(md []MetricDecomposition) {
+	for m := range md {
+		md[m].Game = nil
+	}
 }
 
 // reuseBySplit returns, per fold split, what a bootstrap replicate reuses

@@ -281,9 +281,11 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 	for m := range mds {
 		v := shifted(values[m])
 		fillSummary(&mds[m], ExactShapley(v, k), func(S uint64) float64 { return v[S] }, k, full)
+		mds[m].Game = v
 		if len(sides) == 2 && mix == MixMechanism {
 			if phi, ok := mechanismShapley(perSide[0][m], perSide[1][m], vars[0][m], vars[1][m], k); ok {
 				setContributions(&mds[m], phi)
+				mds[m].Game = nil
 			}
 		}
 		if diag && len(sides) == 2 {

@@ -85,6 +85,16 @@ type MetricDecomposition struct {
 	Contributions []float64 // Shapley values φ_i
 	Alone         []float64 // v({i})
 	IfEqualised   []float64 // v(N∖{i})
+	// Game[S] is v(S) = M̂(P_S) − M̂(P_∅) for every coalition S (bit i of
+	// S set: mechanism i in comparison form; Game[0] = 0), the game whose
+	// Shapley values are Contributions: with both sides the combined game
+	// of Mix, with several fold splits the mean of the splits' games
+	// (aggregateSplits), so ExactShapley(Game, k) = Contributions up to
+	// rounding. Nil when the Shapley values were sampled (more mechanisms
+	// than ExactLimit), when MixMechanism combined the contributions per
+	// mechanism (they are then no game's Shapley values), and in
+	// bootstrap replicates.
+	Game []float64
 	// StdErrors are the Monte Carlo standard errors of Contributions when
 	// they were estimated by permutation sampling; nil when exact.
 	StdErrors []float64

@@ -124,7 +124,8 @@ func decomposeSplits(s *Sample, mechs []Mechanism, metricNames []string, opt Opt
 // errors of sampled values become √(Σ_r se_{r,i}²)/R (independent
 // permutation streams). SplitSD_i is the standard deviation of φ_{r,i}
 // over the splits (divisor R − 1) and SplitContributions[r] the splits'
-// values. The observed values, the diagnostics (mechanism reports,
+// values. Game becomes the mean game v̄(S) = (1/R) Σ_r v_r(S) (nil
+// when a split has none), whose Shapley values are φ̄. The observed values, the diagnostics (mechanism reports,
 // weights, effective records) and every other field are split 0's. With
 // one split, that split is returned unchanged.
 //
@@ -152,6 +153,7 @@ func aggregateSplits(fits []splitFit) *Decomposition {
 		agg.Alone = meanOver(per, func(d *MetricDecomposition) []float64 { return d.Alone })
 		agg.IfEqualised = meanOver(per, func(d *MetricDecomposition) []float64 { return d.IfEqualised })
 		agg.Estimated = meanOver(per, func(d *MetricDecomposition) []float64 { return []float64{d.Estimated} })[0]
+		agg.Game = meanGame(per)
 		agg.Residual = agg.Gap - agg.Estimated
 		agg.StdErrors = pooledStdErrors(per)
 		agg.SplitContributions = make([][]float64, R)
@@ -177,6 +179,17 @@ func meanOver(ds []*MetricDecomposition, get func(*MetricDecomposition) []float6
 		out[i] /= float64(len(ds))
 	}
 	return out
+}
+
+// meanGame returns the mean of the splits' games over every coalition,
+// or nil when a split has no game (see MetricDecomposition.Game).
+func meanGame(ds []*MetricDecomposition) []float64 {
+	for _, d := range ds {
+		if d.Game == nil {
+			return nil
+		}
+	}
+	return meanOver(ds, func(d *MetricDecomposition) []float64 { return d.Game })
 }
 
 // pooledStdErrors returns √(Σ_r se_{r,i}²)/R, the standard error of the
