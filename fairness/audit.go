@@ -25,6 +25,11 @@ type RunOptions struct {
 	// permutation pairs when Shapley values are sampled (more mechanisms
 	// than exact_limit), with the pairs spent and the budget.
 	SamplingProgress func(pairs, budget int)
+	// CoalitionLimit is the largest number of mechanisms for which every
+	// metric carries the values of all coalitions (MetricResult.Coalitions):
+	// 0 means DefaultCoalitionLimit, a negative value none, and values
+	// above MaxCoalitionLimit count as MaxCoalitionLimit.
+	CoalitionLimit int
 }
 
 // Run performs the audit described by spec: it loads the data, checks that
@@ -165,6 +170,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		columns[n.Node] = n.Columns
 	}
 	addEstimates(r, dec, columns)
+	setCoalitions(r, dec, opt.coalitionLimit())
 	for i, md := range dec.Metrics {
 		r.Metrics[i].RecordsReference, r.Metrics[i].RecordsComparison = metricBasis(spec, d, md.Metric)
 		r.Metrics[i].AllRecords = allRecords(spec, d.Complete, md.Metric)

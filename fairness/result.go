@@ -158,6 +158,16 @@ type MetricResult struct {
 	// residual warning fires only when it excludes zero.
 	ResidualCI    *Interval      `json:"residual_ci,omitempty"`
 	Contributions []Contribution `json:"contributions"`
+	// Coalitions lists every coalition of the mechanisms with its value in
+	// the game whose Shapley values are the contributions (Coalition), in
+	// the order of the bit masks S = 0 … 2^k − 1, bit i standing for
+	// mechanisms[i]; present for at most RunOptions.CoalitionLimit
+	// mechanisms (DefaultCoalitionLimit) and exact Shapley values. The
+	// command line writes it into JSON only with --coalitions.
+	Coalitions []Coalition `json:"coalitions,omitempty"`
+	// CoalitionsOmitted says why Coalitions is absent: OmittedAboveLimit,
+	// OmittedSampled or OmittedPerMechanism; absent when they are present.
+	CoalitionsOmitted string `json:"coalitions_omitted,omitempty"`
 	// Headline names the mechanism of the largest contribution, its
 	// share of the gap and a verdict from the warnings (setHeadlines).
 	Headline Headline `json:"headline"`

@@ -33,7 +33,8 @@ type decomposeOptions struct {
 	workers int
 	force   bool
 
-	intervals intervalOptions
+	intervals  intervalOptions
+	coalitions coalitionOptions
 }
 
 func newDecomposeCmd(stdout, stderr io.Writer) *cobra.Command {
@@ -54,7 +55,11 @@ the spec or the data is refused.
 --intervals N adds percentile bootstrap intervals from N replicates (default
 0: none, which keeps decompose fast) at --level (default 0.95); each replicate
 refits the classifiers unless --fast-intervals keeps the fitted ratios. The
-flags override the spec's intervals key.`,
+flags override the spec's intervals key.
+
+The report's what-if panel reads the values of all coalitions of the
+mechanisms, kept for up to --coalition-limit mechanisms (default 12, at most
+16); --coalitions also writes them into the JSON output.`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if err := specFromArgs(cmd, args, &o.spec); err != nil {
@@ -71,6 +76,7 @@ flags override the spec's intervals key.`,
 	f.IntVar(&o.workers, "workers", 0, "`N` goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty --out folder, replacing result.json and report.html")
 	bindIntervalFlags(cmd, &o.intervals, 0, false)
+	bindCoalitionFlags(cmd, &o.coalitions)
 	return cmd
 }
 
@@ -84,6 +90,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 		return err
 	}
 	if err := o.intervals.check(); err != nil {
+		return err
+	}
+	if err := o.coalitions.check(); err != nil {
 		return err
 	}
 	out := outDir{path: o.out, force: o.force, inputs: []string{o.spec}}
@@ -104,18 +113,18 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	}
 	line := newProgressLine(stderr)
 	defer line.clear()
-	res, err := audit(spec, o.workers, o.intervals, line)
+	res, err := audit(spec, o.workers, o.intervals, o.coalitions.runLimit(), line)
 	if err != nil {
 		return err
 	}
 	var files []outFile
 	if o.out != "" {
-		if files, err = outputFiles(res); err != nil {
+		if files, err = outputFiles(res, o.coalitions.json); err != nil {
 			return err
 		}
 	}
 	var buf bytes.Buffer
-	if err := render(&buf, res, o.format); err != nil {
+	if err := render(&buf, res, o.format, o.coalitions.json); err != nil {
 		return err
 	}
 	if o.out != "" {
@@ -136,11 +145,12 @@ func checkFormat(format string) error {
 	return &usageError{fmt.Sprintf("--format must be text, json or markdown, got %q", format)}
 }
 
-// render writes res in the given format.
-func render(w io.Writer, res *fairness.Result, format string) error {
+// render writes res in the given format; JSON holds the coalitions only
+// when coalitions is set.
+func render(w io.Writer, res *fairness.Result, format string, coalitions bool) error {
 	switch format {
 	case formatJSON:
-		b, err := resultJSON(res)
+		b, err := resultJSON(res, coalitions)
 		if err != nil {
 			return err
 		}
@@ -154,18 +164,20 @@ func render(w io.Writer, res *fairness.Result, format string) error {
 }
 
 // resultJSON is the indented JSON encoding of res with a final newline:
-// the content of result.json and of --format json.
-func resultJSON(res *fairness.Result) ([]byte, error) {
-	b, err := json.MarshalIndent(res, "", "  ")
+// the content of result.json and of --format json, with the coalitions
+// only when coalitions is set (withoutCoalitions).
+func resultJSON(res *fairness.Result, coalitions bool) ([]byte, error) {
+	b, err := json.MarshalIndent(withoutCoalitions(res, coalitions), "", "  ")
 	if err != nil {
 		return nil, fmt.Errorf("encoding the result as JSON: %w", err)
 	}
 	return append(b, '\n'), nil
 }
 
-// outputFiles renders the files of an output folder.
-func outputFiles(res *fairness.Result) ([]outFile, error) {
-	js, err := resultJSON(res)
+// outputFiles renders the files of an output folder; result.json holds
+// the coalitions only when coalitions is set, the page always.
+func outputFiles(res *fairness.Result, coalitions bool) ([]outFile, error) {
+	js, err := resultJSON(res, coalitions)
 	if err != nil {
 		return nil, err
 	}
@@ -177,10 +189,11 @@ func outputFiles(res *fairness.Result) ([]outFile, error) {
 }
 
 // audit runs fairness.Run on spec with the bootstrap settings of the spec
-// and the flags, showing progress on line.
-func audit(spec *fairness.Spec, workers int, iv intervalOptions, line *progressLine) (*fairness.Result, error) {
+// and the flags and the coalition limit (fairness.RunOptions.CoalitionLimit),
+// showing progress on line.
+func audit(spec *fairness.Spec, workers int, iv intervalOptions, coalitionLimit int, line *progressLine) (*fairness.Result, error) {
 	ro := fairness.RunOptions{Workers: workers, Version: version, Intervals: iv.override(spec.Intervals),
-		Progress: line.bootstrap(), SamplingProgress: line.sampling()}
+		Progress: line.bootstrap(), SamplingProgress: line.sampling(), CoalitionLimit: coalitionLimit}
 	line.show("gapwise: estimating %d mechanisms for %d metrics ...", len(spec.Graph), len(spec.Metrics))
 	return fairness.Run(spec, ro)
 }

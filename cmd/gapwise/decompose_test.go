@@ -3,11 +3,13 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
 
+	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/fairness"
 )
 
@@ -39,7 +41,7 @@ func TestDecomposeFormats(t *testing.T) {
 		}
 	}
 	var md bytes.Buffer
-	if err := render(&md, loadResult(t, filepath.Join(demoDir(t), resultFile)), formatMarkdown); err != nil {
+	if err := render(&md, loadResult(t, filepath.Join(demoDir(t), resultFile)), formatMarkdown, false); err != nil {
 		t.Fatal(err)
 	}
 	for _, w := range []string{"|", "anaemia, age"} {
@@ -69,6 +71,9 @@ func TestDecomposeDeterministic(t *testing.T) {
 		t.Fatalf("JSON output does not parse: %v", err)
 	}
 	checkSums(t, &res)
+	if strings.Contains(one, `"coalitions`) {
+		t.Error("JSON without --coalitions holds coalitions")
+	}
 	if iv := res.Settings.Intervals; iv == nil || iv.Replicates != testIntervals.flags.Replicates || iv.Level != 0.95 || !iv.KeepRatios {
 		t.Errorf("settings.intervals %+v, want %d fast replicates at 0.95", iv, testIntervals.flags.Replicates)
 	}
@@ -82,10 +87,11 @@ func TestDecomposeDeterministic(t *testing.T) {
 func TestDecomposeOut(t *testing.T) {
 	spec := filepath.Join(demoDir(t), demoSpec)
 	out := filepath.Join(t.TempDir(), "audit")
-	stdout := decompose(t, decomposeOptions{spec: spec, format: formatJSON, out: out})
+	stdout := decompose(t, decomposeOptions{spec: spec, format: formatJSON, out: out, coalitions: coalitionOptions{json: true, limit: 12}})
 	if got := readFile(t, filepath.Join(out, resultFile)); got != stdout {
 		t.Error("result.json differs from the JSON printed on stdout")
 	}
+	checkCoalitionsJSON(t, stdout)
 	if html := readFile(t, filepath.Join(out, reportFile)); !strings.Contains(html, "<html") {
 		t.Error("report.html is not HTML")
 	}
@@ -99,6 +105,42 @@ func TestDecomposeOut(t *testing.T) {
 	after, _ := os.Stat(filepath.Join(out, resultFile))
 	if !before.ModTime().Equal(after.ModTime()) {
 		t.Error("refused run touched result.json")
+	}
+}
+
+// checkCoalitionsJSON parses a result written with --coalitions and checks
+// that every metric lists all 2^k coalitions, whose Shapley values
+// (Shapley 1953, attribution.ExactShapley) are the contributions.
+func checkCoalitionsJSON(t *testing.T, js string) {
+	t.Helper()
+	var res fairness.Result
+	if err := json.Unmarshal([]byte(js), &res); err != nil {
+		t.Fatal(err)
+	}
+	k := len(res.Mechanisms)
+	for _, m := range res.Metrics {
+		if len(m.Coalitions) != 1<<k {
+			t.Fatalf("%s: %d coalitions for %d mechanisms (omitted %q)", m.Metric, len(m.Coalitions), k, m.CoalitionsOmitted)
+		}
+		v := make([]float64, len(m.Coalitions))
+		for S, c := range m.Coalitions {
+			v[S] = c.ChangeFromReference
+		}
+		for i, phi := range attribution.ExactShapley(v, k) {
+			if math.Abs(phi-m.Contributions[i].Value) > 1e-12 {
+				t.Errorf("%s/%s: Shapley value of the coalitions %v, contribution %v", m.Metric, m.Contributions[i].Node, phi, m.Contributions[i].Value)
+			}
+		}
+	}
+}
+
+// --coalition-limit outside [0, 16] is a usage error (exit 2).
+func TestDecomposeCoalitionLimitFlag(t *testing.T) {
+	for _, bad := range []string{"-1", "17"} {
+		var so, se bytes.Buffer
+		if code := execute([]string{"decompose", "--spec", "none.yaml", "--coalition-limit", bad}, &so, &se); code != exitInput || !strings.Contains(se.String(), "--coalition-limit must be between 0 and 16") {
+			t.Errorf("--coalition-limit %s: exit %d, want %d (stderr %q)", bad, code, exitInput, se.String())
+		}
 	}
 }
 

@@ -110,11 +110,11 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	res, err := audit(spec, o.workers, o.intervals, line)
+	res, err := audit(spec, o.workers, o.intervals, 0, line)
 	if err != nil {
 		return err
 	}
-	files, err := outputFiles(res)
+	files, err := outputFiles(res, false)
 	if err != nil {
 		return err
 	}
