@@ -17,11 +17,13 @@ import (
 // layoutResult is the hand result with every optional column a table can
 // have: the details, both sides' diagnostics with clipping (seventeen
 // diagnostics columns), sampled Shapley values and the sides' differences
-// and split SDs in the decomposition, and a long title.
+// and split SDs in the decomposition, a long title, and the what-if panel
+// (withGames) with the CSV buttons under every table.
 func layoutResult() *fairness.Result {
 	res := handResult()
 	res.Details = handDetails()
 	withDiagnostics(res)
+	withGames(res)
 	res.Title = "Anaemia screening in the outpatient clinics, spring audit of the haemoglobin rule"
 	for i := range res.Metrics {
 		for j := range res.Metrics[i].Contributions {

@@ -50,11 +50,12 @@ const drillNodes = 3
 // when it is nil; intervals appear only where the Result has them. It
 // returns an error if the data cannot be encoded or w fails.
 func WriteHTML(w io.Writer, res *fairness.Result) error {
+	games, res := takeGames(res)
 	res, err := visibleCopy(res)
 	if err != nil {
 		return err
 	}
-	p, err := newPage(res)
+	p, err := newPage(res, games)
 	if err != nil {
 		return err
 	}
@@ -99,6 +100,7 @@ type page struct {
 	HasSides        bool   // some contribution has a difference between the sides
 	HasSplitSD      bool   // some contribution has a spread over fold splits
 	Diagnostics     diagnosticsView
+	WhatIf          whatIfView // the what-if panel (html_whatif.go)
 }
 
 type keyValue struct{ Key, Value string }
@@ -185,17 +187,19 @@ type binRow struct{ Bin, Reference, Comparison string }
 
 // chartData is everything the page script draws, keyed for lookup.
 type chartData struct {
-	Metric      string                 `json:"metric"` // initially selected
-	Forest      map[string]chartOption `json:"forest"`
-	Graph       map[string]chartOption `json:"graph"`
-	Reliability chartOption            `json:"reliability,omitempty"`
-	Columns     map[string]chartOption `json:"columns"`
-	Order       map[string][]string    `json:"order"` // per metric: column names, largest contributions first
-	Top         map[string][]string    `json:"top"`   // per metric: the drillNodes largest contributions' columns
+	Metric      string                  `json:"metric"` // initially selected
+	Forest      map[string]chartOption  `json:"forest"`
+	Graph       map[string]chartOption  `json:"graph"`
+	Reliability chartOption             `json:"reliability,omitempty"`
+	Columns     map[string]chartOption  `json:"columns"`
+	Order       map[string][]string     `json:"order"`  // per metric: column names, largest contributions first
+	Top         map[string][]string     `json:"top"`    // per metric: the drillNodes largest contributions' columns
+	WhatIf      map[string]whatIfMetric `json:"whatif"` // per metric with coalitions: its game (whatIf)
 }
 
-// newPage formats res for the template and builds the chart options.
-func newPage(res *fairness.Result) (*page, error) {
+// newPage formats res for the template and builds the chart options;
+// games holds the metrics' games over all coalitions (takeGames).
+func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	p := &page{
 		Res:             res,
 		Title:           fmt.Sprintf("Performance audit of %s: %s compared with %s", res.Score, res.Groups.Comparison, res.Groups.Reference),
@@ -273,6 +277,7 @@ func newPage(res *fairness.Result) (*page, error) {
 	if len(res.Metrics) > 0 {
 		data.Metric = res.Metrics[0].Metric
 	}
+	p.WhatIf, data.WhatIf = whatIf(res, games)
 	for _, m := range res.Mechanisms {
 		p.Mechanisms = append(p.Mechanisms, mechanismDiagnostics(m, flags[m.Node]))
 	}

@@ -248,6 +248,7 @@
         }
       });
     }
+    updateWhatIf();
   }
 
   // A table wider than its box is re-flowed (class gw-stacked: each row a
@@ -297,6 +298,161 @@
     reportLayout();
   }
 
+
+  // What-if panel. data.whatif[metric].values[S] is v(S), the estimated
+  // change from the reference group's metric with the mechanisms of the
+  // bit mask S in the comparison group's form. Ticked set T in the
+  // reference group's form: the estimated gap left is v(N∖T); in the
+  // comparison group's form: v(N) − v(T). The figure is printed as the
+  // report prints a difference (formatDelta): scale·|x| with the metric's
+  // decimals, "+" or U+2212 unless it prints as zero, then the unit. The
+  // raw number goes to the output's data-value, for the browser test.
+  function formatDelta(w, x) {
+    var s = (w.scale * Math.abs(x)).toFixed(w.decimals);
+    if (!/^[0.]*$/.test(s)) { s = (x > 0 ? "+" : "\u2212") + s; }
+    return s + w.unit;
+  }
+
+  function remainingGap(w, ticked, toReference) {
+    var n = w.values.length - 1; // N, all bits set
+    return toReference ? w.values[n & ~ticked] : w.values[n] - w.values[ticked];
+  }
+
+  function updateWhatIf() {
+    var panel = document.getElementById("whatif-panel");
+    var out = document.getElementById("whatif-remaining");
+    if (!panel || !out) {
+      return;
+    }
+    var w = data.whatif && data.whatif[shown];
+    var result = document.getElementById("whatif-result");
+    panel.hidden = !w;
+    result.hidden = !w;
+    if (!w) {
+      return;
+    }
+    var ticked = 0, count = 0;
+    panel.querySelectorAll("input[data-bit]").forEach(function (box) {
+      if (box.checked) { ticked |= 1 << +box.getAttribute("data-bit"); count++; }
+    });
+    var form = panel.querySelector('input[name="gw-whatif-form"]:checked');
+    var toReference = !form || form.value !== "comparison";
+    var x = remainingGap(w, ticked, toReference);
+    out.textContent = formatDelta(w, x);
+    out.setAttribute("data-value", String(x));
+    out.setAttribute("data-ticked", String(ticked));
+    var lead = document.getElementById("whatif-lead");
+    var against = document.getElementById("whatif-against");
+    if (count === 0) {
+      lead.textContent = "With no mechanism made the same, the estimated gap is";
+      against.textContent = " (observed gap " + w.observed + "; the residual " + w.residual + " is attributed to no mechanism)";
+      return;
+    }
+    lead.textContent = "If " + (count === 1 ? "this mechanism were" : "these " + count + " mechanisms were") +
+      " the same in both groups, in the " + (toReference ? "reference" : "comparison") + " group's form, the estimated gap would be";
+    against.textContent = ", against an estimated gap of " + w.estimated + " with every mechanism as it is (observed gap " +
+      w.observed + "; the residual " + w.residual + " is attributed to no mechanism and is not in these figures)";
+  }
+
+  function startWhatIf() {
+    var panel = document.getElementById("whatif-panel");
+    if (panel) {
+      panel.addEventListener("change", updateWhatIf);
+    }
+    updateWhatIf();
+  }
+
+  // CSV download of every table. A cell's text is that of its parts joined
+  // by a space (a value and the interval under it stay apart); a cell is
+  // quoted when it holds a comma, a double quote, CR or LF, with double
+  // quotes doubled, and rows end in CRLF (RFC 4180). A cell that starts
+  // with = + - @, a tab or CR, and is not a plain number, gets a leading
+  // apostrophe so that a spreadsheet reads it as text, not as a formula
+  // (common practice: OWASP, "CSV Injection"). The file starts with a
+  // UTF-8 byte-order mark, which spreadsheets need to read UTF-8.
+  function cellText(node) {
+    var parts = [];
+    node.childNodes.forEach(function (c) {
+      var t = c.nodeType === 3 ? c.nodeValue : c.nodeType === 1 ? cellText(c) : "";
+      t = t.replace(/\s+/g, " ").trim();
+      if (t) { parts.push(t); }
+    });
+    return parts.join(" ");
+  }
+
+  function csvField(text) {
+    if (/^[=+\-@\t\r]/.test(text) && !/^[+\-]?[0-9]+(\.[0-9]+)?$/.test(text)) {
+      text = "'" + text;
+    }
+    if (/[",\r\n]/.test(text)) {
+      text = '"' + text.replace(/"/g, '""') + '"';
+    }
+    return text;
+  }
+
+  function tableCSV(table) {
+    var lines = [];
+    table.querySelectorAll("tr").forEach(function (tr) {
+      var cells = [];
+      tr.querySelectorAll("th, td").forEach(function (c) { cells.push(csvField(cellText(c))); });
+      lines.push(cells.join(","));
+    });
+    return "\ufeff" + lines.join("\r\n") + "\r\n";
+  }
+
+  // Saves a table as CSV through a Blob URL and a link with a download
+  // attribute: nothing leaves the page, and the Content-Security-Policy
+  // (which governs what the page loads, not what it saves) is not asked.
+  function downloadCSV(table, name) {
+    var url = URL.createObjectURL(new Blob([tableCSV(table)], { type: "text/csv;charset=utf-8" }));
+    var a = document.createElement("a");
+    a.href = url;
+    a.download = name;
+    a.hidden = true;
+    document.body.appendChild(a);
+    a.click();
+    document.body.removeChild(a);
+    setTimeout(function () { URL.revokeObjectURL(url); }, 0);
+  }
+
+  // A "Download CSV" button after every table; the file is named after the
+  // table's id, or its section's id and its number there.
+  function addCSVButtons() {
+    var seen = {};
+    document.querySelectorAll("table.gw-table").forEach(function (table) {
+      var section = table.closest("section");
+      var base = table.id;
+      if (!base) {
+        var sid = section && section.id ? section.id : "table";
+        seen[sid] = (seen[sid] || 0) + 1;
+        base = sid + "-" + seen[sid];
+      }
+      var button = document.createElement("button");
+      button.type = "button";
+      button.className = "gw-csv";
+      button.textContent = "Download CSV";
+      button.setAttribute("data-csv-for", base);
+      button.setAttribute("aria-label", "Download this table as CSV (" + base + ".csv)");
+      button.addEventListener("click", function () { downloadCSV(table, "gapwise-" + base + ".csv"); });
+      var after = table.parentElement && table.parentElement.classList.contains("gw-tablebox") ? table.parentElement : table;
+      after.insertAdjacentElement("afterend", button);
+    });
+  }
+
+  // The chosen metric is kept in the URL fragment (#metric=fpr), so that a
+  // view can be linked: an unknown metric falls back to the first.
+  function metricFromFragment() {
+    var m = /(?:^#|&)metric=([A-Za-z0-9_]+)/.exec(window.location.hash);
+    return m && data.forest[m[1]] ? m[1] : null;
+  }
+
+  function setFragment(name) {
+    var hash = "#metric=" + name;
+    if (window.location.hash !== hash && window.history && window.history.replaceState) {
+      window.history.replaceState(null, "", hash);
+    }
+  }
+
   function start() {
     if (!data || typeof echarts === "undefined") {
       document.body.setAttribute("data-charts-error", "missing data or library");
@@ -320,15 +476,26 @@
     document.body.setAttribute("data-charts-expected", String(expected));
     layoutTables();
     reportLayout();
+    addCSVButtons();
+    startWhatIf();
     var menu = document.getElementById("gw-metric");
-    // A link may choose the metric: report.html#metric=fpr.
-    var wanted = /metric=([A-Za-z0-9_]+)/.exec(window.location.hash);
-    if (menu && wanted && data.forest[wanted[1]]) {
-      menu.value = wanted[1];
-    }
+    // A link may choose the metric: report.html#metric=fpr; without one, or
+    // with an unknown metric, the first is shown.
+    var wanted = metricFromFragment();
     if (menu) {
-      menu.addEventListener("change", function () { selectMetric(menu.value); });
+      menu.value = wanted || menu.options[0].value;
+      menu.addEventListener("change", function () { selectMetric(menu.value); setFragment(menu.value); });
       selectMetric(menu.value);
+      if (/(?:^#|&)metric=/.test(window.location.hash)) {
+        setFragment(menu.value);
+      }
+      window.addEventListener("hashchange", function () {
+        var m = metricFromFragment();
+        if (m && m !== menu.value) {
+          menu.value = m;
+          selectMetric(m);
+        }
+      });
     }
     window.addEventListener("resize", resizeAll);
     // Print every table: open the collapsed equivalents, then restore.
