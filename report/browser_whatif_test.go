@@ -62,7 +62,8 @@ func withGames(res *fairness.Result) {
 // buttons of the fnr decomposition and the group-metrics tables, with
 // URL.createObjectURL wrapped to keep each Blob (and the download link's
 // click stopped, so that no file is written), and records the Blobs'
-// text with its byte-order mark. Everything goes into <body data-steps> as JSON, with the policy
+// text with its byte-order mark; last it sets the fragment to
+// #metric=brier, as a reader editing the address would. Everything goes into <body data-steps> as JSON, with the policy
 // violations the frame reported.
 const whatIfFrame = `<!DOCTYPE html><html><body>
 <iframe id="f" src="report.html#FRAGMENT" width="1200" height="900"></iframe>
@@ -98,16 +99,20 @@ setInterval(function () {
   Promise.all(blobs.map(function (x) { return x.arrayBuffer(); })).then(function (bufs) {
     out.csv = bufs.map(function (b) { return new TextDecoder("utf-8", { ignoreBOM: true }).decode(b); });
     out.types = blobs.map(function (x) { return x.type; });
-    document.body.setAttribute("data-steps", JSON.stringify(out));
+    w.location.hash = "#metric=brier";
+    setTimeout(function () {
+      out.edited = state(d);
+      document.body.setAttribute("data-steps", JSON.stringify(out));
+    }, 200);
   });
 }, 100);
 </script></body></html>`
 
 // whatIfSteps is what whatIfFrame records.
 type whatIfSteps struct {
-	Violations                              []string
-	Opened, Reference, Comparison, Switched whatIfState
-	CSV, Types                              []string
+	Violations                                      []string
+	Opened, Reference, Comparison, Switched, Edited whatIfState
+	CSV, Types                                      []string
 }
 
 type whatIfState struct {
@@ -144,7 +149,8 @@ func runWhatIfFrame(t *testing.T, bin, dir, fragment string, check bool) whatIfS
 //
 //   - #metric=brier opens the Brier score and keeps the fragment; an
 //     unknown metric opens the first one and the fragment names it;
-//     choosing a metric in the menu writes it into the fragment;
+//     choosing a metric in the menu writes it into the fragment, and
+//     editing the fragment chooses the metric;
 //   - ticking age and hb (bits 0 and 2) shows v(N∖T) from the Result's
 //     coalitions in the reference group's form and v(N) − v(T) in the
 //     comparison group's, as a number (data-value, to 1e-12) and as
@@ -174,6 +180,9 @@ func TestBrowserWhatIfAndCSV(t *testing.T) {
 	}
 	if s.Switched.Metric != "fnr" || s.Switched.Hash != "#metric=fnr" {
 		t.Errorf("choosing fnr shows %q with fragment %q", s.Switched.Metric, s.Switched.Hash)
+	}
+	if s.Edited.Metric != "brier" {
+		t.Errorf("editing the fragment to #metric=brier shows %q", s.Edited.Metric)
 	}
 	brier, fnr := res.Metrics[1], res.Metrics[0]
 	const ticked = 0b0101 // age and hb
