@@ -129,7 +129,10 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 	r := &Result{
 		Tool:        ToolInfo{Name: ToolName, Version: opt.Version},
 		Title:       spec.Title,
+		Model:       spec.Model,
+		AuditDate:   spec.AuditDate,
 		Groups:      groups,
+		Names:       resultNames(spec),
 		Label:       spec.Label,
 		LabelValues: d.LabelValues,
 		ModelInputs: modelInputs(spec),

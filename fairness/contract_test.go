@@ -55,6 +55,8 @@ func jsonPaths(t reflect.Type, prefix string, out *[]string) {
 		jsonPaths(t.Elem(), prefix, out)
 	case reflect.Slice, reflect.Array:
 		jsonPaths(t.Elem(), prefix+"[]", out)
+	case reflect.Map: // keyed by identifiers: "names.nodes.*.name"
+		jsonPaths(t.Elem(), prefix+".*", out)
 	case reflect.Struct:
 		for i := range t.NumField() {
 			f := t.Field(i)

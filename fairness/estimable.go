@@ -41,13 +41,13 @@ func estimability(r *Result, m MechanismResult) string {
 		var seps []string
 		for _, o := range r.Mechanisms {
 			if slices.Contains(m.Parents, o.Node) && o.AUC >= NotEstimableAUC {
-				seps = append(seps, "`"+o.Node+"`")
+				seps = append(seps, "`"+r.NodeName(o.Node)+"`")
 			}
 		}
 		if len(seps) > 0 {
-			return fmt.Sprintf("its parents %s already separate the groups, so the comparison group's `%s` is not observed where the reference records lie (out-of-fold AUC %.3f on the node and its parents)", strings.Join(seps, ", "), m.Mechanism, m.AUC)
+			return fmt.Sprintf("its parents %s already separate the groups, so the comparison group's `%s` is not observed where the reference records lie (out-of-fold AUC %.3f on the node and its parents)", strings.Join(seps, ", "), r.MechanismName(m.Node), m.AUC)
 		}
-		return fmt.Sprintf("the groups' records barely overlap on `%s` (out-of-fold AUC %.3f of the group classifier on the node and its parents), so one group's mechanism is not observed where the other group's records lie", m.Mechanism, m.AUC)
+		return fmt.Sprintf("the groups' records barely overlap on `%s` (out-of-fold AUC %.3f of the group classifier on the node and its parents), so one group's mechanism is not observed where the other group's records lie", r.MechanismName(m.Node), m.AUC)
 	}
 	ref, cmp := m.ESS < NotEstimableESS, m.ComparisonESS < NotEstimableESS
 	switch r.Settings.EstimateFrom {
@@ -67,10 +67,11 @@ func estimability(r *Result, m MechanismResult) string {
 	return ""
 }
 
-// notEstimableWarning is the warning for a reason from estimability.
-func notEstimableWarning(m MechanismResult, reason string) Warning {
+// notEstimableWarning is the warning for a reason from estimability; node
+// is m's node as the sentence names it.
+func notEstimableWarning(m MechanismResult, node, reason string) Warning {
 	return Warning{Kind: KindNotEstimable, Severity: SeverityUnreliable, Nodes: []string{m.Node},
-		Message: fmt.Sprintf("the contribution of `%s` is not estimable here: %s; the reports show no value for it, and the other contributions, which share its weights in their hybrids, are less certain", m.Node, reason)}
+		Message: fmt.Sprintf("the contribution of `%s` is not estimable here: %s; the reports show no value for it, and the other contributions, which share its weights in their hybrids, are less certain", node, reason)}
 }
 
 // learnerWarning speaks up when the learner chosen for m's node and
@@ -87,9 +88,10 @@ func learnerWarning(r *Result, m MechanismResult) (Warning, bool) {
 		if math.IsNaN(l.OddsCheck) {
 			what = "its odds could not be checked"
 		}
-		msg := fmt.Sprintf("no candidate learner passed the self-checks for `%s`; the least bad, %s, was used: %s; its weights are degenerate, so treat its contribution as unreliable", m.Mechanism, l.Classifier, what)
+		mech := r.MechanismName(m.Node)
+		msg := fmt.Sprintf("no candidate learner passed the self-checks for `%s`; the least bad, %s, was used: %s; its weights are degenerate, so treat its contribution as unreliable", mech, l.Classifier, what)
 		if r.Settings.Classifier != ClassifierAuto {
-			msg = fmt.Sprintf("the learner %s set by the spec's classifier key fails the self-checks for `%s`: %s; its weights are degenerate (classifier: auto would choose among the learners that pass)", l.Classifier, m.Mechanism, what)
+			msg = fmt.Sprintf("the learner %s set by the spec's classifier key fails the self-checks for `%s`: %s; its weights are degenerate (classifier: auto would choose among the learners that pass)", l.Classifier, mech, what)
 		}
 		return Warning{Kind: KindLearnerChecks, Severity: SeverityUnreliable, Nodes: []string{m.Node}, Message: msg}, true
 	}

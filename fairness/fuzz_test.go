@@ -5,6 +5,8 @@ import (
 	"errors"
 	"math"
 	"os"
+	"slices"
+	"strings"
 	"testing"
 )
 
@@ -99,6 +101,7 @@ func FuzzParseSpec(f *testing.F) {
 	f.Add([]byte(exampleSpec))
 	f.Add([]byte(smallSpec))
 	f.Add([]byte(exampleSpec + "missing: drop\ncategorical: [m1]\nfolds: 3\nclassifier: linear\nece_bins: 4\nsynthetic: true\ntitle: t\n"))
+	f.Add([]byte(namesSpec))
 	f.Add([]byte("a: &x [1, 2]\nb: *x\n"))
 	f.Add([]byte("graph:\n  - node: a\n    parents: [b]\n  - node: b\n    parents: [a]\n"))
 	if src, err := os.ReadFile("../testdata/bad/yaml_syntax/spec.yaml"); err == nil {
@@ -129,6 +132,21 @@ func FuzzParseSpec(f *testing.F) {
 					t.Fatalf("unknown parent %q accepted", p)
 				}
 			}
+		}
+		// Display names are plain one-line text naming what the spec has.
+		nodes, cols := resolveNames(s)
+		for id, d := range nodes {
+			if _, ok := index[id]; !ok || strings.ContainsAny(d.Label(), "`\n\r") || d.Name == "" {
+				t.Fatalf("display name %+v of node %q accepted", d, id)
+			}
+		}
+		for id, d := range cols {
+			if !slices.Contains(specColumns(s), id) || strings.ContainsAny(d.Label(), "`\n\r") || d.Name == "" {
+				t.Fatalf("display name %+v of column %q accepted", d, id)
+			}
+		}
+		if s.AuditDate != "" && CheckAuditDate(s.AuditDate) != nil {
+			t.Fatalf("audit date %q accepted", s.AuditDate)
 		}
 	})
 }

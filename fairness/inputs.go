@@ -35,17 +35,17 @@ func modelInputs(spec *Spec) *ModelInputs {
 // outside the graph reaches the gap through none of them unless the score
 // is itself a node, whose mechanism P(score | parents) then absorbs it
 // together with how the model scores. Never nil.
-func modelInputWarnings(mi *ModelInputs, group, score string, scoreIsNode bool, details *Details) []Warning {
+func modelInputWarnings(mi *ModelInputs, group, score string, scoreIsNode bool, details *Details, names *Names) []Warning {
 	out := []Warning{}
 	if mi == nil {
 		return out
 	}
 	remedy, sev := "; add it to the graph, or declare the score as a node with parents so that the score's mechanism carries it", SeverityCaution
 	if scoreIsNode {
-		remedy, sev = fmt.Sprintf("; the mechanism of the score node %q carries it, mixed with how the model scores; add it to the graph to tell them apart", score), SeverityNote
+		remedy, sev = fmt.Sprintf("; the mechanism of the score node %s carries it, mixed with how the model scores; add it to the graph to tell them apart", columnWords(names, score)), SeverityNote
 	}
 	for _, c := range mi.OutsideGraph {
-		msg := fmt.Sprintf("the model reads %q, which is in no graph node", c)
+		msg := fmt.Sprintf("the model reads %s, which is in no graph node", columnWords(names, c))
 		if d := stdDiffOf(details, c); !math.IsNaN(d) {
 			msg += fmt.Sprintf(" (its groups differ by a standardised difference of %.2f)", d)
 		}
@@ -54,7 +54,7 @@ func modelInputWarnings(mi *ModelInputs, group, score string, scoreIsNode bool, 
 	}
 	if mi.ReadsGroup && !scoreIsNode {
 		out = append(out, Warning{Kind: KindModelReadsGroup, Severity: SeverityCaution, Nodes: []string{},
-			Message: fmt.Sprintf("the model reads the group column %q itself: for equal inputs it can score the groups differently, and no mechanism of the graph carries that part of the gap; declare the score as a node with parents so that its mechanism does", group)})
+			Message: fmt.Sprintf("the model reads the group column %s itself: for equal inputs it can score the groups differently, and no mechanism of the graph carries that part of the gap; declare the score as a node with parents so that its mechanism does", columnWords(names, group))})
 	}
 	return out
 }

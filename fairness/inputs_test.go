@@ -97,15 +97,15 @@ func TestModelInputsChecks(t *testing.T) {
 		}
 	}
 	mi := &ModelInputs{Declared: []string{"w", "site"}, OutsideGraph: []string{"w"}, ReadsGroup: true}
-	ws := modelInputWarnings(mi, "site", "score", false, nil)
+	ws := modelInputWarnings(mi, "site", "score", false, nil, nil)
 	if len(ws) != 2 || ws[1].Kind != KindModelReadsGroup || !strings.Contains(ws[1].Message, `reads the group column "site"`) {
 		t.Errorf("warnings %+v", ws)
 	}
-	ws = modelInputWarnings(mi, "site", "score", true, nil)
+	ws = modelInputWarnings(mi, "site", "score", true, nil, nil)
 	if len(ws) != 1 || ws[0].Severity != SeverityNote || !strings.Contains(ws[0].Message, `the mechanism of the score node "score" carries it`) {
 		t.Errorf("score as node: %+v", ws)
 	}
-	if len(modelInputWarnings(nil, "site", "score", false, nil)) != 0 {
+	if len(modelInputWarnings(nil, "site", "score", false, nil, nil)) != 0 {
 		t.Error("warnings without model_inputs")
 	}
 }

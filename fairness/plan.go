@@ -9,6 +9,8 @@ import (
 // anything: it is what `gapwise check` prints.
 type PlanInfo struct {
 	Title       string
+	Model       *ModelInfo // nil unless the spec names the model
+	Names       *Names     // display names (spec key names), nil when none
 	Synthetic   bool
 	Label       string
 	LabelValues *LabelValues // nil unless the spec names the positive value
@@ -50,6 +52,7 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 	learners, _ := candidateLearners(spec.Classifier)
 	info := &PlanInfo{
 		Title:       spec.Title,
+		Model:       spec.Model,
 		Synthetic:   spec.Synthetic,
 		Label:       spec.Label,
 		LabelValues: d.LabelValues,
@@ -67,7 +70,10 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 		info.FoldSplits = attribution.DefaultFoldSplits(sample.Counts())
 	}
 	info.ModelInputs = modelInputs(spec)
-	info.Warnings = append(dataWarnings(info.Groups), modelInputWarnings(info.ModelInputs, spec.Groups.Column, spec.Score, spec.ScoreIsNode(), nil)...)
+	names := resultNames(spec)
+	info.Names = names
+	info.Warnings = append(dataWarnings(info.Groups, names.GroupName(info.Groups.Reference, false), names.GroupName(info.Groups.Comparison, true)),
+		modelInputWarnings(info.ModelInputs, spec.Groups.Column, spec.Score, spec.ScoreIsNode(), nil, names)...)
 	for i, n := range spec.Graph {
 		info.Nodes = append(info.Nodes, PlanNode{
 			Node:      n.Node,

@@ -9,9 +9,20 @@ import "github.com/gapwise/gapwise/attribution"
 type Result struct {
 	Tool ToolInfo `json:"tool"`
 	// Title is the spec's free-text title, shown by the reports.
-	Title  string    `json:"title,omitempty"`
-	Groups GroupInfo `json:"groups"`
-	Label  string    `json:"label"`
+	Title string `json:"title,omitempty"`
+	// Model names the audited model (spec key model); absent when the
+	// spec does not.
+	Model *ModelInfo `json:"model,omitempty"`
+	// AuditDate is the date of the audit, YYYY-MM-DD (spec key audit_date
+	// or the --audit-date flag); absent when not given, so that the same
+	// inputs give the same bytes on any day.
+	AuditDate string    `json:"audit_date,omitempty"`
+	Groups    GroupInfo `json:"groups"`
+	// Names holds the display names of the groups, nodes and columns
+	// (spec key names), keyed by the identifiers the rest of the Result
+	// uses; absent when the spec gives none.
+	Names *Names `json:"names,omitempty"`
+	Label string `json:"label"`
 	// LabelValues, present when the spec names the positive label value,
 	// says which value was counted as the outcome and which as 0.
 	LabelValues *LabelValues `json:"label_values,omitempty"`

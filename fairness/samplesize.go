@@ -43,7 +43,7 @@ func sampleSizeWarnings(r *Result) []Warning {
 	for _, side := range []struct {
 		value      string
 		comparison bool
-	}{{g.Reference, false}, {g.Comparison, true}} {
+	}{{r.ReferenceName(), false}, {r.ComparisonName(), true}} {
 		if w, ok := fewRecords(r.Metrics, side.value, side.comparison); ok {
 			out = append(out, w)
 		}
@@ -51,7 +51,7 @@ func sampleSizeWarnings(r *Result) []Warning {
 	for _, side := range []struct {
 		value string
 		n     int
-	}{{g.Reference, g.NReference}, {g.Comparison, g.NComparison}} {
+	}{{r.ReferenceName(), g.NReference}, {r.ComparisonName(), g.NComparison}} {
 		if w, ok := smallGroup(side.value, side.n, r.Settings.Folds); ok {
 			out = append(out, w)
 		}

@@ -56,6 +56,12 @@ import (
 //	  keep_ratios: false # true: reuse the fitted ratios (fast mode)
 //	synthetic: false     # the data is invented
 //	title: free text
+//	names:               # display names for the reports (NamesSpec); omit for the identifiers
+//	  groups: {reference: men, comparison: women}
+//	  nodes: {hb: {name: haemoglobin, unit: g/dL}}
+//	  columns: {mcv: {name: mean cell volume, unit: fL}}
+//	model: {name: anaemia risk score, version: "2.1"}  # the audited model
+//	audit_date: 2026-12-03  # shown in the reports and the result; omit for none
 type Spec struct {
 	File     string // spec path as given ("" when parsed from bytes without a name)
 	SHA256   string // hex SHA-256 of the spec file's bytes
@@ -108,6 +114,13 @@ type Spec struct {
 	Intervals Intervals
 	Synthetic bool
 	Title     string
+	// Names holds the names key; nil when absent.
+	Names *NamesSpec
+	// Model names the audited model (key model); nil when absent.
+	Model *ModelInfo
+	// AuditDate is the audit_date key (YYYY-MM-DD, CheckAuditDate), ""
+	// when absent; the CLI's --audit-date replaces it.
+	AuditDate string
 
 	lines      map[string]int // line of each top-level key
 	catLines   []int          // line of each categorical entry
@@ -215,6 +228,9 @@ func ParseSpec(file string, src []byte) (*Spec, error) {
 		return nil, err
 	}
 	if err := validateGraph(s); err != nil {
+		return nil, err
+	}
+	if err := validateNames(s); err != nil {
 		return nil, err
 	}
 	return s, nil
@@ -407,6 +423,12 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 			return specErr(p.file, v.Line, k.Value, ErrBadValue, "title must be text")
 		}
 		s.Title = v.Value
+	case "names":
+		err = p.names(s, v)
+	case "model":
+		err = p.model(s, v)
+	case "audit_date":
+		err = p.auditDate(s, v)
 	default:
 		return p.unknownKey(k.Line, k.Value, k.Value, topKeys)
 	}

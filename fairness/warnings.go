@@ -74,8 +74,8 @@ const (
 // since the combination leans on the better one. Each check's kind and
 // severity are listed with the Kind… constants.
 func Warnings(r *Result) []Warning {
-	out := append(dataWarnings(r.Groups), sampleSizeWarnings(r)...)
-	out = append(out, modelInputWarnings(r.ModelInputs, r.Groups.Column, r.Score, scoreIsNode(r), r.Details)...)
+	out := append(dataWarnings(r.Groups, r.ReferenceName(), r.ComparisonName()), sampleSizeWarnings(r)...)
+	out = append(out, modelInputWarnings(r.ModelInputs, r.Groups.Column, r.Score, scoreIsNode(r), r.Details, r.Names)...)
 	down := downstreamOfSeparation(r)
 	for _, m := range r.Mechanisms {
 		if !down[m.Node] {
@@ -85,12 +85,12 @@ func Warnings(r *Result) []Warning {
 	out = append(out, inheritedSeparationWarnings(r, down)...)
 	out = append(out, hybridWarnings(r)...)
 	for _, mr := range r.Metrics {
-		out = append(out, metricWarnings(mr, r.Settings.EstimateFrom)...)
+		out = append(out, metricWarnings(mr, r.Settings.EstimateFrom, r.Names)...)
 	}
 	if w, ok := splitWarning(r, out); ok {
 		out = append(out, w)
 	}
-	out = append(out, outlyingWarnings(r.Details)...)
+	out = append(out, outlyingWarnings(r.Details, r.Names)...)
 	if iv := r.Settings.Intervals; iv != nil && iv.Failed > 0 {
 		out = append(out, Warning{Kind: KindBootstrapFailures, Severity: SeverityNote, Nodes: []string{},
 			Message: fmt.Sprintf("%d of %d bootstrap replicates could not be computed (e.g. a metric without a value in a resample); the intervals rest on the rest", iv.Failed, iv.Replicates)})
@@ -130,10 +130,11 @@ func mechanismWarnings(r *Result, m MechanismResult) []Warning {
 		out = append(out, Warning{Kind: kind, Severity: sev, Nodes: []string{m.Node}, Message: fmt.Sprintf(format, args...)})
 	}
 	side := r.Settings.EstimateFrom
+	node, mech := r.NodeName(m.Node), r.MechanismName(m.Node)
 	if reason := estimability(r, m); reason != "" {
-		out = append(out, notEstimableWarning(m, reason))
+		out = append(out, notEstimableWarning(m, node, reason))
 		if m.ClippedReference+m.ClippedComparison > 0 {
-			add(KindRatiosClipped, SeverityCaution, "the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", m.Node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios)
+			add(KindRatiosClipped, SeverityCaution, "the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios)
 		}
 		return out
 	}
@@ -143,9 +144,9 @@ func mechanismWarnings(r *Result, m MechanismResult) []Warning {
 		learnerFailed = true
 	}
 	if m.AUC >= WarnAUC {
-		add(KindPoorOverlap, SeverityUnreliable, "the groups are nearly separable on `%s` (out-of-fold AUC %.3f): overlap is poor, so its contribution is unreliable", m.Mechanism, m.AUC)
+		add(KindPoorOverlap, SeverityUnreliable, "the groups are nearly separable on `%s` (out-of-fold AUC %.3f): overlap is poor, so its contribution is unreliable", mech, m.AUC)
 	}
-	if msg := extremeWarning(m, side); msg != "" {
+	if msg := extremeWarning(m, side, mech); msg != "" {
 		add(KindExtremeWeights, SeverityCaution, "%s", msg)
 	}
 	if msg, sev := essWarning(r, m); msg != "" {
@@ -155,17 +156,17 @@ func mechanismWarnings(r *Result, m MechanismResult) []Warning {
 		add(KindHeavyTail, sev, "%s", msg)
 	}
 	if m.MaxShare > WarnMaxShare {
-		add(KindDominantRecord, SeverityCaution, "a single record carries %.1f%% of the weight for `%s`; its contribution hinges on a few records", 100*m.MaxShare, m.Node)
+		add(KindDominantRecord, SeverityCaution, "a single record carries %.1f%% of the weight for `%s`; its contribution hinges on a few records", 100*m.MaxShare, node)
 	}
 	meanOff := m.MeanRatio < WarnMeanRatioLow || m.MeanRatio > WarnMeanRatioHigh
 	if meanOff && !learnerFailed {
-		add(KindMeanRatioOff, SeverityCaution, "the density ratios of `%s` average %.3f over the reference records instead of 1; its classifiers may be miscalibrated", m.Mechanism, m.MeanRatio)
+		add(KindMeanRatioOff, SeverityCaution, "the density ratios of `%s` average %.3f over the reference records instead of 1; its classifiers may be miscalibrated", mech, m.MeanRatio)
 	}
 	if !meanOff && !learnerFailed && (m.WorstStratumMean < WarnStratumLow || m.WorstStratumMean > WarnStratumHigh) {
-		add(KindStratumRatioOff, SeverityCaution, "the density ratios of `%s` average %.3f in one fifth of the reference records (grouped by its parents) instead of 1; its classifiers may misjudge how the parents differ", m.Mechanism, m.WorstStratumMean)
+		add(KindStratumRatioOff, SeverityCaution, "the density ratios of `%s` average %.3f in one fifth of the reference records (grouped by its parents) instead of 1; its classifiers may misjudge how the parents differ", mech, m.WorstStratumMean)
 	}
 	if m.ClippedReference+m.ClippedComparison > 0 {
-		add(KindRatiosClipped, SeverityCaution, "the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", m.Node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios)
+		add(KindRatiosClipped, SeverityCaution, "the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios)
 	}
 	return out
 }
@@ -178,18 +179,18 @@ func essWarning(r *Result, m MechanismResult) (string, Severity) {
 	nRef, nCmp := r.Groups.NReference, r.Groups.NComparison
 	refLow, cmpLow := lowESS(m.ESS, nRef), lowESS(m.ComparisonESS, nCmp)
 	ref, cmp := thousands(int(math.Round(m.ESS))), thousands(int(math.Round(m.ComparisonESS)))
-	side := r.Settings.EstimateFrom
+	side, node := r.Settings.EstimateFrom, r.NodeName(m.Node)
 	switch {
 	case side == "comparison" && cmpLow:
-		return fmt.Sprintf("the contribution of `%s` rests on %s effective comparison records out of %s; treat it as unreliable", m.Node, cmp, thousands(nCmp)), SeverityUnreliable
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective comparison records out of %s; treat it as unreliable", node, cmp, thousands(nCmp)), SeverityUnreliable
 	case side == "both" && refLow && cmpLow:
-		return fmt.Sprintf("the contribution of `%s` rests on %s effective reference records out of %s and %s comparison records out of %s; treat it as unreliable", m.Node, ref, thousands(nRef), cmp, thousands(nCmp)), SeverityUnreliable
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective reference records out of %s and %s comparison records out of %s; treat it as unreliable", node, ref, thousands(nRef), cmp, thousands(nCmp)), SeverityUnreliable
 	case side == "both" && refLow:
-		return fmt.Sprintf("the reference records give `%s` only %s effective records out of %s; the two-sided estimate leans on the comparison records (%s effective out of %s)", m.Node, ref, thousands(nRef), cmp, thousands(nCmp)), SeverityNote
+		return fmt.Sprintf("the reference records give `%s` only %s effective records out of %s; the two-sided estimate leans on the comparison records (%s effective out of %s)", node, ref, thousands(nRef), cmp, thousands(nCmp)), SeverityNote
 	case side == "both" && cmpLow:
-		return fmt.Sprintf("the comparison records give `%s` only %s effective records out of %s; the two-sided estimate leans on the reference records (%s effective out of %s)", m.Node, cmp, thousands(nCmp), ref, thousands(nRef)), SeverityNote
+		return fmt.Sprintf("the comparison records give `%s` only %s effective records out of %s; the two-sided estimate leans on the reference records (%s effective out of %s)", node, cmp, thousands(nCmp), ref, thousands(nRef)), SeverityNote
 	case side != "comparison" && side != "both" && refLow:
-		return fmt.Sprintf("the contribution of `%s` rests on %s effective records out of %s; treat it as unreliable", m.Node, ref, thousands(nRef)), SeverityUnreliable
+		return fmt.Sprintf("the contribution of `%s` rests on %s effective records out of %s; treat it as unreliable", node, ref, thousands(nRef)), SeverityUnreliable
 	}
 	return "", ""
 }
@@ -206,7 +207,7 @@ func hybridWarnings(r *Result) []Warning {
 	for _, w := range r.Weights {
 		if lowESS(w.Worst.ESS, w.Records) {
 			out = append(out, Warning{Kind: KindWorstHybrid, Severity: SeverityUnreliable, Nodes: append([]string{}, w.Worst.ComparisonNodes...),
-				Message: fmt.Sprintf("on the %s records, the hybrid with the comparison group's mechanisms for %s rests on %s effective records out of %s; contributions that use it are unreliable", w.Side, nodeList(w.Worst.ComparisonNodes), thousands(int(math.Round(w.Worst.ESS))), thousands(w.Records))})
+				Message: fmt.Sprintf("on the %s records, the hybrid with the comparison group's mechanisms for %s rests on %s effective records out of %s; contributions that use it are unreliable", w.Side, nodeList(r.Names, w.Worst.ComparisonNodes), thousands(int(math.Round(w.Worst.ESS))), thousands(w.Records))})
 		}
 	}
 	return out
@@ -215,8 +216,8 @@ func hybridWarnings(r *Result) []Warning {
 // metricWarnings runs the checks of one metric: fewer than WarnESSMin
 // effective records behind its far end, and a residual above both
 // WarnResidualShare·|gap| and WarnResidualMin. Each warning names the
-// metric.
-func metricWarnings(mr MetricResult, side string) []Warning {
+// metric; names gives the nodes' display names.
+func metricWarnings(mr MetricResult, side string, names *Names) []Warning {
 	var out []Warning
 	add := func(kind WarningKind, sev Severity, msg string) {
 		out = append(out, Warning{Kind: kind, Severity: sev, Metric: mr.Metric, Nodes: []string{}, Message: msg})
@@ -234,7 +235,7 @@ func metricWarnings(mr MetricResult, side string) []Warning {
 	if msg := residualWarning(mr); msg != "" {
 		add(KindLargeResidual, SeverityCaution, msg)
 	}
-	if w, ok := sidesWarning(mr); ok {
+	if w, ok := sidesWarning(mr, names); ok {
 		out = append(out, w)
 	}
 	return out
@@ -244,8 +245,9 @@ func metricWarnings(mr MetricResult, side string) []Warning {
 // estimates of a metric differ by more than WarnSidesZ standard errors at
 // an end of the gap or in a contribution (SideAgreement.MaxZ); above
 // WarnSidesZUnreliable it is SeverityUnreliable. Nodes are the mechanisms
-// whose contributions differ by more than WarnSidesZ.
-func sidesWarning(mr MetricResult) (Warning, bool) {
+// whose contributions differ by more than WarnSidesZ, named in the
+// sentence by their display names.
+func sidesWarning(mr MetricResult, names *Names) (Warning, bool) {
 	a := mr.SideAgreement
 	if a == nil || a.MaxZ == nil || *a.MaxZ <= WarnSidesZ {
 		return Warning{}, false
@@ -262,7 +264,7 @@ func sidesWarning(mr MetricResult) (Warning, bool) {
 	}
 	where := ""
 	if len(nodes) > 0 {
-		where = fmt.Sprintf("; the contributions of %s differ most", nodeList(nodes))
+		where = fmt.Sprintf("; the contributions of %s differ most", nodeList(names, nodes))
 	}
 	msg := fmt.Sprintf("for %s the estimates from the reweighted reference records and from the reweighted comparison records disagree by up to %.1f standard errors (comparison end %s, reference end %s%s): the density ratios are likely wrong, or something that differs between the groups is missing from the graph; the contributions are in doubt even though the residual is %.4f",
 		mr.Metric, *a.MaxZ, plusMinus(a.ComparisonEnd), plusMinus(a.ReferenceEnd), where, mr.Residual)
@@ -323,10 +325,10 @@ func splitWarning(r *Result, prior []Warning) (Warning, bool) {
 	}
 	parts := make([]string, len(order))
 	for i, n := range order {
-		parts[i] = fmt.Sprintf("`%s` (%s)", n, strings.Join(metricsOf[n], ", "))
+		parts[i] = fmt.Sprintf("`%s` (%s)", r.NodeName(n), strings.Join(metricsOf[n], ", "))
 	}
 	msg := fmt.Sprintf("the contributions of %s depend on the fold split: averaged over %d splits they still move with the seed by more than %.0f%% of their interval's half-width (without intervals, of their value); the largest, `%s` for %s, has standard deviation %.4f between the splits and moves by about %.4f with the seed, against %s; raise fold_splits (this noise falls as 1/√fold_splits)",
-		strings.Join(parts, ", "), r.Settings.FoldSplits, 100*WarnSplitShare, worst.c.Mechanism, worst.metric, *worst.c.SplitSD, worst.se, worst.against)
+		strings.Join(parts, ", "), r.Settings.FoldSplits, 100*WarnSplitShare, r.MechanismName(worst.c.Node), worst.metric, *worst.c.SplitSD, worst.se, worst.against)
 	return Warning{Kind: KindSplitDependent, Severity: SeverityCaution, Nodes: order, Message: msg}, true
 }
 
@@ -359,22 +361,24 @@ func splitNoise(c Contribution, R int) (splitCase, bool) {
 	return sc, sc.ratio > 1 && sc.se > WarnSplitMin
 }
 
-// nodeList renders nodes as "`a`, `b`", or "no node" for none.
-func nodeList(nodes []string) string {
+// nodeList renders nodes by their display names as "`a`, `b`", or "no
+// node" for none.
+func nodeList(names *Names, nodes []string) string {
 	if len(nodes) == 0 {
 		return "no node"
 	}
 	q := make([]string, len(nodes))
 	for i, n := range nodes {
-		q[i] = "`" + n + "`"
+		q[i] = "`" + names.NodeName(n) + "`"
 	}
 	return strings.Join(q, ", ")
 }
 
 // dataWarnings reports, about the rows of the data file, those dropped for
-// missing values and the excluded group values that resemble a chosen one.
-func dataWarnings(g GroupInfo) []Warning {
-	return append(droppedWarnings(g), excludedWarnings(g)...)
+// missing values and the excluded group values that resemble a chosen one;
+// ref and cmp are the groups' display names.
+func dataWarnings(g GroupInfo, ref, cmp string) []Warning {
+	return append(droppedWarnings(g, ref, cmp), excludedWarnings(g)...)
 }
 
 // droppedWarnings reports rows dropped for missing values; never nil. It
@@ -382,16 +386,16 @@ func dataWarnings(g GroupInfo) []Warning {
 // least WarnDroppedGap and by more than sampling explains (two-proportion
 // |z| ≥ WarnDroppedZ, missingShares): dropping then changes the two
 // groups' case mix unequally, so the audit answers a different question
-// (compare each metric's all_records gap).
-func droppedWarnings(g GroupInfo) []Warning {
+// (compare each metric's all_records gap). ref and cmp name the groups.
+func droppedWarnings(g GroupInfo, ref, cmp string) []Warning {
 	if g.DroppedReference == 0 && g.DroppedComparison == 0 {
 		return []Warning{}
 	}
-	ref, cmp, z := missingShares(g)
+	refShare, cmpShare, z := missingShares(g)
 	w := Warning{Kind: KindRowsDropped, Severity: SeverityNote, Nodes: []string{},
 		Message: fmt.Sprintf("%s rows of group %q (%s) and %s rows of group %q (%s) were dropped for missing values; the audit describes the remaining records only",
-			thousands(g.DroppedReference), g.Reference, share(ref), thousands(g.DroppedComparison), g.Comparison, share(cmp))}
-	if math.Abs(cmp-ref) >= WarnDroppedGap && math.Abs(z) >= WarnDroppedZ {
+			thousands(g.DroppedReference), ref, share(refShare), thousands(g.DroppedComparison), cmp, share(cmpShare))}
+	if math.Abs(cmpShare-refShare) >= WarnDroppedGap && math.Abs(z) >= WarnDroppedZ {
 		w.Severity = SeverityCaution
 		w.Message += fmt.Sprintf(". The shares differ by more than chance explains (z = %.1f): dropping changes the groups unequally; compare the gap on all records with label and score (all_records), or use missing: indicator", z)
 	}
@@ -451,7 +455,7 @@ func tailWarning(r *Result, m MechanismResult) (string, Severity) {
 			heavySide, other, shape = "comparison", "reference", m.ComparisonTailShape
 		}
 		kh := *shape
-		return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %s > %.1f); the two-sided estimate leans on the %s records, whose weights for it are lighter-tailed", m.Mechanism, heavySide, shapeText(kh, attribution.TailInfiniteVariance), attribution.TailInfiniteVariance, other), SeverityNote
+		return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %s > %.1f); the two-sided estimate leans on the %s records, whose weights for it are lighter-tailed", r.MechanismName(m.Node), heavySide, shapeText(kh, attribution.TailInfiniteVariance), attribution.TailInfiniteVariance, other), SeverityNote
 	case side != "comparison" && side != "both" && ref:
 		k, where = *m.TailShape, "reference"
 	default:
@@ -461,7 +465,7 @@ func tailWarning(r *Result, m MechanismResult) (string, Severity) {
 	if k > attribution.TailUnreliable {
 		verdict, sev = "the estimate is unreliable at this sample size", SeverityUnreliable
 	}
-	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %s > %.1f): %s; %s", m.Mechanism, where, shapeText(k, attribution.TailInfiniteVariance), attribution.TailInfiniteVariance, verdict, tailAdvice(r)), sev
+	return fmt.Sprintf("the weights for `%s` on the %s records have a heavy tail (Pareto shape %s > %.1f): %s; %s", r.MechanismName(m.Node), where, shapeText(k, attribution.TailInfiniteVariance), attribution.TailInfiniteVariance, verdict, tailAdvice(r)), sev
 }
 
 // tailAdvice names what could lighten a heavy tail, among the settings not
@@ -479,23 +483,25 @@ func tailAdvice(r *Result) string {
 // extremeWarning speaks up when more than WarnExtremeShare of the records
 // that estimate the hybrids carry a weight above 20 for a mechanism; with
 // both sides, only when both do (the combination leans on the better one).
-func extremeWarning(m MechanismResult, side string) string {
+// mech is the mechanism as the sentence names it.
+func extremeWarning(m MechanismResult, side, mech string) string {
 	ref := m.ExtremeShare > WarnExtremeShare
 	cmp := m.ComparisonExtremeShare != nil && *m.ComparisonExtremeShare > WarnExtremeShare
 	switch {
 	case side == "comparison" && cmp:
-		return fmt.Sprintf("%.1f%% of comparison records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100**m.ComparisonExtremeShare, m.Mechanism)
+		return fmt.Sprintf("%.1f%% of comparison records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100**m.ComparisonExtremeShare, mech)
 	case side == "both" && ref && cmp:
-		return fmt.Sprintf("%.1f%% of reference and %.1f%% of comparison records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100*m.ExtremeShare, 100**m.ComparisonExtremeShare, m.Mechanism)
+		return fmt.Sprintf("%.1f%% of reference and %.1f%% of comparison records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100*m.ExtremeShare, 100**m.ComparisonExtremeShare, mech)
 	case side != "comparison" && side != "both" && ref:
-		return fmt.Sprintf("%.1f%% of reference records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100*m.ExtremeShare, m.Mechanism)
+		return fmt.Sprintf("%.1f%% of reference records carry a weight above 20 for `%s`: the groups barely overlap there, and a few records dominate", 100*m.ExtremeShare, mech)
 	}
 	return ""
 }
 
 // outlyingWarnings names each numeric column with values outside its
-// typical range (ColumnDetails.Outlying).
-func outlyingWarnings(d *Details) []Warning {
+// typical range (ColumnDetails.Outlying), by its display name and then
+// its identifier (columnWords).
+func outlyingWarnings(d *Details, names *Names) []Warning {
 	if d == nil {
 		return nil
 	}
@@ -509,7 +515,7 @@ func outlyingWarnings(d *Details) []Warning {
 			values = "value"
 		}
 		out = append(out, Warning{Kind: KindOutlyingValues, Severity: SeverityNote, Nodes: []string{},
-			Message: fmt.Sprintf("column %q has %s %s far outside the bulk of its values (the farthest is %g); the classifiers treat such values as the edge of the typical range; check them for entry errors", c.Name, thousands(c.Outlying), values, *c.Farthest)})
+			Message: fmt.Sprintf("column %s has %s %s far outside the bulk of its values (the farthest is %g); the classifiers treat such values as the edge of the typical range; check them for entry errors", columnWords(names, c.Name), thousands(c.Outlying), values, *c.Farthest)})
 	}
 	return out
 }

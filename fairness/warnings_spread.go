@@ -105,17 +105,17 @@ func inheritedSeparationWarnings(r *Result, down map[string]bool) []Warning {
 			continue
 		}
 		nodes = append(nodes, m.Node)
-		mechs = append(mechs, "`"+m.Mechanism+"`")
+		mechs = append(mechs, "`"+r.MechanismName(m.Node)+"`")
 		lo, hi = math.Min(lo, m.AUC), math.Max(hi, m.AUC)
 		for _, p := range m.Parents {
 			if !down[p] && !seen[p] && isSeparating(r, p) {
 				seen[p] = true
-				sources = append(sources, "`"+p+"`")
+				sources = append(sources, "`"+r.NodeName(p)+"`")
 			}
 		}
 		if m.ClippedReference+m.ClippedComparison > 0 {
 			out = append(out, Warning{Kind: KindRatiosClipped, Severity: SeverityCaution, Nodes: []string{m.Node},
-				Message: fmt.Sprintf("the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", m.Node, thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios)})
+				Message: fmt.Sprintf("the ratios of `%s` were clipped for %s reference and %s comparison records (clip_ratios %g); its contribution is pulled towards zero", r.NodeName(m.Node), thousands(m.ClippedReference), thousands(m.ClippedComparison), r.Settings.ClipRatios)})
 		}
 	}
 	if len(nodes) == 0 {
@@ -160,7 +160,7 @@ func bothHybridsWarning(r *Result) []Warning {
 		if w.Worst.ESS >= WarnESSMin {
 			return nil
 		}
-		parts = append(parts, fmt.Sprintf("%s effective %s records out of %s (the hybrid with the comparison group's mechanisms for %s)", thousands(int(math.Round(w.Worst.ESS))), w.Side, thousands(w.Records), nodeList(w.Worst.ComparisonNodes)))
+		parts = append(parts, fmt.Sprintf("%s effective %s records out of %s (the hybrid with the comparison group's mechanisms for %s)", thousands(int(math.Round(w.Worst.ESS))), w.Side, thousands(w.Records), nodeList(r.Names, w.Worst.ComparisonNodes)))
 		for _, n := range w.Worst.ComparisonNodes {
 			if !slices.Contains(nodes, n) {
 				nodes = append(nodes, n)

@@ -19,9 +19,10 @@ func visibleCopy(res *fairness.Result) (*fairness.Result, error) {
 }
 
 // printableClone returns a deep copy of v with Printable applied to every
-// string: pointers, slices, arrays and structs are copied, other values
-// (numbers, booleans) taken as they are. A Result holds no maps,
-// interfaces, channels or functions.
+// string, map keys included (the display names are keyed by identifiers,
+// which go through Printable wherever else they appear): pointers, maps,
+// slices, arrays and structs are copied, other values (numbers, booleans)
+// taken as they are. A Result holds no interfaces, channels or functions.
 func printableClone(v reflect.Value) reflect.Value {
 	switch v.Kind() {
 	case reflect.String:
@@ -58,7 +59,17 @@ func printableClone(v reflect.Value) reflect.Value {
 			}
 		}
 		return out
-	case reflect.Map, reflect.Interface, reflect.Chan, reflect.Func:
+	case reflect.Map:
+		if v.IsNil() {
+			return reflect.Zero(v.Type())
+		}
+		out := reflect.MakeMapWithSize(v.Type(), v.Len())
+		iter := v.MapRange()
+		for iter.Next() {
+			out.SetMapIndex(printableClone(iter.Key()), printableClone(iter.Value()))
+		}
+		return out
+	case reflect.Interface, reflect.Chan, reflect.Func:
 		panic("report: printableClone: unexpected " + v.Kind().String() + " in a Result")
 	}
 	return v

@@ -32,6 +32,7 @@ type decomposeOptions struct {
 	format  string
 	workers int
 	force   bool
+	date    string // --audit-date
 
 	intervals  intervalOptions
 	coalitions coalitionOptions
@@ -59,7 +60,11 @@ flags override the spec's intervals key.
 
 The report's what-if panel reads the values of all coalitions of the
 mechanisms, kept for up to --coalition-limit mechanisms (default 12, at most
-16); --coalitions also writes them into the JSON output.`,
+16); --coalitions also writes them into the JSON output.
+
+--audit-date YYYY-MM-DD (or today) dates the audit in the outputs, in place
+of the spec's audit_date key; without either the outputs hold no date, so
+the same inputs give the same bytes on any day.`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if err := specFromArgs(cmd, args, &o.spec); err != nil {
@@ -77,6 +82,7 @@ mechanisms, kept for up to --coalition-limit mechanisms (default 12, at most
 	f.BoolVar(&o.force, "force", false, "write into a non-empty --out folder, replacing result.json and report.html")
 	bindIntervalFlags(cmd, &o.intervals, 0, false)
 	bindCoalitionFlags(cmd, &o.coalitions)
+	bindAuditDateFlag(cmd, &o.date)
 	return cmd
 }
 
@@ -95,6 +101,10 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err := o.coalitions.check(); err != nil {
 		return err
 	}
+	date, err := auditDate(o.date)
+	if err != nil {
+		return err
+	}
 	out := outDir{path: o.out, force: o.force, inputs: []string{o.spec}}
 	if o.out != "" {
 		if err := out.check(resultFile, reportFile); err != nil {
@@ -104,6 +114,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	spec, err := fairness.LoadSpec(o.spec)
 	if err != nil {
 		return err
+	}
+	if date != "" {
+		spec.AuditDate = date
 	}
 	out.inputs = []string{o.spec, spec.DataPath}
 	if o.out != "" {

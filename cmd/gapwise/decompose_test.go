@@ -71,6 +71,9 @@ func TestDecomposeDeterministic(t *testing.T) {
 		t.Fatalf("JSON output does not parse: %v", err)
 	}
 	checkSums(t, &res)
+	if strings.Contains(one, `"audit_date"`) {
+		t.Error("JSON of a spec without audit_date, run without --audit-date, holds a date")
+	}
 	if strings.Contains(one, `"coalitions`) {
 		t.Error("JSON without --coalitions holds coalitions")
 	}

@@ -32,6 +32,7 @@ type demoOptions struct {
 	seed    uint64
 	workers int
 	force   bool
+	date    string // --audit-date
 
 	intervals intervalOptions
 }
@@ -63,6 +64,7 @@ By default the audit adds 95% intervals from 100 fast bootstrap replicates
 	f.IntVar(&o.workers, "workers", 0, "`N` goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty folder, replacing the demo's files")
 	bindIntervalFlags(cmd, &o.intervals, demoIntervals, true)
+	bindAuditDateFlag(cmd, &o.date)
 	return cmd
 }
 
@@ -87,6 +89,10 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err := o.intervals.check(); err != nil {
 		return err
 	}
+	date, err := auditDate(o.date)
+	if err != nil {
+		return err
+	}
 	if err := (outDir{path: o.out, force: o.force}).check(demoData, demoSpec, resultFile, reportFile); err != nil {
 		return err
 	}
@@ -109,6 +115,9 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	spec, err := fairness.LoadSpec(specPath)
 	if err != nil {
 		return err
+	}
+	if date != "" {
+		spec.AuditDate = date
 	}
 	res, err := audit(spec, o.workers, o.intervals, 0, line)
 	if err != nil {
