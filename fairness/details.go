@@ -2,6 +2,8 @@ package fairness
 
 import (
 	"math"
+	"slices"
+	"strconv"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -56,7 +58,13 @@ type ReliabilityBin struct {
 // pooled minimum and maximum (the last bin is closed, like the others
 // half-open [e_j, e_{j+1})), and Reference/Comparison hold each group's
 // share of records per bin. For a categorical column, Levels name the
-// levels and Reference/Comparison hold each group's share per level.
+// levels and Reference/Comparison hold each group's share per level. A
+// numeric column that takes at most two distinct values over both groups
+// (a 0/1 indicator, the label) is Binary: it is described like a
+// categorical one, its Levels being the values in ascending order
+// (strconv 'g' form: "0", "1"), and keeps its numeric means, SDs and
+// standardised difference. Columns described by levels carry each group's
+// record count per level too (CountsReference, CountsComparison).
 //
 // StdDiff is the standardised difference, nil when it is undefined (both
 // groups constant at different values). Numeric:
@@ -87,17 +95,24 @@ type ColumnDetails struct {
 	// MissingReference and MissingComparison count each group's missing
 	// values, left out of the shares and means: those of a column outside
 	// the graph, or filled ones (missing: indicator).
-	MissingReference  int       `json:"missing_reference,omitempty"`
-	MissingComparison int       `json:"missing_comparison,omitempty"`
-	Edges             []float64 `json:"edges,omitempty"`
-	Levels            []string  `json:"levels,omitempty"`
-	Reference         []float64 `json:"reference"`
-	Comparison        []float64 `json:"comparison"`
-	MeanRef           float64   `json:"mean_reference,omitempty"`  // numeric only
-	MeanCmp           float64   `json:"mean_comparison,omitempty"` // numeric only
-	SDRef             float64   `json:"sd_reference,omitempty"`    // numeric only
-	SDCmp             float64   `json:"sd_comparison,omitempty"`   // numeric only
-	StdDiff           *float64  `json:"std_diff,omitempty"`
+	MissingReference  int `json:"missing_reference,omitempty"`
+	MissingComparison int `json:"missing_comparison,omitempty"`
+	// Binary marks a numeric column with at most two distinct values,
+	// described by its values as levels.
+	Binary     bool      `json:"binary,omitempty"`
+	Edges      []float64 `json:"edges,omitempty"`
+	Levels     []string  `json:"levels,omitempty"`
+	Reference  []float64 `json:"reference"`
+	Comparison []float64 `json:"comparison"`
+	// CountsReference and CountsComparison are each group's records per
+	// level, for columns described by levels (categorical or Binary).
+	CountsReference  []int    `json:"counts_reference,omitempty"`
+	CountsComparison []int    `json:"counts_comparison,omitempty"`
+	MeanRef          float64  `json:"mean_reference,omitempty"`  // numeric and binary only
+	MeanCmp          float64  `json:"mean_comparison,omitempty"` // numeric and binary only
+	SDRef            float64  `json:"sd_reference,omitempty"`    // numeric and binary only
+	SDCmp            float64  `json:"sd_comparison,omitempty"`   // numeric and binary only
+	StdDiff          *float64 `json:"std_diff,omitempty"`
 	// Outlying counts the values of a numeric column, over both groups,
 	// outside its typical range (classify.TypicalRange of the pooled
 	// values), which the logistic learners treat as the range's nearer
@@ -111,7 +126,8 @@ type ColumnDetails struct {
 // threshold and the reliability curve over bins equal-width score bins
 // (metrics.ConfusionAt and metrics.ReliabilityCurve without weights), and
 // per column of ds the two groups' histograms over bins bins (numeric) or
-// level shares (categorical) with the standardised difference. It panics
+// level shares and counts (categorical, and numeric columns of at most two
+// values) with the standardised difference. It panics
 // if bins < 1 or if the Dataset's slices differ in length (programmer
 // errors; the loader guarantees consistent data). A group without records
 // gets empty curves and shares and a nil StdDiff.
@@ -164,6 +180,8 @@ func describeColumn(ds *Dataset, c Column, bins int) ColumnDetails {
 	var cd ColumnDetails
 	if c.Categorical {
 		cd = describeCategorical(c.Name, c.Levels, ref, cmp)
+	} else if values, ok := twoValues(ref, cmp); ok {
+		cd = describeBinary(c.Name, values, ref, cmp, bins)
 	} else {
 		cd = describeNumeric(c.Name, ref, cmp, bins)
 	}
@@ -352,8 +370,8 @@ func meanVar(xs []float64) (mean, variance float64) {
 // indices into levels.
 func describeCategorical(name string, levels []string, ref, cmp []float64) ColumnDetails {
 	c := ColumnDetails{Name: name, Categorical: true, Levels: levels}
-	c.Reference = levelShares(ref, len(levels))
-	c.Comparison = levelShares(cmp, len(levels))
+	c.Reference, c.CountsReference = levelShares(ref, len(levels))
+	c.Comparison, c.CountsComparison = levelShares(cmp, len(levels))
 	if len(ref) == 0 || len(cmp) == 0 {
 		return c
 	}
@@ -388,19 +406,59 @@ func describeCategorical(name string, levels []string, ref, cmp []float64) Colum
 	return c
 }
 
-// levelShares returns the share of each level index among xs.
-func levelShares(xs []float64, levels int) []float64 {
-	out := make([]float64, levels)
-	if len(xs) == 0 {
-		return out
-	}
+// levelShares returns the share and the count of each level index among
+// xs.
+func levelShares(xs []float64, levels int) ([]float64, []int) {
+	out, counts := make([]float64, levels), make([]int, levels)
 	for _, v := range xs {
-		out[int(v)]++
+		counts[int(v)]++
+	}
+	if len(xs) == 0 {
+		return out, counts
 	}
 	for j := range out {
-		out[j] /= float64(len(xs))
+		out[j] = float64(counts[j]) / float64(len(xs))
 	}
-	return out
+	return out, counts
+}
+
+// twoValues returns the distinct values of ref and cmp in ascending order
+// when there are one or two; ok is false for none or more than two.
+func twoValues(ref, cmp []float64) (values []float64, ok bool) {
+	for _, xs := range [][]float64{ref, cmp} {
+		for _, v := range xs {
+			if !slices.Contains(values, v) {
+				if len(values) == 2 {
+					return nil, false
+				}
+				values = append(values, v)
+			}
+		}
+	}
+	slices.Sort(values)
+	return values, len(values) > 0
+}
+
+// describeBinary describes a numeric column whose only values are values
+// (one or two, ascending): its numeric summaries (describeNumeric), with
+// the histogram replaced by each value's share and count per group.
+func describeBinary(name string, values, ref, cmp []float64, bins int) ColumnDetails {
+	c := describeNumeric(name, ref, cmp, bins)
+	c.Binary, c.Edges = true, nil
+	c.Levels = make([]string, len(values))
+	for j, v := range values {
+		c.Levels[j] = strconv.FormatFloat(v, 'g', -1, 64)
+	}
+	index := func(xs []float64) []float64 {
+		out := make([]float64, len(xs))
+		for i, v := range xs {
+			out[i] = float64(slices.Index(values, v))
+		}
+		return out
+	}
+	c.Reference, c.CountsReference = levelShares(index(ref), len(values))
+	c.Comparison, c.CountsComparison = levelShares(index(cmp), len(values))
+	return c
 }
 
 func ptrTo(v float64) *float64 { return &v }

@@ -165,7 +165,9 @@ func TestDescribeEdgeCases(t *testing.T) {
 		want       *float64 // nil: undefined
 		wantRef    []float64
 	}{
-		{"constant equal", Column{Name: "x", Values: []float64{2, 2, 2, 2}}, []bool{false, false, true, true}, ptrTo(0), []float64{1, 0}},
+		// One value, then two: described per value (binary), shares of the
+		// levels ["2"] and ["1", "3"].
+		{"constant equal", Column{Name: "x", Values: []float64{2, 2, 2, 2}}, []bool{false, false, true, true}, ptrTo(0), []float64{1}},
 		{"constant different", Column{Name: "x", Values: []float64{1, 1, 3, 3}}, []bool{false, false, true, true}, nil, []float64{1, 0}},
 		// means 1.5 and 3.5, variances 0.5 and 0.5: d = 2/sqrt(0.5) = 2√2.
 		{"hand numeric", Column{Name: "x", Values: []float64{1, 2, 3, 4}}, []bool{false, false, true, true}, ptrTo(2 * math.Sqrt2), []float64{1, 0}},

@@ -63,7 +63,7 @@ func columnChart(res *fairness.Result, c fairness.ColumnDetails) chartOption {
 			SplitLine: &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: colourRule, Type: "dashed"}}}),
 		charts.WithXAxisOpts(opts.XAxis{Type: "category", AxisLabel: &opts.AxisLabel{Interval: "0", Rotate: rotateFor(len(c.Reference))}}),
 	)
-	bar.SetXAxis(binLabels(c))
+	bar.SetXAxis(binLabels(res, c))
 	shares := func(xs []float64) []opts.BarData {
 		var out []opts.BarData
 		for _, v := range xs {
@@ -99,14 +99,36 @@ func rotateFor(n int) float64 {
 }
 
 // binLabels names a column's histogram bins "lo–hi" with the edges printed
-// to three significant digits, or returns its levels.
-func binLabels(c fairness.ColumnDetails) []string {
-	if c.Categorical {
-		return c.Levels
+// to three significant digits, or returns its levels (levelLabels).
+func binLabels(res *fairness.Result, c fairness.ColumnDetails) []string {
+	if c.Levels != nil {
+		return levelLabels(res, c)
 	}
 	var out []string
 	for j := 0; j+1 < len(c.Edges); j++ {
 		out = append(out, formatEdge(c.Edges[j])+"–"+formatEdge(c.Edges[j+1]))
+	}
+	return out
+}
+
+// levelLabels names the levels of a column described by levels: as they
+// are, except the label's 0 and 1 when the spec named the label's words
+// (fairness.LabelValues), which then name them.
+func levelLabels(res *fairness.Result, c fairness.ColumnDetails) []string {
+	lv := res.LabelValues
+	if c.Name != res.Label || lv == nil || !c.Binary {
+		return c.Levels
+	}
+	out := make([]string, len(c.Levels))
+	for j, l := range c.Levels {
+		switch {
+		case l == "1":
+			out[j] = lv.Positive
+		case l == "0" && lv.Negative != "":
+			out[j] = lv.Negative
+		default:
+			out[j] = l
+		}
 	}
 	return out
 }

@@ -175,15 +175,18 @@ type reliabilityRow struct {
 
 type columnView struct {
 	Name, Node, Mechanism string
-	Kind                  string // "numeric" or "categorical"
+	Kind                  string // "numeric", "categorical" or "numeric, two values" (binary)
 	OutsideGraph          bool   // a declared model input in no graph node
 	StdDiff               string
 	Imbalanced            bool
+	Levels                bool // described by levels, with counts, rather than bins
 	Bins                  []binRow
 	Summary               string
 }
 
-type binRow struct{ Bin, Reference, Comparison string }
+// binRow is one bin or level of a column card's table: each group's share
+// and, for levels, its records.
+type binRow struct{ Bin, Reference, Comparison, ReferenceCount, ComparisonCount string }
 
 // chartData is everything the page script draws, keyed for lookup.
 type chartData struct {
@@ -447,18 +450,28 @@ func column(res *fairness.Result, c fairness.ColumnDetails, node string) columnV
 			v.Mechanism = m.Mechanism
 		}
 	}
-	if c.Categorical {
+	switch {
+	case c.Categorical:
 		v.Kind = "categorical"
+	case c.Binary && len(c.Levels) == 1:
+		v.Kind = "numeric, one value"
+	case c.Binary:
+		v.Kind = "numeric, two values"
 	}
+	v.Levels = c.Levels != nil
 	if c.StdDiff != nil {
 		v.StdDiff = trimNegZero(fmt.Sprintf("%.2f", *c.StdDiff))
 		v.Imbalanced = math.Abs(*c.StdDiff) > stdDiffFlag
 	}
-	labels := binLabels(c)
+	labels := binLabels(res, c)
 	for j := range c.Reference {
-		v.Bins = append(v.Bins, binRow{Bin: labels[j], Reference: fmt.Sprintf("%.1f%%", 100*c.Reference[j]), Comparison: fmt.Sprintf("%.1f%%", 100*c.Comparison[j])})
+		row := binRow{Bin: labels[j], Reference: fmt.Sprintf("%.1f%%", 100*c.Reference[j]), Comparison: fmt.Sprintf("%.1f%%", 100*c.Comparison[j])}
+		if j < len(c.CountsReference) && j < len(c.CountsComparison) {
+			row.ReferenceCount, row.ComparisonCount = formatCount(float64(c.CountsReference[j])), formatCount(float64(c.CountsComparison[j]))
+		}
+		v.Bins = append(v.Bins, row)
 	}
-	if !c.Categorical {
+	if !c.Categorical && !c.Binary {
 		v.Summary = fmt.Sprintf("mean %s (SD %s) for %s, %s (SD %s) for %s", formatEdge(c.MeanRef), formatEdge(c.SDRef), res.Groups.Reference,
 			formatEdge(c.MeanCmp), formatEdge(c.SDCmp), res.Groups.Comparison)
 	}
