@@ -77,8 +77,12 @@ type groupFit struct {
 	// the chosen learner, except that a Boosted learner with early
 	// stopping becomes one with a fixed number of rounds (the rounded mean
 	// over the folds of the rounds early stopping kept), no validation
-	// split, and its Start only if most folds kept theirs.
+	// split, and its Start only if most folds kept theirs; and that a
+	// classify.WarmStarter starts from the chosen learner's fold-0 model.
 	refit classify.Learner
+	// warm[l] is learner l's model of fold 0, kept (for the point
+	// estimate only) as the warm start of the replicates' refits.
+	warm []classify.Model
 }
 
 // EstimateRatios estimates, for every mechanism i, the log density ratio
@@ -323,6 +327,7 @@ func (p *fitPlan) resetSets() {
 		f.losses = make([]float64, p.nl)
 		f.oddsMean = make([]float64, p.nl)
 		f.oddsShare = make([]float64, p.nl)
+		f.warm = make([]classify.Model, p.nl)
 		f.rounds = make([][]int, p.nl)
 		f.started = make([][]bool, p.nl)
 		for l := range f.rounds {
@@ -358,6 +363,9 @@ func (p *fitPlan) run(jobs []fitJob) error {
 		if err != nil {
 			errs[ji] = fmt.Errorf("attribution: fitting %s on columns %v, fold %d: %w", p.opt.Learners[jb.learner].Name(), f.cols, jb.fold, err)
 			return
+		}
+		if jb.fold == 0 && f.fixed == nil {
+			f.warm[jb.learner] = model
 		}
 		if bm, ok := model.(*classify.BoostedModel); ok {
 			f.rounds[jb.learner][jb.fold] = bm.Trees()
@@ -447,7 +455,8 @@ func (p *fitPlan) completeFolds(selFolds int) error {
 
 // finish scores the chosen learner on all folds where it was not scored,
 // drops the losing learners' log-odds and sets the learner bootstrap
-// replicates refit (refitLearner).
+// replicates refit (refitLearner, warm-started from the chosen learner's
+// fold-0 model).
 func (p *fitPlan) finish() {
 	for _, f := range p.sets {
 		if math.IsNaN(f.losses[f.best]) {
@@ -465,7 +474,11 @@ func (p *fitPlan) finish() {
 			f.refit = f.fixed
 		} else {
 			f.refit = refitLearner(f.refit, f.rounds[f.best], f.started[f.best])
+			if ws, ok := f.refit.(classify.WarmStarter); ok && f.warm[f.best] != nil {
+				f.refit = ws.WithWarmStart(f.warm[f.best])
+			}
 		}
+		f.warm = nil
 	}
 }
 

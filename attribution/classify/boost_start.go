@@ -49,9 +49,16 @@ func (b Boosted) fitStart(x *mat.Dense, y, wn []float64, train, valid []int32, b
 	m.LogOdds(xt, zt)
 	start = &boostStart{model: m, lo: math.Inf(-1), hi: math.Inf(1)}
 	if k := b.MinLeafRows; len(zt) > 2*k {
-		sorted := slices.Clone(zt)
-		slices.Sort(sorted)
-		start.lo, start.hi = sorted[k], sorted[len(sorted)-1-k]
+		v := slices.Clone(zt)
+		if finite(v) {
+			// Two selections instead of a sort (selectKth): the second
+			// works on the values at or above the first.
+			start.lo = selectKth(v, k)
+			start.hi = selectKth(v[k:], len(v)-1-2*k)
+		} else {
+			slices.Sort(v)
+			start.lo, start.hi = v[k], v[len(v)-1-k]
+		}
 	}
 	clampInPlace(zt, start.lo, start.hi)
 	if len(valid) == 0 {

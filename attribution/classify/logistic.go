@@ -8,7 +8,6 @@ import (
 	"github.com/gapwise/gapwise/internal/workers"
 	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
-	"gonum.org/v1/gonum/optimize"
 )
 
 // Errors returned by the logistic learners; test with errors.Is.
@@ -42,8 +41,9 @@ const DefaultMaxInteract = 8
 // weighs less as the (weighted) row count grows; scaling all weights by a
 // factor a is the same as dividing λ by a.
 //
-// The minimiser is found with Newton's method (gonum optimize.Newton with
-// the analytic gradient and Hessian) from β₀ = logit(ȳ_w), β = 0, and
+// The minimiser is found with Newton's method (analytic gradient and
+// Hessian, a line search on the directional derivative only, so that no
+// logarithm is taken; see newtonMinimise) from β₀ = logit(ȳ_w), β = 0, and
 // stops when ‖∇L‖_∞ < 1e-9·Σ_i w_i. On large or wide inputs a subsample
 // warm start and a reused or subsampled Hessian save work; the gradient
 // and the stopping test are always exact. Work is split over goroutines in
@@ -59,6 +59,9 @@ type Linear struct {
 	// Threads bounds the goroutines of Fit and of the fitted model's
 	// LogOdds; 0 means GOMAXPROCS. Results do not depend on it.
 	Threads int
+	// Warm, if non-nil, is a model whose coefficients Newton starts from
+	// when its terms are those of the new design (see WithWarmStart).
+	Warm *LogisticModel
 }
 
 // NewLinear returns a Linear learner with λ = DefaultLambda.
@@ -91,7 +94,7 @@ func (l Linear) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) {
 		terms[a] = Term{c, -1}
 	}
 	b := &basis{p: x.RawMatrix().Cols, raw: raw, terms: terms}
-	return fitLogistic("linear", b, z, y, w, sw, l.Lambda, l.Threads)
+	return fitLogistic("linear", b, z, y, w, sw, l.Lambda, l.Threads, l.Warm)
 }
 
 // Expanded is L2-penalised logistic regression on an expanded basis of the
@@ -129,6 +132,9 @@ type Expanded struct {
 	// Threads bounds the goroutines of Fit and of the fitted model's
 	// LogOdds; 0 means GOMAXPROCS. Results do not depend on it.
 	Threads int
+	// Warm, if non-nil, is a model whose coefficients Newton starts from
+	// when its terms are those of the new design (see WithWarmStart).
+	Warm *LogisticModel
 }
 
 // NewExpanded returns an Expanded learner with λ = DefaultLambda and
@@ -161,7 +167,7 @@ func (e Expanded) Fit(x *mat.Dense, y, w []float64, seed uint64) (Model, error) 
 	inter := interactionSet(lin, active, y, w, e.MaxInteract)
 	z, terms, scales := expandDesign(lin, raw, active, expandTerms(raw, active, inter), w, sw, threads)
 	b := &basis{p: x.RawMatrix().Cols, raw: raw, terms: terms, termScale: scales}
-	return fitLogistic("expanded", b, z, y, w, sw, e.Lambda, e.Threads)
+	return fitLogistic("expanded", b, z, y, w, sw, e.Lambda, e.Threads, e.Warm)
 }
 
 // checkLogisticInput validates the training data and returns Σ w_i.
@@ -229,16 +235,17 @@ func checkLogisticInput(name string, lambda float64, x *mat.Dense, y, w []float6
 // (subsampled Newton; Byrd, Chin, Neveitt & Nocedal 2011, "On the use of
 // stochastic Hessian information in optimization methods for machine
 // learning", cited from memory), as d(d+1)/2 products per row then cost
-// more than the extra iterations. Function values and gradients are always
+// more than the extra iterations. Gradients are always
 // exact, so the returned minimiser and the stopping test are those of the
 // full objective. Row blocks are processed on up to threads goroutines
 // (0 means GOMAXPROCS); the fitted model's LogOdds uses as many.
-func fitLogistic(name string, b *basis, z *design, y, w []float64, sw, lambda float64, threads int) (*LogisticModel, error) {
+func fitLogistic(name string, b *basis, z *design, y, w []float64, sw, lambda float64, threads int, warm *LogisticModel) (*LogisticModel, error) {
 	theta := make([]float64, z.d)
 	theta[0] = math.Log(weightedSum(y, w) / (sw - weightedSum(y, w)))
 	iters := 0
 	var hsub *logisticObjective
-	if s := z.n / logisticWarmRows; s >= 4 {
+	warmed := warm.startFor(b, theta)
+	if s := z.n / logisticWarmRows; s >= 4 && !warmed {
 		sz, sy, sws := subsampleRows(z, y, w, s)
 		ssw := weightedSum(nil, sws)
 		if sy1 := weightedSum(sy, sws); sy1 > 0 && sy1 < ssw {
@@ -306,34 +313,6 @@ func subsampleRows(z *design, y, w []float64, s int) (*design, []float64, []floa
 		}
 	}
 	return sub, sy, sw
-}
-
-// newtonMinimise runs gonum's Newton method on the penalised objective from
-// theta0 until ‖∇L‖_∞ < gtol. Near the optimum the line search may stop on
-// rounding noise in L before the gradient test fires; such a point is
-// accepted when ‖∇L‖_∞ < gtol·logisticGradFloor/logisticGradTol.
-func newtonMinimise(obj *logisticObjective, theta0 []float64, gtol float64) ([]float64, int, error) {
-	z := obj.z
-	obj.gtol = gtol
-	prob := optimize.Problem{Func: obj.Func, Grad: obj.Grad, Hess: obj.Hess}
-	settings := &optimize.Settings{
-		GradientThreshold: gtol,
-		Converger:         optimize.NeverTerminate{},
-		MajorIterations:   logisticMaxIter,
-		FuncEvaluations:   logisticMaxEvals,
-	}
-	res, err := optimize.Minimize(prob, theta0, settings, &optimize.Newton{GradStopThreshold: gtol})
-	if res == nil {
-		return nil, 0, fmt.Errorf("optimiser failed: %v: %w", err, ErrNoConvergence)
-	}
-	g := make([]float64, z.d)
-	obj.Grad(g, res.X)
-	gmax := floats.Norm(g, math.Inf(1))
-	if math.IsNaN(gmax) || gmax > gtol*logisticGradFloor/logisticGradTol {
-		return nil, res.MajorIterations, fmt.Errorf("%d Newton iterations (status %v, ‖gradient‖∞ = %.3g): %w",
-			res.MajorIterations, res.Status, gmax, ErrNoConvergence)
-	}
-	return res.X, res.MajorIterations, nil
 }
 
 // Convergence thresholds, relative to Σ w_i: the Newton iteration stops at

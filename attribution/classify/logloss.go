@@ -59,36 +59,40 @@ func softplus(z float64) float64 {
 // e^{−|η|}/(1+e^{−|η|})², accurate in both tails. Work is split in fixed row
 // blocks (logisticBlocks) and reduced in block order, so results do not
 // depend on GOMAXPROCS. The per-row quantities of the last θ are cached,
-// because optimize evaluates Func, Grad and Hess at the same point in turn.
+// because newtonMinimise asks for the gradient and the Hessian at the same
+// point in turn. L itself is never evaluated (see newtonMinimise).
 //
 // Hess recomputes Zᵀdiag(h)Z only while Newton is far from the optimum:
 // once a step has cut ‖∇L‖_∞ at least tenfold, the previous data Hessian is
 // reused (a Newton iteration with a lagged Hessian; Shamanskii 1967, "A
 // modification of Newton's method", cited from memory). Near the optimum
 // the Hessian changes by O(‖Δθ‖), so each reused step still contracts the
-// gradient by about that factor, while costing only a function and
-// gradient evaluation. The gradient is always exact, so the minimiser and
+// gradient by about that factor, while costing only a gradient
+// evaluation. The gradient is always exact, so the minimiser and
 // the stopping test are unchanged; if a step contracts less than tenfold
 // the Hessian is recomputed at the next point. This pays only when the
-// d(d+1)/2 products per row of the Hessian outweigh the exp and log per
-// row of a function evaluation, so below lagHessianMinCols design columns
+// d(d+1)/2 products per row of the Hessian outweigh the exp and the d
+// products per row of a gradient evaluation, so below lagHessianMinCols design columns
 // the Hessian is always recomputed (plain Newton).
 type logisticObjective struct {
-	z       *design
-	y, w    []float64
-	lambda  float64
-	nb      int
-	at      []float64 // θ of the cached per-row values
-	valid   bool
-	eta     []float64
-	r, h    []float64
-	loss    float64
-	partial []float64 // per-block Hessian parts, reused
-	gpart   []float64 // per-block gradient parts at at
-	lpart   []float64 // per-block compensated loss sums at at
-	gtol    float64   // the optimiser's gradient threshold
-	gnorm   float64   // ‖∇L‖_∞ at at, valid if gvalid
-	gvalid  bool
+	z      *design
+	y, w   []float64
+	lambda float64
+	nb     int
+	at     []float64 // θ of the cached per-row values
+	valid  bool
+	eta    []float64
+	// etaOld holds η at the previous point evaluated, and moved is
+	// max_i |η_i − η_old,i| between the last two points (+Inf at the
+	// first); movePart holds its per-block parts.
+	etaOld   []float64
+	moved    float64
+	movePart []float64
+	r, h     []float64
+	partial  []float64 // per-block Hessian parts, reused
+	gpart    []float64 // per-block gradient parts at at
+	gnorm    float64   // ‖∇L‖_∞ at at, valid if gvalid
+	gvalid   bool
 	// lastHess is the data Hessian in use; prevGnorm is ‖∇L‖_∞ at the
 	// previous point where the Hessian was requested.
 	lastHess  []float64
@@ -107,31 +111,37 @@ func newLogisticObjective(z *design, y, w []float64, lambda float64, threads int
 	d := z.d
 	return &logisticObjective{
 		z: z, y: y, w: w, lambda: lambda, nb: nb, threads: threads,
-		at:      make([]float64, d),
-		eta:     make([]float64, z.n),
-		r:       make([]float64, z.n),
-		h:       make([]float64, z.n),
-		partial: make([]float64, nb*d*(d+1)/2),
-		gpart:   make([]float64, nb*d),
-		lpart:   make([]float64, 2*nb),
+		at:       make([]float64, d),
+		eta:      make([]float64, z.n),
+		etaOld:   make([]float64, z.n),
+		moved:    math.Inf(1),
+		movePart: make([]float64, nb),
+		r:        make([]float64, z.n),
+		h:        make([]float64, z.n),
+		partial:  make([]float64, nb*d*(d+1)/2),
+		gpart:    make([]float64, nb*d),
 	}
 }
 
-// update computes η, loss, r and h at θ unless they are cached.
+// update computes η, r, h and the per-block gradient parts at θ unless
+// they are cached. It does not form the loss: newtonMinimise needs only
+// derivatives, so each row costs one exp and no logarithm.
 func (o *logisticObjective) update(theta []float64) {
 	if o.valid && floats.Equal(o.at, theta) {
 		return
 	}
 	copy(o.at, theta)
+	hadPrev := o.valid
 	o.valid = true
 	o.gvalid = false
+	o.eta, o.etaOld = o.etaOld, o.eta
 	d := o.z.d
 	logisticBlocks(o.threads, o.z.n, func(b, lo, hi int) {
-		var acc neumaierSum
 		gp := o.gpart[b*d : (b+1)*d]
 		for k := range gp {
 			gp[k] = 0
 		}
+		var moved float64
 		// Sub-blocks keep η, r and the d column slices in cache between
 		// the pass that forms η and the one that forms the gradient.
 		for s := lo; s < hi; s += hessianSubRows {
@@ -147,6 +157,11 @@ func (o *logisticObjective) update(theta []float64) {
 			}
 			for i, et := range eta {
 				g := s + i
+				if dm := et - o.etaOld[g]; dm > moved {
+					moved = dm
+				} else if -dm > moved {
+					moved = -dm
+				}
 				wi := 1.0
 				if o.w != nil {
 					wi = o.w[g]
@@ -156,13 +171,7 @@ func (o *logisticObjective) update(theta []float64) {
 				if et < 0 {
 					p = a / (1 + a)
 				}
-				yi := o.y[g]
-				l := math.Log1p(a) - yi*et
-				if et > 0 {
-					l += et
-				}
-				acc.add(wi * l)
-				o.r[g] = wi * (p - yi)
+				o.r[g] = wi * (p - o.y[g])
 				o.h[g] = wi * a / ((1 + a) * (1 + a))
 			}
 			r := o.r[s:e]
@@ -170,44 +179,15 @@ func (o *logisticObjective) update(theta []float64) {
 				gp[k] += floats.Dot(r, o.z.col(k)[s:e])
 			}
 		}
-		o.lpart[2*b], o.lpart[2*b+1] = acc.sum, acc.c
+		o.movePart[b] = moved
 	})
-	var acc neumaierSum
-	for b := 0; b < o.nb; b++ {
-		acc.add(o.lpart[2*b])
-		acc.add(o.lpart[2*b+1])
+	o.moved = math.Inf(1)
+	if hadPrev {
+		o.moved = 0
+		for _, m := range o.movePart {
+			o.moved = max(o.moved, m)
+		}
 	}
-	var pen float64
-	for _, t := range theta[1:] {
-		pen += t * t
-	}
-	acc.add(o.lambda / 2 * pen)
-	o.loss = acc.value()
-}
-
-// neumaierSum is compensated summation (Neumaier 1974, "Rundungsfehleranalyse
-// einiger Verfahren zur Summation endlicher Summen", cited from memory). The
-// loss is summed this way because near the optimum the line search compares
-// values of L whose difference is far below the rounding error of a plain
-// sum of n terms.
-type neumaierSum struct{ sum, c float64 }
-
-func (s *neumaierSum) add(x float64) {
-	t := s.sum + x
-	if math.Abs(s.sum) >= math.Abs(x) {
-		s.c += (s.sum - t) + x
-	} else {
-		s.c += (x - t) + s.sum
-	}
-	s.sum = t
-}
-
-func (s *neumaierSum) value() float64 { return s.sum + s.c }
-
-// Func returns L(θ).
-func (o *logisticObjective) Func(theta []float64) float64 {
-	o.update(theta)
-	return o.loss
 }
 
 // Grad writes ∇L(θ) into grad (its per-block parts are formed by update).
@@ -227,27 +207,11 @@ func (o *logisticObjective) Grad(grad, theta []float64) {
 	o.gvalid = true
 }
 
-// Hess writes ∇²L(θ) into hess.
-//
-// At a point whose gradient (already evaluated there) passes the
-// optimiser's threshold it writes the identity instead: optimize evaluates
-// the Hessian at every accepted point before testing convergence, and at a
-// converged point Newton never uses it.
+// Hess writes ∇²L(θ) into hess; the gradient at θ must have been formed
+// (Grad) first, as the lagged-Hessian rule reads its norm.
 func (o *logisticObjective) Hess(hess *mat.SymDense, theta []float64) {
 	o.update(theta)
 	d := o.z.d
-	if o.gvalid && o.gnorm < o.gtol {
-		for j := 0; j < d; j++ {
-			for k := j; k < d; k++ {
-				v := 0.0
-				if j == k {
-					v = 1
-				}
-				hess.SetSym(j, k, v)
-			}
-		}
-		return
-	}
 	// Reuse the last data Hessian while the previous step still cut the
 	// gradient at least tenfold (see the type comment).
 	switch {
