@@ -83,6 +83,11 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	if err := splitGapsSides(out.Metrics, sides, opt, mix, diag); err != nil {
 		return nil, nil, err
 	}
+	if out.Estimator = opt.Estimator.resolve(); out.Estimator.robust() {
+		if out.Regressions, err = splitGapsRobust(out.Metrics, s, mechs, ratios, g, opt); err != nil {
+			return nil, nil, err
+		}
+	}
 	if !diag {
 		return out, ratios, nil
 	}
@@ -247,7 +252,7 @@ func observe(metricNames []string, g groupSplit, opt Options) ([]MetricDecomposi
 	var out []MetricDecomposition
 	for m, name := range metricNames {
 		ref, cmp := values[0][m], values[1][m]
-		out = append(out, MetricDecomposition{Metric: name, Reference: ref, Comparison: cmp, Gap: cmp - ref})
+		out = append(out, MetricDecomposition{Metric: name, Estimator: EstimatorWeighting, Reference: ref, Comparison: cmp, Gap: cmp - ref})
 	}
 	return out, nil
 }

@@ -35,6 +35,17 @@ type Options struct {
 	// whose estimates are averaged (see aggregateSplits); 0 means
 	// DefaultFoldSplits for the Sample's group sizes.
 	FoldSplits int
+	// Estimator chooses the estimator of the coalition values (see
+	// Estimator); EstimatorDefault means DefaultEstimator.
+	Estimator Estimator
+	// Reads says which mechanisms the label and the score depend on, for
+	// the robust estimator (see NodeReads); the zero value means every
+	// mechanism for both.
+	Reads NodeReads
+
+	// robustHooks, when set (tests only), replaces the robust
+	// estimator's nuisances.
+	robustHooks *robustHooks
 
 	// splitOnly marks a split after the first: decompose skips the
 	// diagnostics, which describe split 0 only.
@@ -51,6 +62,11 @@ type Decomposition struct {
 	Side       Side                  // the side used (never SideDefault)
 	Mix        Mix                   // the combination used for SideBoth (never MixDefault); MixDefault for one side
 	FoldSplits int                   // R, the fold splits averaged (Options.FoldSplits)
+	Estimator  Estimator             // the estimator asked for (never EstimatorDefault)
+	// Regressions counts the robust estimator's regressions fitted in the
+	// point estimate's first fold split (every fold and candidate
+	// learner); 0 for the weighting estimator.
+	Regressions int
 	// Weights describes, per side used (reference first), the weights
 	// that emulate the hybrid distributions on that side's records.
 	Weights []SideWeights
@@ -76,7 +92,11 @@ type SideWeights struct {
 // MetricDecomposition splits one metric's gap. Contributions[i] belongs to
 // Mechanisms[i]; Σ Contributions = Estimated and Residual = Gap − Estimated.
 type MetricDecomposition struct {
-	Metric        string
+	Metric string
+	// Estimator is the estimator of this metric's coalition values:
+	// EstimatorWeighting or EstimatorRobust (never EstimatorBoth; AUC is
+	// always weighted).
+	Estimator     Estimator
 	Reference     float64   // observed on the reference records
 	Comparison    float64   // observed on the comparison records
 	Gap           float64   // Comparison − Reference
@@ -124,6 +144,11 @@ type MetricDecomposition struct {
 	// sampling of the records (see residualSE); set for SideBoth in the
 	// point estimate except with MixMechanism, nil otherwise.
 	ResidualSE *float64
+
+	// Influence holds the influence-function standard errors of the
+	// robust estimator's estimates (robust_influence.go); nil for the
+	// weighting estimator and in bootstrap replicates.
+	Influence *InfluenceSE
 
 	// Percentile bootstrap intervals, set by Bootstrap; nil otherwise.
 	ReferenceCI     *Interval

@@ -3,7 +3,7 @@
 // causal models (package scm), for each classifier choice, case and sample
 // size, and prints a Markdown table.
 //
-//	go run ./cmd/gapwise-accuracy [-sizes 2000,10000,50000] [-reps 3]
+//	go run ./cmd/gapwise-accuracy [-sizes 2000,10000,50000] [-reps 3] [-estimators weighting,robust]
 //	go run ./cmd/gapwise-accuracy -sides -learners auto
 //	go run ./cmd/gapwise-accuracy -coverage -learners expanded [-draws 30] [-boot 40]
 //	go run ./cmd/gapwise-accuracy -splits -learners auto [-seeds 10] [-fold-splits 1,0] [-boot 40]
@@ -31,19 +31,22 @@ type options struct {
 	reps     int      // replicate samples per cell
 	truthN   int      // records per coalition in the ground-truth simulation
 	learners []string // learner choices: linear, expanded, boosted, auto
-	cases    []string // case names; empty means all
-	metrics  []string
-	seed     uint64
-	detail   bool            // also print per-metric, per-mechanism error and SD
-	sides    bool            // compare estimation sides instead of learners (sides.go)
-	truth    bool            // also print the ground-truth decompositions
-	coverage bool            // measure bootstrap interval coverage instead (coverage.go)
-	checks   bool            // measure how often the warnings fire instead (checks.go)
-	mix      attribution.Mix // combination of the sides in the checks study
-	draws    int             // independent draws per case and size in the coverage and checks studies
-	boot     int             // bootstrap replicates per draw in the coverage study, per row in the splits study
-	splits   bool            // measure seed stability by fold splits instead (splits.go)
-	seeds    int             // seeds per row in the splits study
+	// estimators are the coalition-value estimators compared
+	// (attribution.Estimator names; weighting or robust).
+	estimators []attribution.Estimator
+	cases      []string // case names; empty means all
+	metrics    []string
+	seed       uint64
+	detail     bool            // also print per-metric, per-mechanism error and SD
+	sides      bool            // compare estimation sides instead of learners (sides.go)
+	truth      bool            // also print the ground-truth decompositions
+	coverage   bool            // measure bootstrap interval coverage instead (coverage.go)
+	checks     bool            // measure how often the warnings fire instead (checks.go)
+	mix        attribution.Mix // combination of the sides in the checks study
+	draws      int             // independent draws per case and size in the coverage and checks studies
+	boot       int             // bootstrap replicates per draw in the coverage study, per row in the splits study
+	splits     bool            // measure seed stability by fold splits instead (splits.go)
+	seeds      int             // seeds per row in the splits study
 	// foldSplits are the fold splits R compared by the splits study (0:
 	// attribution.DefaultFoldSplits for the size).
 	foldSplits []int
@@ -87,6 +90,7 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	reps := fs.Int("reps", 3, "replicate samples per case, learner and size")
 	truthN := fs.Int("truth-n", 1<<20, "records per hybrid distribution in the ground-truth simulation")
 	learners := fs.String("learners", "linear,expanded,boosted,auto", "comma-separated classifier choices (auto = all three, picked per mechanism by out-of-fold log loss)")
+	estimators := fs.String("estimators", "weighting", "comma-separated estimators of the coalition values: weighting, robust")
 	cases := fs.String("cases", "", "comma-separated case names (default all)")
 	metricList := fs.String("metrics", strings.Join([]string{metrics.NameFNR, metrics.NameFPR, metrics.NameCalibrationInTheLarge, metrics.NameBrier}, ","), "comma-separated metrics")
 	seed := fs.Uint64("seed", 1, "seed of the samples and the ground-truth simulation")
@@ -147,6 +151,20 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 			return options{}, err
 		}
 		opt.mix = x
+	}
+	for _, name := range split(*estimators) {
+		e, err := attribution.ParseEstimator(name)
+		if err != nil || e == attribution.EstimatorBoth {
+			err = fmt.Errorf("-estimators: %q is not weighting or robust", name)
+			fmt.Fprintln(stderr, err)
+			return options{}, err
+		}
+		opt.estimators = append(opt.estimators, e)
+	}
+	if len(opt.estimators) == 0 {
+		err := fmt.Errorf("-estimators: none given")
+		fmt.Fprintln(stderr, err)
+		return options{}, err
 	}
 	opt.learners = split(*learners)
 	opt.cases = split(*cases)

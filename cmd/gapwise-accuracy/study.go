@@ -16,6 +16,7 @@ import (
 // absolute errors |φ̂ − φ| of every metric, mechanism and replicate.
 type cell struct {
 	caseName, learner string
+	estimator         attribution.Estimator
 	size              int
 	hard              bool
 	// errs[m][i][r] = φ̂ − φ for metric m, mechanism i, replicate r.
@@ -49,44 +50,49 @@ func run(opt options, stdout, stderr io.Writer) error {
 			if err != nil {
 				return err
 			}
-			for _, n := range opt.sizes {
-				cl := cell{caseName: c.Name, learner: choice, size: n, hard: c.Hard}
-				for _, t := range truth {
-					for _, se := range t.SE {
-						cl.truthSE = math.Max(cl.truthSE, se)
-					}
-				}
-				cl.errs = make([][][]float64, len(opt.metrics))
-				cl.residual = make([][]float64, len(opt.metrics))
-				for m := range cl.errs {
-					cl.errs[m] = make([][]float64, len(c.Model.Nodes))
-				}
-				for r := 0; r < opt.reps; r++ {
-					seed := opt.seed + uint64(1000*ci+r)
-					s, mechs, err := scm.Pooled(c.Model, n, n, seed)
-					if err != nil {
-						return err
-					}
-					opt.onScale(s)
-					start := time.Now()
-					d, err := attribution.Decompose(s, mechs, opt.metrics, attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners})
-					if err != nil {
-						return fmt.Errorf("case %s, learner %s, n %d: %w", c.Name, choice, n, err)
-					}
-					cl.seconds += time.Since(start).Seconds() / float64(opt.reps)
-					for m, md := range d.Metrics {
-						for i, phi := range md.Contributions {
-							cl.errs[m][i] = append(cl.errs[m][i], phi-truth[m].Shapley[i])
+			for _, est := range opt.estimators {
+				for _, n := range opt.sizes {
+					cl := cell{caseName: c.Name, learner: choice, estimator: est, size: n, hard: c.Hard, null: c.Null}
+					for _, t := range truth {
+						for _, se := range t.SE {
+							cl.truthSE = math.Max(cl.truthSE, se)
 						}
-						cl.residual[m] = append(cl.residual[m], md.Residual)
 					}
+					cl.errs = make([][][]float64, len(opt.metrics))
+					cl.residual = make([][]float64, len(opt.metrics))
+					for m := range cl.errs {
+						cl.errs[m] = make([][]float64, len(c.Model.Nodes))
+					}
+					for r := 0; r < opt.reps; r++ {
+						seed := opt.seed + uint64(1000*ci+r)
+						s, mechs, err := scm.Pooled(c.Model, n, n, seed)
+						if err != nil {
+							return err
+						}
+						opt.onScale(s)
+						start := time.Now()
+						d, err := attribution.Decompose(s, mechs, opt.metrics, attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Estimator: est, Reads: c.Model.Reads()})
+						if err != nil {
+							return fmt.Errorf("case %s, learner %s, n %d: %w", c.Name, choice, n, err)
+						}
+						cl.seconds += time.Since(start).Seconds() / float64(opt.reps)
+						for m, md := range d.Metrics {
+							for i, phi := range md.Contributions {
+								cl.errs[m][i] = append(cl.errs[m][i], phi-truth[m].Shapley[i])
+							}
+							cl.residual[m] = append(cl.residual[m], md.Residual)
+						}
+					}
+					fmt.Fprintf(stderr, "%-13s %-8s %-9s n=%-6d max |err| %.4f (%.1fs per fit)\n", c.Name, choice, est, n, cl.maxAbs(), cl.seconds)
+					cells = append(cells, cl)
 				}
-				fmt.Fprintf(stderr, "%-13s %-8s n=%-6d max |err| %.4f (%.1fs per fit)\n", c.Name, choice, n, cl.maxAbs(), cl.seconds)
-				cells = append(cells, cl)
 			}
 		}
 	}
 	writeSummary(stdout, opt, cells)
+	if len(opt.estimators) > 1 {
+		writeEstimators(stdout, opt, cells)
+	}
 	if opt.truth {
 		writeTruth(stdout, opt, cases, truths)
 	}

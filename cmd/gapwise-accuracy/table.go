@@ -6,6 +6,7 @@ import (
 	"math"
 	"strings"
 
+	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/internal/scm"
 )
 
@@ -23,7 +24,7 @@ func writeSummary(w io.Writer, opt options, cells []cell) {
 		if row[0].hard {
 			name += " (hard)"
 		}
-		fmt.Fprintf(w, "| %s | %s |", name, row[0].learner)
+		fmt.Fprintf(w, "| %s | %s |", name, row[0].label(opt))
 		for _, c := range row {
 			fmt.Fprintf(w, " %.4f / %.4f |", c.maxAbs(), c.meanAbs())
 		}
@@ -44,10 +45,10 @@ func writeDetail(w io.Writer, opt options, cases []scm.Case, cells []cell) {
 		for m, byMech := range c.errs {
 			for i, e := range byMech {
 				mean, rms, sd := moments(e)
-				fmt.Fprintf(w, "| %s | %s | %d | %s | %s | %+.4f | %.4f | %.4f |\n", c.caseName, c.learner, c.size, opt.metrics[m], nodes[c.caseName][i].Name, mean, rms, sd)
+				fmt.Fprintf(w, "| %s | %s | %d | %s | %s | %+.4f | %.4f | %.4f |\n", c.caseName, c.label(opt), c.size, opt.metrics[m], nodes[c.caseName][i].Name, mean, rms, sd)
 			}
 			mean, rms, sd := moments(c.residual[m])
-			fmt.Fprintf(w, "| %s | %s | %d | %s | (residual) | %+.4f | %.4f | %.4f |\n", c.caseName, c.learner, c.size, opt.metrics[m], mean, rms, sd)
+			fmt.Fprintf(w, "| %s | %s | %d | %s | (residual) | %+.4f | %.4f | %.4f |\n", c.caseName, c.label(opt), c.size, opt.metrics[m], mean, rms, sd)
 		}
 	}
 }
@@ -121,4 +122,77 @@ func writeSizeHeader(w io.Writer, second string, sizes []int, extra ...string) {
 		fmt.Fprint(w, "---|")
 	}
 	fmt.Fprint(w, "\n")
+}
+
+// label names a cell's learner, and its estimator when the study compares
+// several.
+func (c *cell) label(opt options) string {
+	if len(opt.estimators) > 1 {
+		return c.learner + ", " + c.estimator.String()
+	}
+	return c.learner
+}
+
+// writeEstimators prints, per learner and size, a column per estimator:
+// max / mean / null-mechanism |φ̂ − φ| pooled over the cases that are not
+// hard, and in how many cases each estimator had the smaller max and the
+// smaller mean error.
+func writeEstimators(w io.Writer, opt options, cells []cell) {
+	fmt.Fprintf(w, "\nEstimators compared, pooled over the cases that are not hard: max / mean / null-mechanism |φ̂ − φ|, and the cases (of those) where the estimator has the smaller max / mean error.\n\n| learner | n |")
+	for _, e := range opt.estimators {
+		fmt.Fprintf(w, " %s | %s wins (max / mean) |", e, e)
+	}
+	fmt.Fprint(w, "\n|---|---|")
+	for range opt.estimators {
+		fmt.Fprint(w, "---|---|")
+	}
+	fmt.Fprint(w, "\n")
+	for _, choice := range opt.learners {
+		for _, n := range opt.sizes {
+			byCase := map[string]map[attribution.Estimator]*cell{}
+			var order []string
+			pooled := map[attribution.Estimator][]cell{}
+			for i := range cells {
+				c := &cells[i]
+				if c.learner != choice || c.size != n || c.hard {
+					continue
+				}
+				if byCase[c.caseName] == nil {
+					byCase[c.caseName] = map[attribution.Estimator]*cell{}
+					order = append(order, c.caseName)
+				}
+				byCase[c.caseName][c.estimator] = c
+				pooled[c.estimator] = append(pooled[c.estimator], *c)
+			}
+			fmt.Fprintf(w, "| %s | %d |", choice, n)
+			for _, e := range opt.estimators {
+				if len(pooled[e]) == 0 {
+					fmt.Fprint(w, " – | – |")
+					continue
+				}
+				mx, mean, null := poolCells(pooled[e])
+				winsMax, winsMean := 0, 0
+				for _, name := range order {
+					mine := byCase[name][e]
+					bestMax, bestMean := true, true
+					for _, o := range opt.estimators {
+						other := byCase[name][o]
+						if o == e || other == nil {
+							continue
+						}
+						bestMax = bestMax && mine.maxAbs() < other.maxAbs()
+						bestMean = bestMean && mine.meanAbs() < other.meanAbs()
+					}
+					if bestMax {
+						winsMax++
+					}
+					if bestMean {
+						winsMean++
+					}
+				}
+				fmt.Fprintf(w, " %.4f / %.4f / %.4f | %d / %d of %d |", mx, mean, null, winsMax, winsMean, len(order))
+			}
+			fmt.Fprint(w, "\n")
+		}
+	}
 }
