@@ -128,22 +128,24 @@ func (r *Result) MechanismName(node string) string {
 		if !named {
 			return m.Mechanism
 		}
-		return mechanismName(r.Names, node, m.Parents)
+		return r.Names.Mechanism(node, m.Parents)
 	}
 	return r.NodeName(node)
 }
 
-// mechanismName writes a mechanism with the display names of names: the
-// node's, then its parents' after " | ".
-func mechanismName(names *Names, node string, parents []string) string {
+// Mechanism writes the mechanism of node given parents with display
+// names: the node's, then its parents' after " | " (the form of
+// MechanismResult.Mechanism, which it equals when none has a display
+// name).
+func (n *Names) Mechanism(node string, parents []string) string {
 	if len(parents) == 0 {
-		return names.NodeName(node)
+		return n.NodeName(node)
 	}
 	ps := make([]string, len(parents))
 	for i, p := range parents {
-		ps[i] = names.NodeName(p)
+		ps[i] = n.NodeName(p)
 	}
-	return names.NodeName(node) + " | " + strings.Join(ps, ", ")
+	return n.NodeName(node) + " | " + strings.Join(ps, ", ")
 }
 
 // columnWords names column c in a sentence: quoted, by its display name

@@ -32,9 +32,9 @@ func forestRows(res *fairness.Result, m fairness.MetricResult) []forestRow {
 	role := func(v float64) string { return gapRole(m, v) }
 	var rows []forestRow
 	for _, c := range m.Contributions {
-		r := forestRow{Label: c.Mechanism, Kind: "mechanism", Role: role(c.Value), Value: c.Value, Low: c.CILow, High: c.CIHigh, Reason: flags[c.Node]}
+		r := forestRow{Label: contribMech(res, c), Kind: "mechanism", Role: role(c.Value), Value: c.Value, Low: c.CILow, High: c.CIHigh, Reason: flags[c.Node]}
 		if c.NotEstimable {
-			r = forestRow{Label: c.Mechanism, Kind: "unestimable", Role: "neutral"}
+			r = forestRow{Label: contribMech(res, c), Kind: "unestimable", Role: "neutral"}
 		}
 		rows = append(rows, r)
 	}

@@ -69,10 +69,10 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 	for _, n := range nodes {
 		c, has := contrib[n.Name]
 		t := gapShade(m, c, maxAbs)
-		tip := []string{n.Name}
+		tip := []string{nodeName(res, n.Name)}
 		if has {
 			d := diag[n.Name]
-			tip = []string{d.Mechanism,
+			tip = []string{mechName(res, d.Node),
 				"contribution to " + MetricTitle(m.Metric) + ": " + nodeValue(m.Metric, c),
 				"classifier " + d.Classifier + " (parents: " + d.ParentClassifier + ")",
 				"out-of-fold AUC " + formatDiag(d.AUC),
@@ -91,7 +91,7 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 		}
 		// The box holds the name, the contribution and, when unreliable,
 		// that word, one line each (nodeBox).
-		width, height := nodeBox(n.Name, nodeValue(m.Metric, c), flags[n.Name] != "")
+		width, height := nodeBox(nodeName(res, n.Name), nodeValue(m.Metric, c), flags[n.Name] != "")
 		data = append(data, opts.GraphNode{Name: n.Name, X: float32(n.X), Y: float32(n.Y), Symbol: "roundRect",
 			SymbolSize: []float64{width, height},
 			ItemStyle:  &opts.ItemStyle{Color: rampColour(t), BorderColor: border, BorderWidth: 1.5},
@@ -161,7 +161,7 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 				if j < len(e.Bends) {
 					l["symbol"] = []string{"none", "none"}
 				}
-				l["tooltip"] = map[string]any{"formatter": string(itemTooltip(e.From + " → " + e.To).Formatter)}
+				l["tooltip"] = map[string]any{"formatter": string(itemTooltip(nodeName(res, e.From) + " → " + nodeName(res, e.To)).Formatter)}
 				li++
 			}
 		}
@@ -175,7 +175,7 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			if !ok {
 				continue
 			}
-			text := formatterText(nodes[i].Name) + "\n" + nodeValue(m.Metric, c)
+			text := formatterText(nodeName(res, nodes[i].Name)) + "\n" + nodeValue(m.Metric, c)
 			if _, flagged := flags[c.Node]; flagged {
 				text += "\nunreliable"
 				if is, ok := it.(map[string]any)["itemStyle"].(map[string]any); ok {

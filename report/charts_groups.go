@@ -41,10 +41,10 @@ func reliabilityChart(res *fairness.Result, d *fairness.Details) chartOption {
 	line.AddSeries("perfect calibration", []opts.LineData{{Value: []float64{0, 0}}, {Value: []float64{100, 100}}},
 		charts.WithLineStyleOpts(opts.LineStyle{Color: colourMuted, Type: "dotted", Width: 1}),
 		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "none"; s.Color = colourMuted }))
-	line.AddSeries(res.Groups.Reference+" (reference)", curve("ref", d.Reference),
+	line.AddSeries(refName(res)+" (reference)", curve("ref", d.Reference),
 		charts.WithLineStyleOpts(opts.LineStyle{Color: colourReference, Width: 2}),
 		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "circle"; s.SymbolSize = 8; s.Color = colourReference }))
-	line.AddSeries(res.Groups.Comparison+" (comparison)", curve("cmp", d.Comparison),
+	line.AddSeries(cmpName(res)+" (comparison)", curve("cmp", d.Comparison),
 		charts.WithLineStyleOpts(opts.LineStyle{Color: colourComparison, Width: 2, Type: "dashed"}),
 		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "triangle"; s.SymbolSize = 10; s.Color = colourComparison }))
 	return optionOf(line)
@@ -71,8 +71,8 @@ func columnChart(res *fairness.Result, c fairness.ColumnDetails) chartOption {
 		}
 		return out
 	}
-	bar.AddSeries(res.Groups.Reference, shares(c.Reference), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourReference}))
-	bar.AddSeries(res.Groups.Comparison, shares(c.Comparison), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourComparison, BorderColor: colourInk, BorderWidth: 0.5}))
+	bar.AddSeries(refName(res), shares(c.Reference), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourReference}))
+	bar.AddSeries(cmpName(res), shares(c.Comparison), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourComparison, BorderColor: colourInk, BorderWidth: 0.5}))
 	return optionOf(bar)
 }
 

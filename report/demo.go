@@ -33,7 +33,7 @@ func DemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) error {
 // printed through Printable.
 func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
 	g := res.Groups
-	ref, cmp, pt := Printable(g.Reference), Printable(g.Comparison), Printable
+	ref, cmp, pt := Printable(refName(res)), Printable(cmpName(res)), Printable
 	fmt.Fprintf(w, "Anaemia screening (SYNTHETIC demo data): %s %d records, %s %d records\n\n",
 		ref, g.NReference, cmp, g.NComparison)
 	name := 0
@@ -46,7 +46,7 @@ func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
 			line += fmt.Sprintf(" [%+.4f, %+.4f]", m.GapCI.Low, m.GapCI.High)
 		}
 		if top, ok := Largest(m.Contributions); ok {
-			line += fmt.Sprintf("  largest: %s %+.4f", pt(top.Mechanism), top.Value)
+			line += fmt.Sprintf("  largest: %s %+.4f", pt(contribMech(res, top)), top.Value)
 		}
 		fmt.Fprintln(w, line)
 	}

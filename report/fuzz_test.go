@@ -431,10 +431,14 @@ func mdDecode(s string) string {
 }
 
 // scoreSpan returns the code span of the line "Performance audit of
-// `score`: …": the text between the run of backticks there and the next
-// run of as many.
+// `score`: …", or of "Score of the model: `score` …" for a result that
+// names its model: the text between the run of backticks there and the
+// next run of as many.
 func scoreSpan(md string) (string, bool) {
 	_, rest, ok := strings.Cut(md, "\nPerformance audit of `")
+	if !ok { // a result that names its model names the score in the next line
+		_, rest, ok = strings.Cut(md, "\nScore of the model: `")
+	}
 	if !ok {
 		return "", false
 	}

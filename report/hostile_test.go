@@ -1,6 +1,7 @@
 package report
 
 import (
+	"fmt"
 	"strings"
 	"unicode"
 	"unicode/utf8"
@@ -48,7 +49,8 @@ var hostileTexts = []string{
 // hostileResult is handResult with s in every place that holds user text:
 // the title, the group column and values (an excluded one too), label and score, node,
 // mechanism (the headline's lead too), column and metric names, learners, the warnings (quoting s
-// in backticks as fairness does), the assumptions and the input paths.
+// in backticks as fairness does), the assumptions, the input paths, and the display names of
+// groups, nodes and columns, the model and the audit date.
 // Each place gets s with a different prefix, so that the places stay
 // distinct.
 func hostileResult(s string) *fairness.Result {
@@ -87,6 +89,21 @@ func hostileResult(s string) *fairness.Result {
 	}
 	r.Warnings = append(r.Warnings, fairness.Warning{Kind: fairness.KindPoorOverlap, Severity: fairness.SeverityCaution,
 		Message: "the groups are nearly separable on `W" + s + "`; W" + s})
+	// Display names for the groups, half the nodes and the columns, and
+	// the model and date, each carrying s (the other nodes, and the score,
+	// keep their identifiers, so that both forms are rendered).
+	r.Names = &fairness.Names{Groups: &fairness.GroupNames{Reference: "NR" + s, Comparison: "NC" + s},
+		Nodes: map[string]fairness.DisplayName{}, Columns: map[string]fairness.DisplayName{}}
+	for i, m := range r.Mechanisms {
+		if i%2 == 0 {
+			r.Names.Nodes[m.Node] = fairness.DisplayName{Name: "N" + fmt.Sprint(i) + s, Unit: "U" + s}
+		}
+		for _, c := range m.Columns {
+			r.Names.Columns[c] = fairness.DisplayName{Name: "K" + fmt.Sprint(i) + s, Unit: "U" + s}
+		}
+	}
+	r.Model = &fairness.ModelInfo{Name: "Mo" + s, Version: "Ve" + s}
+	r.AuditDate = "D" + s
 	return r
 }
 

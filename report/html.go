@@ -72,6 +72,10 @@ func WriteHTML(w io.Writer, res *fairness.Result) error {
 type page struct {
 	Res          *fairness.Result
 	Title        string
+	Subject      template.HTML // what the audit evaluates: the model, or the score as code (subject)
+	RefName      string        // the groups' display names (refName, cmpName)
+	CmpName      string
+	Names        namesView // display names of the header's facts
 	Cohort       string
 	Threshold    string
 	LabelWords   string // how label words were read (labelWords), or ""
@@ -174,9 +178,11 @@ type reliabilityRow struct {
 }
 
 type columnView struct {
-	Name, Node, Mechanism string
-	Kind                  string // "numeric", "categorical" or "numeric, two values" (binary)
-	OutsideGraph          bool   // a declared model input in no graph node
+	Name, Node, Mechanism string        // Name is the column, the page script's key
+	Label                 template.HTML // the column as the card names it: display name and unit, then the column (colCode)
+	LabelText             string        // the same as text (colWithID)
+	Kind                  string        // "numeric", "categorical" or "numeric, two values" (binary)
+	OutsideGraph          bool          // a declared model input in no graph node
 	StdDiff               string
 	Imbalanced            bool
 	Levels                bool // described by levels, with counts, rather than bins
@@ -205,7 +211,11 @@ type chartData struct {
 func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	p := &page{
 		Res:             res,
-		Title:           fmt.Sprintf("Performance audit of %s: %s compared with %s", res.Score, res.Groups.Comparison, res.Groups.Reference),
+		Title:           fmt.Sprintf("Performance audit of %s: %s compared with %s", subject(res, plainText), cmpName(res), refName(res)),
+		Subject:         template.HTML(subject(res, htmlInline)),
+		RefName:         refName(res),
+		CmpName:         cmpName(res),
+		Names:           headerNames(res),
 		IntervalName:    intervalName(res),
 		IntervalSetting: intervalSetting(res),
 		Diagnostics:     diagnostics(res),
@@ -248,7 +258,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 			if ci != "" {
 				p.HasIntervals = true
 			}
-			row := contributionRow{Node: c.Node, Mechanism: c.Mechanism, Value: formatDelta(m.Metric, c.Value),
+			row := contributionRow{Node: c.Node, Mechanism: contribMech(res, c), Value: formatDelta(m.Metric, c.Value),
 				CI: ci, Alone: formatDelta(m.Metric, c.Alone), IfEqualised: formatDelta(m.Metric, c.IfEqualised),
 				Role: role, RoleWords: roleWords[role], Unreliable: flags[c.Node]}
 			if c.NotEstimable {
@@ -282,7 +292,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	}
 	p.WhatIf, data.WhatIf = whatIf(res, games)
 	for _, m := range res.Mechanisms {
-		p.Mechanisms = append(p.Mechanisms, mechanismDiagnostics(m, flags[m.Node]))
+		p.Mechanisms = append(p.Mechanisms, mechanismDiagnostics(res, m, flags[m.Node]))
 	}
 	for _, r := range overviewRows(res, htmlInline) {
 		p.Overview = append(p.Overview, overviewView{Metric: r.Metric, Title: template.HTML(r.Title), Lead: template.HTML(r.Lead),
@@ -296,13 +306,13 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	if d := res.Details; d != nil {
 		p.HasDetails = true
 		p.Confusion = []confusionView{
-			confusion(res.Groups.Reference, "reference", d.Reference),
-			confusion(res.Groups.Comparison, "comparison", d.Comparison),
+			confusion(refName(res), "reference", d.Reference),
+			confusion(cmpName(res), "comparison", d.Comparison),
 		}
 		for _, g := range []struct {
 			name string
 			d    fairness.GroupDetails
-		}{{res.Groups.Reference, d.Reference}, {res.Groups.Comparison, d.Comparison}} {
+		}{{refName(res), d.Reference}, {cmpName(res), d.Comparison}} {
 			for _, b := range g.d.Curve {
 				p.Reliability = append(p.Reliability, reliabilityRow{Group: g.name,
 					Bin: fmt.Sprintf("%.0f–%.0f%%", 100*b.Lower, 100*b.Upper), Count: fmt.Sprint(b.Count),
@@ -317,6 +327,14 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	}
 	p.Settings = []keyValue{
 		{"Tool", strings.TrimSpace(res.Tool.Name + " " + res.Tool.Version)},
+	}
+	if m := modelLabel(res); m != "" {
+		p.Settings = append(p.Settings, keyValue{"Model audited", m})
+	}
+	if res.AuditDate != "" {
+		p.Settings = append(p.Settings, keyValue{"Audit date", res.AuditDate})
+	}
+	p.Settings = append(p.Settings, []keyValue{
 		{"Spec file", res.Inputs.SpecFile}, {"Spec SHA-256", res.Inputs.SpecSHA256},
 		{"Data file", res.Inputs.DataFile}, {"Data SHA-256", res.Inputs.DataSHA256},
 		{"Seed", fmt.Sprint(res.Seed)}, {"Decision threshold", p.Threshold},
@@ -327,7 +345,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Missing values", missingSetting(res.Settings)},
 		{"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},
 		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", p.IntervalSetting},
-	}
+	}...)
 	js, err := encodeOptions(data)
 	if err != nil {
 		return nil, err
@@ -444,10 +462,10 @@ const stdDiffFlag = 0.1
 
 // column formats one column's distributions for its drill-down card.
 func column(res *fairness.Result, c fairness.ColumnDetails, node string) columnView {
-	v := columnView{Name: c.Name, Node: node, Kind: "numeric", StdDiff: "undefined", OutsideGraph: c.OutsideGraph}
+	v := columnView{Name: c.Name, Label: colCode(res, c.Name), LabelText: colWithID(res, c.Name), Node: node, Kind: "numeric", StdDiff: "undefined", OutsideGraph: c.OutsideGraph}
 	for _, m := range res.Mechanisms {
 		if m.Node == node {
-			v.Mechanism = m.Mechanism
+			v.Mechanism = mechName(res, m.Node)
 		}
 	}
 	switch {
@@ -472,8 +490,8 @@ func column(res *fairness.Result, c fairness.ColumnDetails, node string) columnV
 		v.Bins = append(v.Bins, row)
 	}
 	if !c.Categorical && !c.Binary {
-		v.Summary = fmt.Sprintf("mean %s (SD %s) for %s, %s (SD %s) for %s", formatEdge(c.MeanRef), formatEdge(c.SDRef), res.Groups.Reference,
-			formatEdge(c.MeanCmp), formatEdge(c.SDCmp), res.Groups.Comparison)
+		v.Summary = fmt.Sprintf("mean %s (SD %s) for %s, %s (SD %s) for %s", formatEdge(c.MeanRef), formatEdge(c.SDRef), refName(res),
+			formatEdge(c.MeanCmp), formatEdge(c.SDCmp), cmpName(res))
 	}
 	return v
 }
@@ -495,4 +513,41 @@ func codeSpans(s string) template.HTML {
 		}
 	}
 	return template.HTML(b.String())
+}
+
+// namesView holds the header's facts as the page shows them: display
+// names, each followed by the identifier it stands for when it has one
+// (withID; the column, label and score as code, codeWithID), and the
+// model and audit date ("" when absent).
+type namesView struct {
+	GroupColumn, Label, Score template.HTML
+	Reference, Comparison     string
+	Model, AuditDate          string
+}
+
+// headerNames builds the header's facts of res.
+func headerNames(res *fairness.Result) namesView {
+	g := res.Groups
+	return namesView{GroupColumn: colCode(res, g.Column), Reference: withID(refName(res), g.Reference),
+		Comparison: withID(cmpName(res), g.Comparison), Label: codeWithID(nodeName(res, res.Label), res.Label),
+		Score: colCode(res, res.Score), Model: modelLabel(res), AuditDate: res.AuditDate}
+}
+
+// colCode writes a column as colWithID does, label and identifier each as
+// a <code> element.
+func colCode(res *fairness.Result, col string) template.HTML {
+	if res.Names.ColumnName(col) == col {
+		return template.HTML(htmlInline.code(colLabel(res, col)))
+	}
+	return codeWithID(colLabel(res, col), col)
+}
+
+// codeWithID writes a display name as a <code> element followed by the
+// identifier it stands for as another, when they differ; the identifier
+// alone otherwise. Both are escaped.
+func codeWithID(display, id string) template.HTML {
+	if display == id {
+		return template.HTML(htmlInline.code(id))
+	}
+	return template.HTML(htmlInline.code(display) + " (" + htmlInline.code(id) + ")")
 }

@@ -3,7 +3,6 @@ package report
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"github.com/gapwise/gapwise/fairness"
 )
@@ -32,10 +31,11 @@ type diagnosticsView struct {
 }
 
 // mechanismDiagnostics formats one mechanism's row of the diagnostics
-// table.
-func mechanismDiagnostics(m fairness.MechanismResult, flag string) mechanismView {
-	v := mechanismView{Node: m.Node, Mechanism: m.Mechanism,
-		Parents: strings.Join(m.Parents, ", "), Columns: strings.Join(m.Columns, ", "),
+// table, naming the node, its parents and its columns by their display
+// names (the columns followed by their identifiers).
+func mechanismDiagnostics(res *fairness.Result, m fairness.MechanismResult, flag string) mechanismView {
+	v := mechanismView{Node: nodeName(res, m.Node), Mechanism: mechName(res, m.Node),
+		Parents: nodeNames(res, m.Parents), Columns: colsWithID(res, m.Columns),
 		Classifier: m.Classifier, ParentClassifier: m.ParentClassifier,
 		AUC: formatDiag(m.AUC), ESS: formatCount(math.Round(m.ESS)), ESSShare: fmt.Sprintf("%.1f%%", 100*m.ESSShare),
 		MaxShare: fmt.Sprintf("%.2f%%", 100*m.MaxShare), MeanRatio: formatDiag(m.MeanRatio), Unreliable: flag,
@@ -54,14 +54,14 @@ func diagnostics(res *fairness.Result) diagnosticsView {
 		d.HasComparisonESS = d.HasComparisonESS || m.ComparisonESS > 0
 		d.Clipped = d.Clipped || m.ClippedReference > 0 || m.ClippedComparison > 0
 		for _, l := range m.Losses {
-			d.Candidates = append(d.Candidates, candidateRow{Mechanism: m.Mechanism, Classifier: l.Classifier,
+			d.Candidates = append(d.Candidates, candidateRow{Mechanism: mechName(res, m.Node), Classifier: l.Classifier,
 				LogLoss: fmt.Sprintf("%.4f", l.LogLoss), OddsCheck: formatDiag(l.OddsCheck), Chosen: l.Classifier == m.Classifier})
 		}
 	}
 	rows, partial := hybridRows(res)
 	for _, h := range rows {
 		d.Hybrids = append(d.Hybrids, hybridView{Side: h.Side, Records: fmt.Sprint(h.Records), Which: h.Which,
-			Nodes: nodeList(h.Nodes), ESS: formatCount(math.Round(h.ESS)), ESSShare: optPercent(h.ESSShare),
+			Nodes: nodeList(res, h.Nodes), ESS: formatCount(math.Round(h.ESS)), ESSShare: optPercent(h.ESSShare),
 			MaxShare: fmt.Sprintf("%.2f%%", 100*h.MaxShare)})
 	}
 	d.HybridPartial = partial

@@ -79,7 +79,7 @@ func whatIf(res *fairness.Result, games map[string][]float64) (whatIfView, map[s
 	data := map[string]whatIfMetric{}
 	k := len(res.Mechanisms)
 	for i, m := range res.Mechanisms {
-		v.Mechanisms = append(v.Mechanisms, whatIfMechanism{Bit: i, Node: m.Node, Mechanism: m.Mechanism})
+		v.Mechanisms = append(v.Mechanisms, whatIfMechanism{Bit: i, Node: m.Node, Mechanism: mechName(res, m.Node)})
 	}
 	for i, m := range res.Metrics {
 		g := games[m.Metric]

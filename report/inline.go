@@ -26,3 +26,7 @@ var htmlInline = inlineStyle{
 	text: template.HTMLEscapeString,
 	code: func(s string) string { return "<code>" + template.HTMLEscapeString(s) + "</code>" },
 }
+
+// plainText is plainInline without the backticks: text for a page title
+// or a chart, where nothing is marked.
+var plainText = inlineStyle{text: func(s string) string { return s }, code: func(s string) string { return s }}

@@ -48,14 +48,25 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 // mdSentence (markdown_escape.go).
 type mdPrinter func(format string, args ...any)
 
-// mdHeader prints the heading and the synthetic-data note.
+// mdHeader prints the heading, the audited model and the audit date when
+// the Result names them, and the synthetic-data note.
 func mdHeader(p mdPrinter, res *fairness.Result) {
-	g := res.Groups
+	what := subject(res, markdownInline)
 	if res.Title != "" {
 		p("## %s\n\n", mdText(res.Title))
-		p("Performance audit of %s: %s compared with %s.\n\n", mdCode(res.Score), mdText(g.Comparison), mdText(g.Reference))
+		p("Performance audit of %s: %s compared with %s.\n\n", what, mdText(cmpName(res)), mdText(refName(res)))
 	} else {
-		p("## Performance audit of %s: %s compared with %s\n\n", mdCode(res.Score), mdText(g.Comparison), mdText(g.Reference))
+		p("## Performance audit of %s: %s compared with %s\n\n", what, mdText(cmpName(res)), mdText(refName(res)))
+	}
+	var facts []string
+	if modelLabel(res) != "" {
+		facts = append(facts, "Score of the model: "+mdCodeWithID(colLabel(res, res.Score), res.Score))
+	}
+	if res.AuditDate != "" {
+		facts = append(facts, "Audit date: "+mdText(res.AuditDate))
+	}
+	if len(facts) > 0 {
+		p("%s.\n\n", strings.Join(facts, ". "))
 	}
 	if res.Synthetic {
 		p("> **Synthetic data.** These numbers come from an invented cohort and describe no real patients.\n\n")
@@ -67,8 +78,9 @@ func mdHeader(p mdPrinter, res *fairness.Result) {
 func mdSummaries(p mdPrinter, res *fairness.Result) {
 	g := res.Groups
 	p("Groups by %s: reference %s (%d records, %d events), comparison %s (%d records, %d events). Label %s%s, decision threshold %s.\n\n",
-		mdCode(g.Column), mdText(g.Reference), g.NReference, g.EventsReference,
-		mdText(g.Comparison), g.NComparison, g.EventsComparison, mdCode(res.Label), mdText(labelWords(res.LabelValues)), formatThreshold(res.Threshold))
+		mdCodeWithID(colLabel(res, g.Column), g.Column), mdText(withID(refName(res), g.Reference)), g.NReference, g.EventsReference,
+		mdText(withID(cmpName(res), g.Comparison)), g.NComparison, g.EventsComparison, mdCodeWithID(nodeName(res, res.Label), res.Label),
+		mdText(labelWords(res.LabelValues)), formatThreshold(res.Threshold))
 	if s := excludedSentence(g); s != "" {
 		p("%s\n\n", mdText(s))
 	}
@@ -83,7 +95,7 @@ func mdSummaries(p mdPrinter, res *fairness.Result) {
 // mdGroupTable prints the two groups' metric values and the gaps.
 func mdGroupTable(p mdPrinter, res *fairness.Result) {
 	p("### Metrics by group\n\n")
-	p("| Metric | %s (reference) | %s (comparison) | Gap | From |\n", mdText(res.Groups.Reference), mdText(res.Groups.Comparison))
+	p("| Metric | %s (reference) | %s (comparison) | Gap | From |\n", mdText(refName(res)), mdText(cmpName(res)))
 	p("| --- | ---: | ---: | ---: | --- |\n")
 	for _, m := range res.Metrics {
 		p("| %s | %s | %s | %s | %s |\n", mdText(MetricTitle(m.Metric)),
@@ -109,7 +121,7 @@ func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult,
 	p("| Mechanism | Contribution | %s | Alone | Gap if equalised |%s\n", mdText(intervalName(res)), head)
 	p("| --- | ---: | ---: | ---: | ---: |%s\n", rule)
 	for i, c := range m.Contributions {
-		name := mdCodeCell(c.Mechanism)
+		name := mdCodeCell(contribMech(res, c))
 		if _, ok := flags[c.Node]; ok {
 			name += " (unreliable)"
 		}
@@ -190,4 +202,14 @@ func orDash(s string) string {
 		return "–"
 	}
 	return s
+}
+
+// mdCodeWithID writes a display name as code followed by the identifier
+// it stands for, "`haemoglobin` (`hb`)", when they differ; the identifier
+// as code otherwise.
+func mdCodeWithID(display, id string) string {
+	if display == id {
+		return mdCode(id)
+	}
+	return mdCode(display) + " (" + mdCode(id) + ")"
 }

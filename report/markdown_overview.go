@@ -9,13 +9,12 @@ var markdownCellInline = inlineStyle{text: mdText, code: mdCodeCell}
 // mdOverview prints the overview table (overviewRows) and
 // overviewCaution.
 func mdOverview(p mdPrinter, res *fairness.Result) {
-	g := res.Groups
 	p("### Overview\n\n")
 	if len(res.Metrics) == 0 {
 		p("The result holds no metrics.\n\n%s\n\n", overviewCaution)
 		return
 	}
-	p("| Metric | %s (reference) | %s (comparison) | Gap | Largest contribution | Reliability |\n", mdText(g.Reference), mdText(g.Comparison))
+	p("| Metric | %s (reference) | %s (comparison) | Gap | Largest contribution | Reliability |\n", mdText(refName(res)), mdText(cmpName(res)))
 	p("| --- | ---: | ---: | ---: | --- | --- |\n")
 	for _, r := range overviewRows(res, markdownCellInline) {
 		lead := r.Lead

@@ -107,7 +107,7 @@ func verdictWords(res *fairness.Result, h fairness.Headline, numbers map[int]int
 			continue
 		}
 		refs = append(refs, numbers[i])
-		if r := warningReason(w, st); !slices.Contains(reasons, r) {
+		if r := warningReason(res, w, st); !slices.Contains(reasons, r) {
 			reasons = append(reasons, r)
 		}
 	}

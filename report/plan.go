@@ -31,12 +31,19 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	if p.Synthetic {
 		fmt.Fprintln(b, "SYNTHETIC DATA: the records are invented and describe no real patients.")
 	}
-	g := p.Groups
+	g, names := p.Groups, p.Names
 	fmt.Fprintf(b, "\n  data        %s\n", pt(spec.DataPath))
-	fmt.Fprintf(b, "  label       %s%s\n", pt(p.Label), pt(labelWords(p.LabelValues)))
-	fmt.Fprintf(b, "  score       %s (positive when >= %v)\n", pt(p.Score), p.Threshold)
+	if m := p.Model; m != nil {
+		fmt.Fprintf(b, "  model       %s\n", pt(modelLabel(&fairness.Result{Model: m})))
+	}
+	if spec.AuditDate != "" {
+		fmt.Fprintf(b, "  audit date  %s\n", pt(spec.AuditDate))
+	}
+	fmt.Fprintf(b, "  label       %s%s\n", pt(withID(names.NodeName(p.Label), p.Label)), pt(labelWords(p.LabelValues)))
+	fmt.Fprintf(b, "  score       %s (positive when >= %v)\n", pt(columnWithID(names, p.Score)), p.Threshold)
 	fmt.Fprintf(b, "  groups      column %s: reference %s (%d records, %d events, %d dropped), comparison %s (%d records, %d events, %d dropped)\n",
-		pt(g.Column), pt(g.Reference), g.NReference, g.EventsReference, g.DroppedReference, pt(g.Comparison), g.NComparison, g.EventsComparison, g.DroppedComparison)
+		pt(columnWithID(names, g.Column)), pt(withID(names.GroupName(g.Reference, false), g.Reference)), g.NReference, g.EventsReference, g.DroppedReference,
+		pt(withID(names.GroupName(g.Comparison, true), g.Comparison)), g.NComparison, g.EventsComparison, g.DroppedComparison)
 	if s := excludedSentence(g); s != "" {
 		fmt.Fprintf(b, "  excluded    %s\n", pt(s))
 	}
@@ -59,7 +66,7 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	} else {
 		fmt.Fprintf(b, "  intervals   none (spec key intervals or decompose --intervals N)\n")
 	}
-	writePlanNodes(b, p.Nodes)
+	writePlanNodes(b, p.Nodes, names)
 	if len(p.Warnings) > 0 {
 		fmt.Fprintln(b, "\nWarnings:")
 		for _, w := range p.Warnings {
@@ -69,13 +76,18 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 }
 
 // writePlanNodes prints the mechanisms, their columns and their encoded
-// features as aligned columns, widths counted after escaping.
-func writePlanNodes(b *strings.Builder, nodes []fairness.PlanNode) {
+// features as aligned columns, widths counted after escaping; names gives
+// the display names (nil: none), each column followed by its identifier.
+func writePlanNodes(b *strings.Builder, nodes []fairness.PlanNode, names *fairness.Names) {
 	fmt.Fprintf(b, "\n%d mechanisms:\n", len(nodes))
 	mech, cols := make([]string, len(nodes)), make([]string, len(nodes))
 	wMech, wCols := len("mechanism"), len("columns")
 	for i, n := range nodes {
-		mech[i], cols[i] = Printable(n.Mechanism), Printable(strings.Join(n.Columns, ", "))
+		mech[i] = Printable(n.Mechanism)
+		if names != nil {
+			mech[i] = Printable(names.Mechanism(n.Node, n.Parents))
+		}
+		cols[i] = Printable(columnsWithID(names, n.Columns))
 		wMech = max(wMech, utf8.RuneCountInString(mech[i]))
 		wCols = max(wCols, utf8.RuneCountInString(cols[i]))
 	}

@@ -193,9 +193,9 @@ func trimNegZero(s string) string {
 	return s
 }
 
-// mechanismPhrase describes a mechanism in words: the distribution of a
-// root node, or a node given its parents; the label is read as how often
-// it occurs.
+// mechanismPhrase describes a mechanism in words, naming the node and its
+// parents by their display names: the distribution of a root node, or a
+// node given its parents; the label is read as how often it occurs.
 func mechanismPhrase(res *fairness.Result, node string, st inlineStyle) string {
 	var parents []string
 	for _, m := range res.Mechanisms {
@@ -206,21 +206,22 @@ func mechanismPhrase(res *fairness.Result, node string, st inlineStyle) string {
 	q := st.code
 	var qp []string
 	for _, p := range parents {
-		qp = append(qp, q(p))
+		qp = append(qp, q(nodeName(res, p)))
 	}
 	given := ""
 	if len(qp) > 0 {
 		given = " given " + joinWords(qp)
 	}
+	name := q(nodeName(res, node))
 	switch {
 	case node == res.Label:
-		return "how often " + q(node) + " occurs" + given
+		return "how often " + name + " occurs" + given
 	case node == res.Score:
-		return "how the score " + q(node) + " is assigned" + given
+		return "how the score " + name + " is assigned" + given
 	case len(qp) == 0:
-		return "the mix of " + q(node)
+		return "the mix of " + name
 	}
-	return "how " + q(node) + " presents" + given
+	return "how " + name + " presents" + given
 }
 
 // joinWords joins items as "a", "a and b" or "a, b and c".
@@ -285,7 +286,7 @@ func summaryText(res *fairness.Result, m fairness.MetricResult, st inlineStyle) 
 // interval, or that the groups do not differ at the precision shown.
 func gapSentence(res *fairness.Result, m fairness.MetricResult, st inlineStyle) string {
 	title := st.text(MetricTitle(m.Metric))
-	ref, cmp := st.text(res.Groups.Reference), st.text(res.Groups.Comparison)
+	ref, cmp := st.text(refName(res)), st.text(cmpName(res))
 	s := fmt.Sprintf("The %s is %s for %s and %s for %s (reference group).", title,
 		formatValue(m.Metric, m.Comparison), cmp, formatValue(m.Metric, m.Reference), ref)
 	ci := ""

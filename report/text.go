@@ -54,8 +54,15 @@ func (t *textWriter) header(res *fairness.Result) {
 	if res.Title != "" {
 		t.line("%s", strings.Join(strings.Fields(res.Title), " "))
 	}
-	t.line("%s %s: audit of %q against label %q%s, positive when score >= %s",
-		res.Tool.Name, res.Tool.Version, res.Score, res.Label, labelWords(res.LabelValues), trimFloat(res.Threshold))
+	t.line("%s %s: audit of %s against label %s%s, positive when score >= %s",
+		res.Tool.Name, res.Tool.Version, quotedWithID(colLabel(res, res.Score), res.Score), quotedWithID(nodeName(res, res.Label), res.Label),
+		labelWords(res.LabelValues), trimFloat(res.Threshold))
+	if m := modelLabel(res); m != "" {
+		t.line("model audited: %s", m)
+	}
+	if res.AuditDate != "" {
+		t.line("audit date: %s", res.AuditDate)
+	}
 	if res.Synthetic {
 		t.line("SYNTHETIC DATA: the records are invented and describe no real patients.")
 	}
@@ -64,10 +71,25 @@ func (t *textWriter) header(res *fairness.Result) {
 
 func (t *textWriter) groups(res *fairness.Result) {
 	g := res.Groups
-	t.line("Groups (column %q)", g.Column)
+	t.line("Groups (column %s)", quotedWithID(colLabel(res, g.Column), g.Column))
 	tab := textTable{header: []string{"role", "value", "records", "events", "dropped"}, right: []bool{false, false, true, true, true}}
-	tab.add("reference", g.Reference, fmt.Sprint(g.NReference), fmt.Sprint(g.EventsReference), fmt.Sprint(g.DroppedReference))
-	tab.add("comparison", g.Comparison, fmt.Sprint(g.NComparison), fmt.Sprint(g.EventsComparison), fmt.Sprint(g.DroppedComparison))
+	named := refName(res) != g.Reference || cmpName(res) != g.Comparison
+	if named {
+		tab = textTable{header: []string{"role", "group", "value", "records", "events", "dropped"}, right: []bool{false, false, false, true, true, true}}
+	}
+	for _, r := range []struct {
+		role, name, value  string
+		n, events, dropped int
+	}{
+		{"reference", refName(res), g.Reference, g.NReference, g.EventsReference, g.DroppedReference},
+		{"comparison", cmpName(res), g.Comparison, g.NComparison, g.EventsComparison, g.DroppedComparison},
+	} {
+		row := []string{r.role, r.value, fmt.Sprint(r.n), fmt.Sprint(r.events), fmt.Sprint(r.dropped)}
+		if named {
+			row = append([]string{r.role, r.name}, row[1:]...)
+		}
+		tab.add(row...)
+	}
 	tab.write(t.w, "  ")
 	if s := excludedSentence(g); s != "" {
 		t.line("  %s", s)
@@ -115,9 +137,10 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	}
 	tab := textTable{header: head, right: right}
 	for _, c := range m.Contributions {
-		row := []string{c.Mechanism, signed(c.Value), signed(c.Alone), signed(c.IfEqualised)}
+		mech := contribMech(res, c)
+		row := []string{mech, signed(c.Value), signed(c.Alone), signed(c.IfEqualised)}
 		if c.NotEstimable {
-			row = []string{c.Mechanism, notEstimable, "", ""}
+			row = []string{mech, notEstimable, "", ""}
 		}
 		if hasSE {
 			se := ""

@@ -2,7 +2,6 @@ package report
 
 import (
 	"fmt"
-	"strings"
 
 	"github.com/gapwise/gapwise/fairness"
 )
@@ -39,7 +38,7 @@ func (t *textWriter) mechanismWeights(res *fairness.Result) {
 	}
 	tab := textTable{header: head, right: right}
 	for _, m := range res.Mechanisms {
-		row := []string{m.Mechanism, m.Classifier, m.ParentClassifier, fixed(m.AUC), fmt.Sprintf("%.1f", m.ESS), fixed(m.ESSShare),
+		row := []string{mechName(res, m.Node), m.Classifier, m.ParentClassifier, fixed(m.AUC), fmt.Sprintf("%.1f", m.ESS), fixed(m.ESSShare),
 			fixed(m.MaxShare), fixed(m.MeanRatio), fixed(m.WorstStratumMean), fixed(m.ExtremeShare), tailShape(m.TailShape)}
 		if hasCmp {
 			row = append(row, fmt.Sprintf("%.1f", m.ComparisonESS), optFixed(m.ComparisonExtremeShare), tailShape(m.ComparisonTailShape))
@@ -70,7 +69,7 @@ func (t *textWriter) candidates(res *fairness.Result) {
 	tab := textTable{header: []string{"mechanism", "candidate", "oof log loss", "odds check"}, right: []bool{false, false, true, true}}
 	for _, m := range res.Mechanisms {
 		for _, l := range m.Losses {
-			tab.add(m.Mechanism, l.Classifier, fixed(l.LogLoss), fixed(l.OddsCheck))
+			tab.add(mechName(res, m.Node), l.Classifier, fixed(l.LogLoss), fixed(l.OddsCheck))
 		}
 	}
 	if len(tab.rows) == 0 {
@@ -91,7 +90,7 @@ func (t *textWriter) hybridWeights(res *fairness.Result) {
 		right: []bool{false, true, false, false, true, true, true}}
 	rows, partial := hybridRows(res)
 	for _, h := range rows {
-		tab.add(h.Side, fmt.Sprint(h.Records), h.Which, nodeList(h.Nodes), fmt.Sprintf("%.1f", h.ESS), optFixed(h.ESSShare), fixed(h.MaxShare))
+		tab.add(h.Side, fmt.Sprint(h.Records), h.Which, nodeList(res, h.Nodes), fmt.Sprintf("%.1f", h.ESS), optFixed(h.ESSShare), fixed(h.MaxShare))
 	}
 	tab.write(t.w, "  ")
 	t.line("  farthest: the hybrid farthest from the side's own group (all mechanisms in comparison form for the reference side, none for the comparison side).")
@@ -118,12 +117,13 @@ func (t *textWriter) effectiveRecords(res *fairness.Result) {
 	t.line("")
 }
 
-// nodeList prints node names separated by commas, or "none".
-func nodeList(nodes []string) string {
+// nodeList prints nodes by their display names separated by commas, or
+// "none".
+func nodeList(res *fairness.Result, nodes []string) string {
 	if len(nodes) == 0 {
 		return "none"
 	}
-	return strings.Join(nodes, ", ")
+	return nodeNames(res, nodes)
 }
 
 // optFixed formats an optional diagnostic with fixed, "n/a" when absent.

@@ -13,14 +13,14 @@ const overviewCaution = "These are statistical estimates that hold under the cau
 // overview prints the overview of every metric: values, gap, largest
 // contribution and verdict, then overviewCaution.
 func (t *textWriter) overview(res *fairness.Result) {
-	g := res.Groups
-	head := "Overview: gap = " + g.Comparison + " − " + g.Reference
+	ref, cmp := refName(res), cmpName(res)
+	head := "Overview: gap = " + cmp + " − " + ref
 	if intervalSetting(res) != "" {
 		head += "; " + intervalName(res) + "s in brackets"
 	}
 	t.line("%s", head)
 	for _, r := range overviewRows(res, plainInline) {
-		t.line("  %s: %s %s, %s %s; gap %s", r.Title, g.Comparison, r.Comparison, g.Reference, r.Reference, r.Gap)
+		t.line("  %s: %s %s, %s %s; gap %s", r.Title, cmp, r.Comparison, ref, r.Reference, r.Gap)
 		lead := "    largest contribution: " + r.Lead
 		if r.Share != "" {
 			lead += "; " + r.Share

@@ -91,16 +91,16 @@ var warningReasons = map[fairness.WarningKind]string{
 
 // warningReason is the cause of w as a clause (warningReasons, or its
 // kind's name), followed by the mechanism it concerns when it concerns
-// one, in style st: "the weights have a heavy tail for the mechanism of
-// `hb`".
-func warningReason(w fairness.Warning, st inlineStyle) string {
+// one (by its display name), in style st: "the weights have a heavy tail
+// for the mechanism of `hb`".
+func warningReason(res *fairness.Result, w fairness.Warning, st inlineStyle) string {
 	r, ok := warningReasons[w.Kind]
 	if !ok {
 		r = "of a " + strings.ReplaceAll(string(w.Kind), "_", " ") + " warning"
 	}
 	r = st.text(r)
 	if len(w.Nodes) == 1 {
-		r += " for the mechanism of " + st.code(w.Nodes[0])
+		r += " for the mechanism of " + st.code(nodeName(res, w.Nodes[0]))
 	}
 	return r
 }

@@ -35,7 +35,7 @@ func decompose(t *testing.T, o decomposeOptions) string {
 func TestDecomposeFormats(t *testing.T) {
 	spec := filepath.Join(demoDir(t), demoSpec)
 	text := decompose(t, decomposeOptions{spec: spec, format: formatText})
-	for _, w := range []string{"fnr (false-negative rate)", "residual (gap - sum)", "hb | anaemia, age", "Assumptions and cautions", "SYNTHETIC DATA"} {
+	for _, w := range []string{"fnr (false-negative rate)", "residual (gap - sum)", "haemoglobin | anaemia, age", "Assumptions and cautions", "SYNTHETIC DATA"} {
 		if !strings.Contains(text, w) {
 			t.Errorf("text output lacks %q", w)
 		}
@@ -181,7 +181,9 @@ func TestCheckDemo(t *testing.T) {
 	if err := runCheck(checkOptions{spec: filepath.Join(demoDir(t), demoSpec)}, &stdout, &stderr); err != nil {
 		t.Fatal(err)
 	}
-	for _, want := range []string{"spec and data are valid", "SYNTHETIC", "panel | anaemia", "mcv, rdw", "5 mechanisms", "fnr, fpr, ppv", "intervals   none"} {
+	// The demo spec names its nodes and columns (spec key names), with units.
+	for _, want := range []string{"spec and data are valid", "SYNTHETIC", "red-cell indices | anaemia", "mean cell volume, fL (mcv); red-cell distribution width, % (rdw)",
+		"model       Demo anaemia screening model (version 1.0)", "reference men (male)", "5 mechanisms", "fnr, fpr, ppv", "intervals   none"} {
 		if !strings.Contains(stdout.String(), want) {
 			t.Errorf("check output lacks %q:\n%s", want, stdout.String())
 		}

@@ -81,7 +81,7 @@ func TestDemoWritesEverything(t *testing.T) {
 		t.Fatal("demo with intervals has no FPR gap interval")
 	}
 	gapCI := fmt.Sprintf("gap %+.4f [%+.4f, %+.4f]", fpr.Gap, fpr.GapCI.Low, fpr.GapCI.High)
-	for _, want := range []string{"SYNTHETIC", "fpr", "largest: hb | anaemia, age", reportFile, gapCI} {
+	for _, want := range []string{"SYNTHETIC", "fpr", "largest: haemoglobin | anaemia, age", reportFile, gapCI} {
 		if !strings.Contains(sharedOut, want) {
 			t.Errorf("summary lacks %q:\n%s", want, sharedOut)
 		}

@@ -8,7 +8,11 @@ import (
 // AnaemiaSpec returns the demo's audit spec (YAML) for the cohort written to
 // dataFile, a path relative to the spec's folder. It marks the data
 // synthetic and audits FNR, FPR, PPV, Brier score, calibration-in-the-large
-// and ECE at threshold 0.5 with seed 1.
+// and ECE at threshold 0.5 with seed 1. Its names key gives the groups,
+// nodes and columns readable names with the units of the generator
+// (GroupParams), and its model key names the invented screening model
+// that wrote the score; it has no audit_date, so the demo's outputs are
+// the same on any day.
 func AnaemiaSpec(dataFile string) []byte {
 	return []byte(`# Anaemia screening audit. SYNTHETIC DATA: invented by gapwise's demo
 # generator (package fairness/synth); it describes no real patients.
@@ -32,6 +36,18 @@ graph:
     parents: [anaemia]
   - node: bmi
     parents: [age]
+names:
+  groups: {reference: men, comparison: women}
+  nodes:
+    age: {name: age, unit: years}
+    hb: {name: haemoglobin, unit: g/dL}
+    panel: red-cell indices
+    bmi: {name: body-mass index, unit: kg/m²}
+  columns:
+    mcv: {name: mean cell volume, unit: fL}
+    rdw: {name: red-cell distribution width, unit: "%"}
+    score: anaemia risk score
+model: {name: Demo anaemia screening model, version: "1.0"}
 `)
 }
 
