@@ -159,6 +159,7 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		for i := range md.Contributions {
 			md.ContributionCIs[i] = interval(func(r []MetricDecomposition) float64 { return r[m].Contributions[i] })
 		}
+		md.ImpactRatioCI, md.LowerToHigherCI = ratioIntervals(ok, m, md.Metric, lo, hi)
 	}
 	return d, sum, nil
 }

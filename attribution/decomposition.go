@@ -156,6 +156,11 @@ type MetricDecomposition struct {
 	GapCI           *Interval
 	ResidualCI      *Interval
 	ContributionCIs []Interval
+	// ImpactRatioCI bounds Comparison ÷ Reference and LowerToHigherCI
+	// min ÷ max of the two, for rates (ratioIntervals); nil otherwise and
+	// when a replicate leaves the ratio undefined.
+	ImpactRatioCI   *Interval
+	LowerToHigherCI *Interval
 }
 
 // Interval is a two-sided percentile interval.

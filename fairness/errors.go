@@ -6,6 +6,7 @@ import (
 	"strconv"
 
 	"github.com/gapwise/gapwise/attribution"
+	"github.com/gapwise/gapwise/fairness/policy"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -122,14 +123,15 @@ func (e *MetricUndefinedError) Error() string {
 func (e *MetricUndefinedError) Unwrap() error { return metrics.ErrUndefined }
 
 // IsInputError reports whether err is caused by the user's input (spec,
-// data, or a metric without a value on the data) rather than by a failure
+// data, policy file, or a metric without a value on the data) rather than by a failure
 // of the tool. The CLI exits with status 2 for these and 1 otherwise.
 func IsInputError(err error) bool {
 	var se *SpecError
 	var de *DataError
 	var me *MetricUndefinedError
 	var ae *attribution.MetricError
-	return errors.As(err, &se) || errors.As(err, &de) || errors.As(err, &me) || errors.As(err, &ae)
+	var pe *policy.Error
+	return errors.As(err, &se) || errors.As(err, &de) || errors.As(err, &me) || errors.As(err, &ae) || errors.As(err, &pe)
 }
 
 // inputError is a sentence describing one problem that wraps the sentinel

@@ -1,6 +1,9 @@
 package fairness
 
-import "github.com/gapwise/gapwise/attribution"
+import (
+	"github.com/gapwise/gapwise/attribution"
+	"github.com/gapwise/gapwise/fairness/policy"
+)
 
 // Result is the outcome of an audit: per metric, the gap between the two
 // groups and its split into mechanism contributions, plus diagnostics. Its
@@ -45,6 +48,10 @@ type Result struct {
 	Synthetic   bool      `json:"synthetic,omitempty"` // data is invented (the demo)
 	Inputs      InputInfo `json:"inputs"`
 	Details     *Details  `json:"details,omitempty"` // per-group descriptions for the report
+	// Policy is the judgement of the policy file given to the run
+	// (RunOptions.Policy, --policy): every check and whether the run
+	// passed; absent without a policy.
+	Policy *policy.Outcome `json:"policy,omitempty"`
 }
 
 // ToolInfo names the program that produced the result.
@@ -167,8 +174,17 @@ type MetricResult struct {
 	GapCI        *Interval `json:"gap_ci,omitempty"`
 	// ResidualCI is the bootstrap interval of the residual: the large
 	// residual warning fires only when it excludes zero.
-	ResidualCI    *Interval      `json:"residual_ci,omitempty"`
-	Contributions []Contribution `json:"contributions"`
+	ResidualCI *Interval `json:"residual_ci,omitempty"`
+	// ImpactRatio is Comparison ÷ Reference for a rate (metrics.Fact.
+	// Proportion), reported beside the gap; absent for other metrics and
+	// when Reference is 0. ImpactRatioCI is its bootstrap interval and
+	// LowerToHigherCI that of min ÷ max of the two values (what a policy's
+	// min_ratio judges on a bound); absent without intervals or when a
+	// replicate leaves the ratio undefined.
+	ImpactRatio     *float64       `json:"impact_ratio,omitempty"`
+	ImpactRatioCI   *Interval      `json:"impact_ratio_ci,omitempty"`
+	LowerToHigherCI *Interval      `json:"lower_to_higher_ci,omitempty"`
+	Contributions   []Contribution `json:"contributions"`
 	// Coalitions lists every coalition of the mechanisms with its value in
 	// the game whose Shapley values are the contributions (Coalition), in
 	// the order of the bit masks S = 0 … 2^k − 1, bit i standing for

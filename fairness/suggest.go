@@ -1,5 +1,7 @@
 package fairness
 
+import "github.com/gapwise/gapwise/internal/didyoumean"
+
 // Known keys at each level of the spec, for suggestions after a misspelt
 // key (unknownKey).
 var (
@@ -20,39 +22,7 @@ func (p *specParser) unknownKey(line int, key, name string, known []string) erro
 	return specErr(p.file, line, key, ErrUnknownKey, "unknown key %q", name)
 }
 
-// suggest returns the candidate nearest to s in Levenshtein distance when
-// that distance is at most 2, or at most a third of s's length for longer
-// names; ties go to the earlier candidate.
+// suggest returns the candidate nearest to s (didyoumean.Nearest).
 func suggest(s string, candidates []string) (string, bool) {
-	best, bestD := "", -1
-	for _, c := range candidates {
-		if d := levenshtein(s, c); bestD < 0 || d < bestD {
-			best, bestD = c, d
-		}
-	}
-	limit := max(2, len(s)/3)
-	return best, bestD >= 0 && bestD <= limit && bestD > 0
-}
-
-// levenshtein returns the edit distance between a and b (insertions,
-// deletions and substitutions of bytes; Levenshtein 1966, the usual
-// two-row dynamic programme).
-func levenshtein(a, b string) int {
-	prev := make([]int, len(b)+1)
-	cur := make([]int, len(b)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(a); i++ {
-		cur[0] = i
-		for j := 1; j <= len(b); j++ {
-			cost := 1
-			if a[i-1] == b[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(b)]
+	return didyoumean.Nearest(s, candidates)
 }

@@ -6,19 +6,6 @@ import (
 	"testing"
 )
 
-// TestLevenshtein checks the edit distance on textbook pairs
-// (kitten → sitting is 3, the classic example; the others by hand).
-func TestLevenshtein(t *testing.T) {
-	for _, tc := range []struct {
-		a, b string
-		d    int
-	}{{"kitten", "sitting", 3}, {"", "abc", 3}, {"abc", "abc", 0}, {"flaw", "lawn", 2}, {"treshold", "threshold", 1}} {
-		if got := levenshtein(tc.a, tc.b); got != tc.d {
-			t.Errorf("levenshtein(%q, %q) = %d, want %d", tc.a, tc.b, got, tc.d)
-		}
-	}
-}
-
 // TestDidYouMean: a misspelt key at every level gets the nearest known
 // key; a key far from all gets none.
 func TestDidYouMean(t *testing.T) {

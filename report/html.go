@@ -105,6 +105,8 @@ type page struct {
 	HasSplitSD      bool   // some contribution has a spread over fold splits
 	Diagnostics     diagnosticsView
 	WhatIf          whatIfView // the what-if panel (html_whatif.go)
+	Gate            *gateView  // the policy section (html_policy.go), nil without a policy
+	ImpactNote      string     // what the ratio beside a rate's gap is (impactNote), or ""
 }
 
 type keyValue struct{ Key, Value string }
@@ -137,6 +139,7 @@ type metricView struct {
 	Basis                            string // records each group's value rests on (basisPair)
 	SumLabel                         string // "Sum of contributions", noting those not shown (sumLabel)
 	AllRecords                       string // the gap before rows were dropped (allRecordsText), or ""
+	Impact                           string // the impact ratio of a rate (impactText), or ""
 	SidesNote, ResidualNote          string // sidesLine ("" without) and residualNote
 	Rows                             []contributionRow
 	Selected                         bool
@@ -227,6 +230,8 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		LowESSShare:     fmt.Sprintf("%.0f%%", 100*fairness.WarnESSShare),
 		DrillNodes:      drillNodes,
 		Caution:         overviewCaution,
+		Gate:            policyGate(res),
+		ImpactNote:      impactNote(res),
 	}
 	if res.Inputs.DataFile == "" {
 		p.Cohort = "the audited records"
@@ -250,7 +255,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 			Gap: formatDelta(m.Metric, m.Gap), ReferenceCI: formatValueInterval(m.Metric, m.ReferenceCI),
 			ComparisonCI: formatValueInterval(m.Metric, m.ComparisonCI), GapCI: formatGapInterval(m),
 			Estimated: formatDelta(m.Metric, m.Estimated), Residual: residualDelta(m),
-			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m),
+			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m), Impact: impactText(m),
 			SidesNote: sidesLine(m, reportUnits), ResidualNote: residualNote(res), SumLabel: sumLabel(m, "Sum of contributions")}
 		for _, c := range m.Contributions {
 			role := gapRole(m, c.Value)

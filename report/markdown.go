@@ -25,6 +25,7 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 	mdHeader(p, res)
 	mdOverview(p, res)
 	mdWarnings(p, res)
+	mdPolicy(p, res)
 	mdSummaries(p, res)
 	mdGroupTable(p, res)
 	flags := unreliable(res)
@@ -101,10 +102,13 @@ func mdGroupTable(p mdPrinter, res *fairness.Result) {
 		p("| %s | %s | %s | %s | %s |\n", mdText(MetricTitle(m.Metric)),
 			withInterval(formatValue(m.Metric, m.Reference), formatValueInterval(m.Metric, m.ReferenceCI)),
 			withInterval(formatValue(m.Metric, m.Comparison), formatValueInterval(m.Metric, m.ComparisonCI)),
-			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m))+mdText(allRecordsSuffix(m)),
+			withInterval(formatDelta(m.Metric, m.Gap), formatGapInterval(m))+mdImpact(m)+mdText(allRecordsSuffix(m)),
 			mdText(basisPair(m.Metric, m.RecordsReference, m.RecordsComparison)))
 	}
 	p("\n")
+	if note := impactNote(res); note != "" {
+		p("%s\n\n", mdText(note))
+	}
 }
 
 // mdDecomposition prints one metric's contributions, their sum, the

@@ -31,6 +31,7 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 	tw.header(res)
 	tw.overview(res)
 	tw.warnings(res)
+	tw.policy(res)
 	tw.groups(res)
 	for _, m := range res.Metrics {
 		tw.metric(res, m)
@@ -103,6 +104,7 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	vals.add("reference", fixed(m.Reference), interval(m.ReferenceCI, fixed), basis(m.Metric, m.RecordsReference))
 	vals.add("comparison", fixed(m.Comparison), interval(m.ComparisonCI, fixed), basis(m.Metric, m.RecordsComparison))
 	vals.add("gap (comparison - reference)", signed(m.Gap), interval(m.GapCI, signed), "")
+	impactRow(&vals, m)
 	if a := m.AllRecords; a != nil {
 		vals.add("gap before dropping rows", signed(a.Gap), "", fmt.Sprintf("%s / %s records", thousandsText(a.NReference), thousandsText(a.NComparison)))
 	}

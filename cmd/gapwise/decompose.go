@@ -36,6 +36,7 @@ type decomposeOptions struct {
 
 	intervals  intervalOptions
 	coalitions coalitionOptions
+	policy     policyOptions
 }
 
 func newDecomposeCmd(stdout, stderr io.Writer) *cobra.Command {
@@ -64,7 +65,12 @@ mechanisms, kept for up to --coalition-limit mechanisms (default 12, at most
 
 --audit-date YYYY-MM-DD (or today) dates the audit in the outputs, in place
 of the spec's audit_date key; without either the outputs hold no date, so
-the same inputs give the same bytes on any day.`,
+the same inputs give the same bytes on any day.
+
+--policy FILE judges the result against a policy file of limits on the gaps
+(and on the ratio between the groups for rates), lists every check in each
+output and exits with status 3 when one breaches, after writing the
+outputs; see the README's "Policy gate" section.`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if err := specFromArgs(cmd, args, &o.spec); err != nil {
@@ -83,6 +89,7 @@ the same inputs give the same bytes on any day.`,
 	bindIntervalFlags(cmd, &o.intervals, 0, false)
 	bindCoalitionFlags(cmd, &o.coalitions)
 	bindAuditDateFlag(cmd, &o.date)
+	bindPolicyFlag(cmd, &o.policy)
 	return cmd
 }
 
@@ -105,7 +112,7 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	out := outDir{path: o.out, force: o.force, inputs: []string{o.spec}}
+	out := outDir{path: o.out, force: o.force, inputs: inputFiles(o.spec, o.policy.file)}
 	if o.out != "" {
 		if err := out.check(resultFile, reportFile); err != nil {
 			return err
@@ -118,7 +125,11 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if date != "" {
 		spec.AuditDate = date
 	}
-	out.inputs = []string{o.spec, spec.DataPath}
+	out.inputs = inputFiles(o.spec, o.policy.file, spec.DataPath)
+	pol, err := o.policy.load(spec, o.intervals.runIntervals(spec.Intervals))
+	if err != nil {
+		return err
+	}
 	if o.out != "" {
 		if err := out.checkInputs(resultFile, reportFile); err != nil {
 			return err
@@ -128,6 +139,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	defer line.clear()
 	res, err := audit(spec, o.workers, o.intervals, o.coalitions.runLimit(), line)
 	if err != nil {
+		return err
+	}
+	if err := fairness.ApplyPolicy(res, pol); err != nil {
 		return err
 	}
 	var files []outFile
@@ -145,8 +159,22 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 			return err
 		}
 	}
-	_, err = stdout.Write(buf.Bytes())
-	return err
+	if _, err = stdout.Write(buf.Bytes()); err != nil {
+		return err
+	}
+	return policyVerdict(res)
+}
+
+// inputFiles lists the input files an output must not overwrite, leaving
+// out those not given ("").
+func inputFiles(paths ...string) []string {
+	var out []string
+	for _, p := range paths {
+		if p != "" {
+			out = append(out, p)
+		}
+	}
+	return out
 }
 
 // checkFormat rejects an unknown --format.

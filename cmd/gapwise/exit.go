@@ -11,6 +11,7 @@ const (
 	exitOK      = 0
 	exitFailure = 1 // the tool failed (I/O, an estimation error)
 	exitInput   = 2 // bad input or usage
+	exitPolicy  = 3 // the result breaches the --policy file (outputs are written)
 )
 
 // usageError is a misuse of the command line found by a run function, such
@@ -29,6 +30,7 @@ func (e *runError) Unwrap() error { return e.err }
 // exitCode maps an error from executing the root command to an exit
 // status: errors from cobra's parsing, usage errors and input errors
 // (fairness.IsInputError, an output folder that is in the way) give 2, a
+// result that breaches its policy 3, a
 // write stopped by a signal 128+n (the shell's status for signal n, used
 // only when the signal cannot be re-raised), everything else 1.
 func exitCode(err error) int {
@@ -42,6 +44,10 @@ func exitCode(err error) int {
 	var ie *interruptedError
 	if errors.As(err, &ie) {
 		return signalStatus(ie.sig)
+	}
+	var pb *policyBreachError
+	if errors.As(err, &pb) {
+		return exitPolicy
 	}
 	var ue *usageError
 	var oe *outDirError

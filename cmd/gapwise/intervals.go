@@ -77,6 +77,15 @@ func (o intervalOptions) override(spec fairness.Intervals) *fairness.Intervals {
 	return &iv
 }
 
+// runIntervals returns the bootstrap settings a run will use: the
+// override of the flags, or the spec's intervals key.
+func (o intervalOptions) runIntervals(spec fairness.Intervals) fairness.Intervals {
+	if iv := o.override(spec); iv != nil {
+		return *iv
+	}
+	return spec
+}
+
 // allSet treats every bootstrap flag as given, for commands (demo) whose
 // spec never asks for intervals itself.
 func (o intervalOptions) allSet() intervalOptions {
