@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"sort"
 	"sync"
 	"sync/atomic"
 
@@ -37,6 +36,12 @@ type BootstrapOptions struct {
 	// the number done and the total; calls may come from several goroutines
 	// but never concurrently.
 	Progress func(done, total int)
+	// Replicate, if non-nil, receives every computed replicate b (0 ≤ b <
+	// Replicates) with its metrics, for studies that form other intervals
+	// from the same replicates; calls come from several goroutines at
+	// once, each b exactly once, and must not keep md's slices beyond
+	// reading them.
+	Replicate func(b int, md []MetricDecomposition)
 }
 
 // BootstrapSummary reports how the intervals were made: the settings used
@@ -119,6 +124,9 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		if err == nil {
 			dropGames(md)
 			reps[b] = md
+			if bopt.Replicate != nil {
+				bopt.Replicate(b, md)
+			}
 		}
 		if bopt.Progress != nil {
 			progressMu.Lock()
@@ -145,8 +153,7 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		for b, r := range ok {
 			x[b] = get(r)
 		}
-		sort.Float64s(x)
-		return Interval{Low: quantile(x, lo), High: quantile(x, hi)}
+		return PercentileInterval(x, bopt.Level)
 	}
 	for m := range d.Metrics {
 		md := &d.Metrics[m]

@@ -296,6 +296,7 @@ func splitGapsSides(mds []MetricDecomposition, sides []*sideEstimate, opt Option
 		if diag && len(sides) == 2 {
 			mds[m].Agreement = agreement(perSide, vars, m, k, true)
 			mds[m].ResidualSE = residualSE(mds[m], sides, vars, m, mix)
+			mds[m].FixedRatioSE = fixedRatioSE(vars, m, mds[m].ReferenceWeight)
 		}
 	}
 	setOneSideWeight(mds, sides)

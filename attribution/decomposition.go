@@ -161,6 +161,11 @@ type MetricDecomposition struct {
 	// when a replicate leaves the ratio undefined.
 	ImpactRatioCI   *Interval
 	LowerToHigherCI *Interval
+
+	// FixedRatioSE holds delta-method standard errors with the fitted
+	// ratios held fixed (see FixedRatioSE), for studies; set for SideBoth
+	// with exact Shapley values in the point estimate, nil otherwise.
+	FixedRatioSE *FixedRatioSE
 }
 
 // Interval is a two-sided percentile interval.

@@ -134,7 +134,7 @@ func checkLearners(choice string) ([]classify.Learner, error) {
 
 // checkOne decomposes one draw of a setup and runs the checks.
 func checkOne(opt options, c scm.Case, su checkSetup, truth []scm.Truth, learners []classify.Learner, n int, seed uint64) checkDraw {
-	s, mechs, err := independentSample(c.Model, n, seed)
+	s, mechs, err := independentSample(c.Model, n, n, seed)
 	if err != nil {
 		return checkDraw{err: err}
 	}

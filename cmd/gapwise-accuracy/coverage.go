@@ -21,127 +21,229 @@ var coverageCases = []string{"prevalence", "case-mix", "interaction", "spread-na
 // is not given (small, so that draws × bootstrap refits stay fast).
 const coverageSize = 800
 
-// coverageLevel is the nominal level of the bootstrap intervals.
+// coverageLevel is the nominal level of the intervals.
 const coverageLevel = 0.95
 
-// coverageCell is the interval coverage of one (case, size) combination.
-// Quantity q of a metric is the gap for q = 0 and mechanism q−1's
-// contribution otherwise.
+// Interval methods of the coverage study (-methods).
+const (
+	methodRefit = "refit" // bootstrap refitting the classifiers in every replicate
+	methodFast  = "fast"  // bootstrap keeping the fitted log-ratios
+	methodDelta = "delta" // delta-method Wald intervals, fitted log-ratios held fixed
+)
+
+// groupSizes are the records of the two groups of one row of the study.
+type groupSizes struct{ ref, cmp int }
+
+func (g groupSizes) String() string {
+	if g.ref == g.cmp {
+		return fmt.Sprint(g.ref)
+	}
+	return fmt.Sprintf("%d:%d", g.ref, g.cmp)
+}
+
+// coverageForm is one way of forming intervals from a draw: a method, and
+// for the bootstrap methods how the intervals are read off the replicates
+// (percentile or normal, see attribution.PercentileInterval and
+// attribution.NormalInterval) and from how many of them.
+type coverageForm struct {
+	method     string
+	normal     bool
+	replicates int // the first replicates used (0 for delta)
+}
+
+func (f coverageForm) String() string {
+	switch f.method {
+	case methodDelta:
+		return "delta, ratios fixed"
+	}
+	shape := "percentile"
+	if f.normal {
+		shape = "normal"
+	}
+	return fmt.Sprintf("%s %s, %d", f.method, shape, f.replicates)
+}
+
+// coverageForms lists the forms the options ask for: per bootstrap method
+// the percentile and normal intervals of all opt.boot replicates and of
+// the first s replicates for every s in opt.subs below opt.boot, then the
+// delta intervals.
+func coverageForms(opt options) []coverageForm {
+	var out []coverageForm
+	for _, m := range opt.methods {
+		if m == methodDelta {
+			continue
+		}
+		counts := []int{opt.boot}
+		for _, b := range opt.subs {
+			if b < opt.boot {
+				counts = append(counts, b)
+			}
+		}
+		for _, b := range counts {
+			out = append(out, coverageForm{method: m, replicates: b}, coverageForm{method: m, normal: true, replicates: b})
+		}
+	}
+	for _, m := range opt.methods {
+		if m == methodDelta {
+			out = append(out, coverageForm{method: methodDelta})
+		}
+	}
+	return out
+}
+
+// drawIntervals are one draw's intervals: ivs[f][m][q] for form f, metric
+// m and quantity q (0 the gap, 1+i mechanism i's contribution).
+type drawIntervals struct {
+	ivs        [][][]attribution.Interval
+	failedReps int
+	err        error
+}
+
+// coverageCell is the coverage of every form at one (case, sizes).
 type coverageCell struct {
 	caseName string
 	hard     bool
-	size     int
+	size     groupSizes
 	nodes    []string // mechanism (node) names, in model order
-	// hits[m][q] counts the draws whose interval of quantity q of metric
-	// m contains the ground truth; widths[m][q] sums High − Low over them.
-	hits   [][]int
-	widths [][]float64
-	draws  int // draws whose decomposition succeeded
-	// failedDraws counts draws whose DecomposeWithIntervals failed (they
-	// are excluded); failedReps counts bootstrap replicates that failed
-	// inside the successful draws.
+	forms    []coverageForm
+	// hits[f][m][q] counts the draws whose interval of form f for
+	// quantity q of metric m contains the ground truth; widths[f][m][q]
+	// sums High − Low over them. perDraw[f][d] holds draw d's hits over
+	// the gaps (of all metrics) and over the contributions, for the
+	// Monte Carlo standard errors clustered by draw.
+	hits    [][][]int
+	widths  [][][]float64
+	perDraw [][][2]int
+	draws   int // draws whose decomposition succeeded
+	// failedDraws counts draws whose decomposition failed (they are
+	// excluded); failedReps counts bootstrap replicates that failed inside
+	// the successful draws.
 	failedDraws, failedReps int
 	seconds                 float64 // wall time of all draws of the cell
 }
 
-// coverageDraw is the outcome of one draw: its decomposition with
-// intervals and the bootstrap summary, or the error.
-type coverageDraw struct {
-	dec *attribution.Decomposition
-	sum *attribution.BootstrapSummary
-	err error
-}
-
-// tallyCoverage aggregates the draws of one (case, size) against the
-// ground truth (truth[m] for metric m, in the order of the decompositions'
-// metrics): for every metric and quantity it counts the intervals
-// Low ≤ truth ≤ High and sums their widths. Failed draws are counted apart.
-// It panics if a decomposition's shape does not match the truth.
-func tallyCoverage(caseName string, hard bool, size int, nodes []string, truth []scm.Truth, draws []coverageDraw) coverageCell {
-	c := coverageCell{caseName: caseName, hard: hard, size: size, nodes: nodes,
-		hits: make([][]int, len(truth)), widths: make([][]float64, len(truth))}
-	for m := range truth {
-		c.hits[m] = make([]int, 1+len(nodes))
-		c.widths[m] = make([]float64, 1+len(nodes))
+// tallyCoverage aggregates the draws of one (case, sizes) against the
+// ground truth (truth[m] for metric m, in the order of the draws'
+// metrics): per form, metric and quantity it counts the intervals with
+// Low ≤ truth ≤ High and sums their widths. Failed draws are counted
+// apart. It panics if a draw's shape does not match the truth.
+func tallyCoverage(caseName string, hard bool, size groupSizes, nodes []string, forms []coverageForm, truth []scm.Truth, draws []drawIntervals) coverageCell {
+	c := coverageCell{caseName: caseName, hard: hard, size: size, nodes: nodes, forms: forms,
+		hits: make([][][]int, len(forms)), widths: make([][][]float64, len(forms)), perDraw: make([][][2]int, len(forms))}
+	for f := range forms {
+		c.hits[f] = make([][]int, len(truth))
+		c.widths[f] = make([][]float64, len(truth))
+		for m := range truth {
+			c.hits[f][m] = make([]int, 1+len(nodes))
+			c.widths[f][m] = make([]float64, 1+len(nodes))
+		}
 	}
 	for _, d := range draws {
-		if d.err != nil || d.dec == nil {
+		if d.err != nil || d.ivs == nil {
 			c.failedDraws++
 			continue
 		}
 		c.draws++
-		if d.sum != nil {
-			c.failedReps += d.sum.Failed
+		c.failedReps += d.failedReps
+		if len(d.ivs) != len(forms) {
+			panic(fmt.Sprintf("gapwise-accuracy: %d interval forms in a draw, %d asked for", len(d.ivs), len(forms)))
 		}
-		if len(d.dec.Metrics) != len(truth) {
-			panic(fmt.Sprintf("gapwise-accuracy: %d metrics decomposed, %d in the truth", len(d.dec.Metrics), len(truth)))
-		}
-		for m, md := range d.dec.Metrics {
-			if len(md.ContributionCIs) != len(nodes) || md.GapCI == nil {
-				panic(fmt.Sprintf("gapwise-accuracy: metric %s has %d contribution intervals for %d mechanisms", md.Metric, len(md.ContributionCIs), len(nodes)))
+		for f, byMetric := range d.ivs {
+			if len(byMetric) != len(truth) {
+				panic(fmt.Sprintf("gapwise-accuracy: %d metrics in a draw, %d in the truth", len(byMetric), len(truth)))
 			}
-			ivs := append([]attribution.Interval{*md.GapCI}, md.ContributionCIs...)
-			want := append([]float64{truth[m].Gap}, truth[m].Shapley...)
-			for q, iv := range ivs {
-				if iv.Low <= want[q] && want[q] <= iv.High {
-					c.hits[m][q]++
+			var per [2]int
+			for m, ivs := range byMetric {
+				if len(ivs) != 1+len(nodes) {
+					panic(fmt.Sprintf("gapwise-accuracy: %d intervals for %d mechanisms", len(ivs), len(nodes)))
 				}
-				c.widths[m][q] += iv.High - iv.Low
+				want := append([]float64{truth[m].Gap}, truth[m].Shapley...)
+				for q, iv := range ivs {
+					if iv.Low <= want[q] && want[q] <= iv.High {
+						c.hits[f][m][q]++
+						per[min(q, 1)]++
+					}
+					c.widths[f][m][q] += iv.High - iv.Low
+				}
 			}
+			c.perDraw[f] = append(c.perDraw[f], per)
 		}
 	}
 	return c
 }
 
-// share returns hits and total over the metrics in ms (nil = all) and the
-// quantities selected by useQ, with the summed widths.
-func (c *coverageCell) share(ms []int, useQ func(q int) bool) (hits, total int, width float64) {
-	if ms == nil {
-		for m := range c.hits {
-			ms = append(ms, m)
+// share returns form f's coverage pooled over all metrics and the
+// quantities of kind (0: gaps, 1: contributions, 2: both), its Monte
+// Carlo standard error clustered by draw (the standard deviation of the
+// per-draw shares over √draws, as the intervals of one draw are
+// correlated) and the mean width; NaN when there are none.
+func (c *coverageCell) share(f, kind int) (cov, se, width float64) {
+	M, k := len(c.hits[f]), len(c.nodes)
+	per := [3]int{M, M * k, M * (1 + k)}[kind]
+	if c.draws == 0 || per == 0 {
+		return math.NaN(), math.NaN(), math.NaN()
+	}
+	x := make([]float64, len(c.perDraw[f]))
+	for d, h := range c.perDraw[f] {
+		switch kind {
+		case 0, 1:
+			x[d] = float64(h[kind]) / float64(per)
+		default:
+			x[d] = float64(h[0]+h[1]) / float64(per)
 		}
 	}
-	for _, m := range ms {
-		for q, h := range c.hits[m] {
-			if useQ(q) {
-				hits += h
-				total += c.draws
-				width += c.widths[m][q]
+	var mean float64
+	for _, v := range x {
+		mean += v
+	}
+	mean /= float64(len(x))
+	var ss float64
+	for _, v := range x {
+		ss += (v - mean) * (v - mean)
+	}
+	if len(x) > 1 {
+		se = math.Sqrt(ss/float64(len(x)-1)) / math.Sqrt(float64(len(x)))
+	}
+	for m := range c.widths[f] {
+		for q, w := range c.widths[f][m] {
+			if kind == 2 || (kind == 0) == (q == 0) {
+				width += w
 			}
 		}
 	}
-	return hits, total, width
+	return mean, se, width / float64(c.draws*per)
 }
 
-func isGap(q int) bool          { return q == 0 }
-func isContribution(q int) bool { return q > 0 }
-func anyQuantity(int) bool      { return true }
-
-// ratio formats hits/total as a share with three decimals, "–" when empty.
-func ratio(hits, total int) string {
-	if total == 0 {
-		return "–"
+// lowest returns form f's lowest coverage of a single quantity, which
+// metric and quantity it is, and its binomial standard error at the
+// nominal level.
+func (c *coverageCell) lowest(f int, metricNames []string) (cov float64, where string, se float64) {
+	cov = math.Inf(1)
+	for m, byQ := range c.hits[f] {
+		for q, h := range byQ {
+			if v := float64(h) / float64(c.draws); v < cov {
+				cov = v
+				where = metricNames[m] + " gap"
+				if q > 0 {
+					where = metricNames[m] + " " + c.nodes[q-1]
+				}
+			}
+		}
 	}
-	return fmt.Sprintf("%.3f", float64(hits)/float64(total))
+	return cov, where, math.Sqrt(coverageLevel * (1 - coverageLevel) / float64(c.draws))
 }
 
-// meanWidth formats a summed width over total intervals.
-func meanWidth(width float64, total int) string {
-	if total == 0 {
-		return "–"
-	}
-	return fmt.Sprintf("%.4f", width/float64(total))
-}
-
-// runCoverage measures the coverage of the percentile-bootstrap intervals
-// of attribution.DecomposeWithIntervals (full refit, opt.boot replicates,
-// level 0.95, the first -learners choice): for every selected case and
-// size it draws opt.draws independent samples (the two groups from
-// different seeds, see independentSample), decomposes each with intervals,
-// and counts how many intervals of the gap and of every contribution, per
-// metric, contain the simulated ground truth. Draws run in parallel, one
-// result slot each, with one goroutine inside each decomposition, so the
-// table does not depend on the number of cores.
+// runCoverage measures the coverage of the intervals of every form of
+// coverageForms (level 0.95, the first -learners choice): for every
+// selected case and pair of group sizes it draws opt.draws independent
+// samples (the two groups from different seeds, see independentSample),
+// decomposes each with the bootstrap of every method asked for (each
+// replicate is kept, so the percentile and normal intervals of all and of
+// the first replicates come from the same resamples), and counts how many
+// intervals of the gap and of every contribution, per metric, contain the
+// simulated ground truth. Draws run in parallel, one result slot each,
+// with one goroutine inside each decomposition, so the tables do not
+// depend on the number of cores.
 func runCoverage(opt options, stdout, stderr io.Writer) error {
 	cases, err := selectCases(opt.cases)
 	if err != nil {
@@ -151,6 +253,7 @@ func runCoverage(opt options, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	forms := coverageForms(opt)
 	var cells []coverageCell
 	for ci, c := range cases {
 		truth, err := caseTruth(opt, c)
@@ -161,37 +264,133 @@ func runCoverage(opt options, stdout, stderr io.Writer) error {
 		for i, n := range c.Model.Nodes {
 			nodes[i] = n.Name
 		}
-		for zi, n := range opt.sizes {
+		for zi, size := range opt.groupSizes() {
 			start := time.Now()
-			draws := make([]coverageDraw, opt.draws)
+			draws := make([]drawIntervals, opt.draws)
 			workers.For(0, opt.draws, func(_, d int) {
 				seed := drawSeed(opt.seed, ci, zi, d)
-				s, mechs, err := independentSample(c.Model, n, seed)
-				opt.onScale(s)
+				s, mechs, err := independentSample(c.Model, size.ref, size.cmp, seed)
 				if err != nil {
 					draws[d].err = err
 					return
 				}
-				dec, sum, err := attribution.DecomposeWithIntervals(s, mechs, opt.metrics,
-					attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Workers: 1},
-					attribution.BootstrapOptions{Intervals: attribution.Intervals{Replicates: opt.boot, Level: coverageLevel}})
-				draws[d] = coverageDraw{dec: dec, sum: sum, err: err}
+				opt.onScale(s)
+				aopt := attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Workers: 1}
+				draws[d] = coverageIntervals(s, mechs, opt, aopt, forms)
 			})
-			cl := tallyCoverage(c.Name, c.Hard, n, nodes, truth, draws)
+			cl := tallyCoverage(c.Name, c.Hard, size, nodes, forms, truth, draws)
 			cl.seconds = time.Since(start).Seconds()
 			for _, d := range draws {
 				if d.err != nil {
-					fmt.Fprintf(stderr, "%s n=%d: draw failed: %v\n", c.Name, n, d.err)
+					fmt.Fprintf(stderr, "%s n=%s: draw failed: %v\n", c.Name, size, d.err)
 					break
 				}
 			}
-			h, t, _ := cl.share(nil, anyQuantity)
-			fmt.Fprintf(stderr, "%-13s n=%-6d coverage %s over %d intervals (%.0fs)\n", c.Name, n, ratio(h, t), t, cl.seconds)
+			for f, form := range forms {
+				cov, se, _ := cl.share(f, 2)
+				fmt.Fprintf(stderr, "%-15s n=%-9s %-24s coverage %.3f ± %.3f (%.0fs)\n", c.Name, size, form, cov, se, cl.seconds)
+			}
 			cells = append(cells, cl)
 		}
 	}
 	writeCoverage(stdout, opt, choice, cells)
 	return nil
+}
+
+// coverageIntervals decomposes one draw with every method the forms use
+// and returns the intervals of every form.
+func coverageIntervals(s *attribution.Sample, mechs []attribution.Mechanism, opt options, aopt attribution.Options, forms []coverageForm) drawIntervals {
+	var out drawIntervals
+	point := map[string]*attribution.Decomposition{}
+	reps := map[string][][][]float64{} // method → replicate → metric → [gap, contributions...]
+	var pointDec *attribution.Decomposition
+	for _, method := range opt.methods {
+		if method == methodDelta {
+			continue
+		}
+		r := make([][][]float64, opt.boot)
+		dec, sum, err := attribution.DecomposeWithIntervals(s, mechs, opt.metrics, aopt, attribution.BootstrapOptions{
+			Intervals: attribution.Intervals{Replicates: opt.boot, Level: coverageLevel, KeepRatios: method == methodFast},
+			Replicate: func(b int, md []attribution.MetricDecomposition) { r[b] = quantities(md) },
+		})
+		if err != nil {
+			return drawIntervals{err: err}
+		}
+		out.failedReps += sum.Failed
+		point[method], reps[method], pointDec = dec, r, dec
+	}
+	if pointDec == nil {
+		dec, err := attribution.Decompose(s, mechs, opt.metrics, aopt)
+		if err != nil {
+			return drawIntervals{err: err}
+		}
+		pointDec = dec
+	}
+	for _, f := range forms {
+		ivs, err := formIntervals(f, pointDec, point[f.method], reps[f.method])
+		if err != nil {
+			return drawIntervals{err: err}
+		}
+		out.ivs = append(out.ivs, ivs)
+	}
+	return out
+}
+
+// quantities returns, per metric, the gap and then the contributions.
+func quantities(md []attribution.MetricDecomposition) [][]float64 {
+	out := make([][]float64, len(md))
+	for m, d := range md {
+		out[m] = append([]float64{d.Gap}, d.Contributions...)
+	}
+	return out
+}
+
+// formIntervals returns form f's intervals, per metric and quantity: for
+// delta the Wald intervals of the point estimate dec with its
+// FixedRatioSE; for the bootstrap methods those read off the first
+// f.replicates replicates reps (failed ones left out) around the point
+// estimate boot of that method.
+func formIntervals(f coverageForm, dec, boot *attribution.Decomposition, reps [][][]float64) ([][]attribution.Interval, error) {
+	if f.method == methodDelta {
+		out := make([][]attribution.Interval, len(dec.Metrics))
+		for m, md := range dec.Metrics {
+			se := md.FixedRatioSE
+			if se == nil || se.Contributions == nil {
+				return nil, fmt.Errorf("metric %s: no delta-method standard errors", md.Metric)
+			}
+			est := append([]float64{md.Gap}, md.Contributions...)
+			sds := append([]float64{se.Gap}, se.Contributions...)
+			for q := range est {
+				out[m] = append(out[m], attribution.WaldInterval(est[q], sds[q], coverageLevel))
+			}
+		}
+		return out, nil
+	}
+	var ok [][][]float64
+	for _, r := range reps[:f.replicates] {
+		if r != nil {
+			ok = append(ok, r)
+		}
+	}
+	if len(ok) < 2 {
+		return nil, fmt.Errorf("%s: %d replicates computed", f, len(ok))
+	}
+	est := quantities(boot.Metrics)
+	out := make([][]attribution.Interval, len(est))
+	for m := range est {
+		for q := range est[m] {
+			x := make([]float64, len(ok))
+			for b, r := range ok {
+				x[b] = r[m][q]
+			}
+			if f.normal {
+				out[m] = append(out[m], attribution.NormalInterval(est[m][q], x, coverageLevel))
+			} else {
+				out[m] = append(out[m], attribution.PercentileInterval(x, coverageLevel))
+			}
+		}
+	}
+	return out, nil
 }
 
 // drawSeed gives draw d of case ci at size index zi its own seed; the
@@ -201,80 +400,114 @@ func drawSeed(base uint64, ci, zi, d int) uint64 {
 	return base + uint64(ci)<<40 + uint64(zi)<<32 + uint64(d)<<1
 }
 
-// independentSample draws n reference records with seed and n comparison
-// records with seed+1 and packs them like scm.Pooled (reference rows
-// first). scm.Pooled alone uses common random numbers across the groups,
-// which makes them dependent, while the bootstrap resamples them
-// independently.
-func independentSample(m *scm.Model, n int, seed uint64) (*attribution.Sample, []attribution.Mechanism, error) {
-	a, mechs, err := scm.Pooled(m, n, 1, seed)
+// independentSample draws nRef reference records with seed and nCmp
+// comparison records with seed+1 and packs them like scm.Pooled
+// (reference rows first). scm.Pooled alone uses common random numbers
+// across the groups, which makes them dependent, while the bootstrap
+// resamples them independently.
+func independentSample(m *scm.Model, nRef, nCmp int, seed uint64) (*attribution.Sample, []attribution.Mechanism, error) {
+	a, mechs, err := scm.Pooled(m, nRef, 1, seed)
 	if err != nil {
 		return nil, nil, err
 	}
-	b, _, err := scm.Pooled(m, 1, n, seed+1)
+	b, _, err := scm.Pooled(m, 1, nCmp, seed+1)
 	if err != nil {
 		return nil, nil, err
 	}
 	_, p := a.X.Dims()
-	s := &attribution.Sample{X: mat.NewDense(2*n, p, nil), Comparison: make([]bool, 2*n), Labels: make([]float64, 2*n), Scores: make([]float64, 2*n),
+	n := nRef + nCmp
+	s := &attribution.Sample{X: mat.NewDense(n, p, nil), Comparison: make([]bool, n), Labels: make([]float64, n), Scores: make([]float64, n),
 		ProbabilityCols: a.ProbabilityCols}
-	for r := 0; r < n; r++ {
-		// Reference rows 0…n−1 of a; comparison rows 1…n of b (row 0 of
-		// b is its single reference record).
+	for r := 0; r < nRef; r++ {
 		s.X.SetRow(r, a.X.RawRowView(r))
 		s.Labels[r], s.Scores[r] = a.Labels[r], a.Scores[r]
-		s.X.SetRow(n+r, b.X.RawRowView(r+1))
-		s.Labels[n+r], s.Scores[n+r] = b.Labels[r+1], b.Scores[r+1]
-		s.Comparison[n+r] = true
+	}
+	for r := 0; r < nCmp; r++ {
+		// Comparison rows 1…nCmp of b (row 0 of b is its single
+		// reference record).
+		s.X.SetRow(nRef+r, b.X.RawRowView(r+1))
+		s.Labels[nRef+r], s.Scores[nRef+r] = b.Labels[r+1], b.Scores[r+1]
+		s.Comparison[nRef+r] = true
 	}
 	return s, mechs, nil
 }
 
-// writeCoverage prints the coverage tables: one row per (case, size)
-// pooled over metrics, then one row per (case, size, metric) with the
-// coverage of the gap and of every mechanism's contribution.
+// writeCoverage prints the coverage tables: one row per (case, sizes,
+// form) pooled over metrics, with Monte Carlo standard errors and the
+// lowest coverage of a single quantity; then, per (case, sizes, form),
+// the coverage of each metric's gap and of its contributions.
 func writeCoverage(w io.Writer, opt options, choice string, cells []coverageCell) {
-	fmt.Fprintf(w, "Coverage of %.0f%% percentile-bootstrap intervals (full refit, %d replicates; learner %s; metrics %s) against simulated ground truth (synthetic screening SCM; %d independent draws per row; ground truth from %d records per hybrid distribution).\n",
-		100*coverageLevel, opt.boot, choice, strings.Join(opt.metrics, ", "), opt.draws, opt.truthN)
-	fmt.Fprintf(w, "Coverage is the share of intervals containing the truth; n is records per group, the groups drawn independently. A single quantity's coverage over %d draws has a binomial standard error of about %.3f at the nominal level.\n\n",
+	fmt.Fprintf(w, "Coverage of %.0f%% intervals (learner %s; metrics %s; %d bootstrap replicates) against simulated ground truth (synthetic screening SCM; %d independent draws per row; ground truth from %d records per hybrid distribution).\n",
+		100*coverageLevel, choice, strings.Join(opt.metrics, ", "), opt.boot, opt.draws, opt.truthN)
+	fmt.Fprint(w, "Forms: refit = bootstrap refitting the classifiers in every replicate, fast = bootstrap keeping the fitted log-ratios, percentile = the 2.5% and 97.5% quantiles of the replicates, normal = estimate ± t(B−1) × bootstrap SE, the number the replicates used; delta = Wald intervals from delta-method SEs with the ratios held fixed. ")
+	fmt.Fprintf(w, "n is records per group (reference:comparison when they differ), the groups drawn independently. ± is the Monte Carlo SE of the pooled share, clustered by draw; a single quantity's coverage over %d draws has a binomial SE of about %.3f at the nominal level.\n\n",
 		opt.draws, math.Sqrt(coverageLevel*(1-coverageLevel)/float64(opt.draws)))
-	fmt.Fprint(w, "| case | n | draws | gap | contributions | all | mean width gap | mean width contributions | failed replicates |\n")
-	fmt.Fprint(w, "|---|---|---|---|---|---|---|---|---|\n")
+	fmt.Fprint(w, "| case | n | form | draws | gap | contributions | all | lowest quantity | mean width gap | mean width contributions | failed replicates |\n")
+	fmt.Fprint(w, "|---|---|---|---|---|---|---|---|---|---|---|\n")
 	for _, c := range cells {
-		gh, gt, gw := c.share(nil, isGap)
-		ch, ct, cw := c.share(nil, isContribution)
-		ah, at, _ := c.share(nil, anyQuantity)
 		draws := fmt.Sprint(c.draws)
 		if c.failedDraws > 0 {
 			draws += fmt.Sprintf(" (%d failed)", c.failedDraws)
 		}
-		fmt.Fprintf(w, "| %s | %d | %s | %s | %s | %s | %s | %s | %d |\n", caseLabel(c), c.size, draws,
-			ratio(gh, gt), ratio(ch, ct), ratio(ah, at), meanWidth(gw, gt), meanWidth(cw, ct), c.failedReps)
+		for f, form := range c.forms {
+			g, gse, gw := c.share(f, 0)
+			k, kse, kw := c.share(f, 1)
+			a, ase, _ := c.share(f, 2)
+			low, where, _ := c.lowest(f, opt.metrics)
+			fmt.Fprintf(w, "| %s | %s | %s | %s | %s | %s | %s | %.3f (%s) | %s | %s | %d |\n", caseLabel(c), c.size, form, draws,
+				withSE(g, gse), withSE(k, kse), withSE(a, ase), low, where, fixed4(gw), fixed4(kw), c.failedReps)
+		}
 	}
 	if len(cells) == 0 {
 		return
 	}
-	fmt.Fprint(w, "\nPer metric: intervals containing the truth out of the draws, for the gap and each mechanism's contribution.\n\n")
-	fmt.Fprint(w, "| case | n | metric | gap |")
-	for _, node := range cells[0].nodes {
-		fmt.Fprintf(w, " %s |", node)
+	fmt.Fprint(w, "\nPer metric: the gap's intervals containing the truth out of the draws, and the share of the contributions' intervals that do.\n\n")
+	fmt.Fprint(w, "| case | n | form |")
+	for _, m := range opt.metrics {
+		fmt.Fprintf(w, " %s gap | %s contributions |", m, m)
 	}
-	fmt.Fprint(w, " mean width gap | mean width contributions |\n|---|---|---|---|")
-	for range cells[0].nodes {
-		fmt.Fprint(w, "---|")
+	fmt.Fprint(w, "\n|---|---|---|")
+	for range opt.metrics {
+		fmt.Fprint(w, "---|---|")
 	}
-	fmt.Fprint(w, "---|---|\n")
+	fmt.Fprintln(w)
 	for _, c := range cells {
-		for m, name := range opt.metrics {
-			fmt.Fprintf(w, "| %s | %d | %s |", caseLabel(c), c.size, name)
-			for _, h := range c.hits[m] {
-				fmt.Fprintf(w, " %d/%d |", h, c.draws)
+		for f, form := range c.forms {
+			fmt.Fprintf(w, "| %s | %s | %s |", caseLabel(c), c.size, form)
+			for m := range opt.metrics {
+				var h int
+				for _, x := range c.hits[f][m][1:] {
+					h += x
+				}
+				fmt.Fprintf(w, " %d/%d | %s |", c.hits[f][m][0], c.draws, ratio(h, c.draws*len(c.nodes)))
 			}
-			_, gt, gw := c.share([]int{m}, isGap)
-			_, ct, cw := c.share([]int{m}, isContribution)
-			fmt.Fprintf(w, " %s | %s |\n", meanWidth(gw, gt), meanWidth(cw, ct))
+			fmt.Fprintln(w)
 		}
 	}
+}
+
+// withSE formats a share with its standard error, "–" when undefined.
+func withSE(p, se float64) string {
+	if math.IsNaN(p) {
+		return "–"
+	}
+	return fmt.Sprintf("%.3f ± %.3f", p, se)
+}
+
+// fixed4 formats a width with four decimals, "–" when undefined.
+func fixed4(x float64) string {
+	if math.IsNaN(x) {
+		return "–"
+	}
+	return fmt.Sprintf("%.4f", x)
+}
+
+// ratio formats hits/total as a share with three decimals, "–" when empty.
+func ratio(hits, total int) string {
+	if total == 0 {
+		return "–"
+	}
+	return fmt.Sprintf("%.3f", float64(hits)/float64(total))
 }
 
 // caseLabel is the case name, marked when the case is hard.

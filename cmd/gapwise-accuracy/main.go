@@ -5,7 +5,7 @@
 //
 //	go run ./cmd/gapwise-accuracy [-sizes 2000,10000,50000] [-reps 3] [-estimators weighting,robust]
 //	go run ./cmd/gapwise-accuracy -sides -learners auto
-//	go run ./cmd/gapwise-accuracy -coverage -learners expanded [-draws 30] [-boot 40]
+//	go run ./cmd/gapwise-accuracy -coverage -learners expanded [-draws 30] [-boot 40] [-sizes 800,1500:400] [-methods refit,fast,delta] [-subs 50]
 //	go run ./cmd/gapwise-accuracy -splits -learners auto [-seeds 10] [-fold-splits 1,0] [-boot 40]
 //	go run ./cmd/gapwise-accuracy -cases score-node -scale raw
 //
@@ -51,6 +51,25 @@ type options struct {
 	// attribution.DefaultFoldSplits for the size).
 	foldSplits []int
 	scale      string // scaleLogit or scaleRaw: how probability-valued columns enter the learners
+	// pairs are unequal group sizes (reference, comparison) given to
+	// -sizes as REF:CMP, coverage study only; nil when every size is one
+	// number for both groups.
+	pairs   []groupSizes
+	methods []string // interval methods of the coverage study (refit, fast, delta)
+	subs    []int    // with -coverage: also the intervals of the first s replicates, for each s
+}
+
+// groupSizes returns the coverage study's rows: pairs if given, otherwise
+// every size for both groups.
+func (opt options) groupSizes() []groupSizes {
+	if opt.pairs != nil {
+		return opt.pairs
+	}
+	out := make([]groupSizes, len(opt.sizes))
+	for i, n := range opt.sizes {
+		out[i] = groupSizes{n, n}
+	}
+	return out
 }
 
 // Values of -scale.
@@ -105,6 +124,8 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	splits := fs.Bool("splits", false, "measure how much the contributions move with the seed for each -fold-splits value (default sizes "+strconv.Itoa(splitsSize)+", cases "+strings.Join(splitsCases, ",")+"; first -learners choice)")
 	seeds := fs.Int("seeds", 10, "seeds per row with -splits")
 	foldSplits := fs.String("fold-splits", "1,0", "comma-separated fold splits R compared with -splits (0: the default for the size)")
+	methods := fs.String("methods", strings.Join([]string{methodRefit, methodFast, methodDelta}, ","), "with -coverage: interval methods compared (refit: bootstrap refitting the classifiers, fast: bootstrap keeping the fitted ratios, delta: Wald intervals with the ratios held fixed)")
+	subs := fs.String("subs", "50", "with -coverage: also form each bootstrap method's intervals from its first S replicates, for each comma-separated S below -boot")
 	scale := fs.String("scale", scaleLogit, "how probability-valued columns (the score-node case's score) enter the learners: logit (clipped, the engine's way) or raw")
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
@@ -136,13 +157,44 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 		opt.foldSplits = append(opt.foldSplits, r)
 	}
 	for _, f := range split(*sizes) {
-		n, err := strconv.Atoi(f)
-		if err != nil || n < 100 {
-			err = fmt.Errorf("-sizes: %q is not a record count of at least 100", f)
+		ref, cmp, found := strings.Cut(f, ":")
+		if found && !opt.coverage {
+			err := fmt.Errorf("-sizes: %q: two group sizes REF:CMP only with -coverage", f)
+			fmt.Fprintln(stderr, err)
+			return options{}, err
+		}
+		if !found {
+			cmp = ref
+		}
+		n, err1 := strconv.Atoi(ref)
+		m, err2 := strconv.Atoi(cmp)
+		if err1 != nil || err2 != nil || n < 100 || m < 100 {
+			err := fmt.Errorf("-sizes: %q is not a record count of at least 100 (or, with -coverage, REF:CMP)", f)
 			fmt.Fprintln(stderr, err)
 			return options{}, err
 		}
 		opt.sizes = append(opt.sizes, n)
+		opt.pairs = append(opt.pairs, groupSizes{n, m})
+	}
+	if !opt.coverage {
+		opt.pairs = nil
+	}
+	for _, m := range split(*methods) {
+		if m != methodRefit && m != methodFast && m != methodDelta {
+			err := fmt.Errorf("-methods: %q is not refit, fast or delta", m)
+			fmt.Fprintln(stderr, err)
+			return options{}, err
+		}
+		opt.methods = append(opt.methods, m)
+	}
+	for _, f := range split(*subs) {
+		b, err := strconv.Atoi(f)
+		if err != nil || b < 2 {
+			err = fmt.Errorf("-subs: %q is not a replicate count of at least 2", f)
+			fmt.Fprintln(stderr, err)
+			return options{}, err
+		}
+		opt.subs = append(opt.subs, b)
 	}
 	if *mixName != "" {
 		x, err := attribution.ParseMix(*mixName)

@@ -103,10 +103,11 @@ func run(opt options, stdout, stderr io.Writer) error {
 }
 
 func selectCases(names []string) ([]scm.Case, error) {
-	all := scm.Cases()
 	if len(names) == 0 {
-		return all, nil
+		return scm.Cases(), nil
 	}
+	// The extra cases (scm.RareCases) are chosen by name only.
+	all := append(scm.Cases(), scm.RareCases()...)
 	var out []scm.Case
 	for _, n := range names {
 		found := false

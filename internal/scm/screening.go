@@ -27,6 +27,9 @@ type Shift struct {
 	// Unread shifts the mean of unread, a node with no children that the
 	// model does not read: its ground-truth contribution is exactly 0.
 	Unread float64
+	// Baseline is added to the disease log-odds in both groups (0: the
+	// usual prevalence of about a quarter; −2 makes the disease rare).
+	Baseline float64
 }
 
 // Node indices of the Screening model.
@@ -48,13 +51,13 @@ const ScreeningThreshold = 0.5
 //
 //	age      ~ N(μ_g, 1)                                     root, continuous
 //	site     ~ Categorical(π_g) over 3 levels                root, categorical
-//	disease  ~ Bernoulli(σ(−1.5 + 0.5·age + 0.4·[site=1] + 0.8·[site=2] + δ_g))
+//	disease  ~ Bernoulli(σ(−1.5 + β + 0.5·age + 0.4·[site=1] + 0.8·[site=2] + δ_g))
 //	marker_a ~ N(1.5·disease + 0.3·age + κ_g·disease, 1)
 //	marker_b ~ N(1.2·disease, τ_g²)
 //	unread   ~ N(0.5·age + disease + ν_g, 1)                 no children
 //
-// with the reference group at μ=0, π=(0.5, 0.3, 0.2), δ=0, κ=0, τ=1, ν=0
-// and the comparison group shifted by sh; unshifted mechanisms have a nil
+// with the reference group at μ=0, π=(0.5, 0.3, 0.2), δ=0, κ=0, τ=1, ν=0,
+// β = sh.Baseline in both groups, and the comparison group shifted by sh; unshifted mechanisms have a nil
 // Comparison equation. The fixed model reads age and the
 // two markers (not site, not unread):
 //
@@ -102,7 +105,7 @@ func Screening(name string, sh Shift) *Model {
 		Nodes: []Node{
 			{Name: "age", Kind: Continuous, Reference: age(0), Comparison: when(sh.Age != 0, age(sh.Age))},
 			{Name: "site", Kind: Categorical, Levels: 3, Reference: categorical(refSite), Comparison: when(sh.Site, categorical(cmpSite))},
-			{Name: "disease", Kind: Binary, Parents: []int{NodeAge, NodeSite}, Reference: disease(0), Comparison: when(sh.Prevalence != 0, disease(sh.Prevalence))},
+			{Name: "disease", Kind: Binary, Parents: []int{NodeAge, NodeSite}, Reference: disease(sh.Baseline), Comparison: when(sh.Prevalence != 0, disease(sh.Baseline+sh.Prevalence))},
 			{Name: "marker_a", Kind: Continuous, Parents: []int{NodeDisease, NodeAge}, Reference: markerA(0), Comparison: when(sh.DiseasedMarker != 0, markerA(sh.DiseasedMarker))},
 			{Name: "marker_b", Kind: Continuous, Parents: []int{NodeDisease}, Reference: markerB(1), Comparison: when(spread != 1, markerB(spread))},
 			{Name: "unread", Kind: Continuous, Parents: []int{NodeAge, NodeDisease}, Reference: unread(0), Comparison: when(sh.Unread != 0, unread(sh.Unread))},
