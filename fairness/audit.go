@@ -132,7 +132,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		Model:       spec.Model,
 		AuditDate:   spec.AuditDate,
 		Groups:      groups,
-		Names:       resultNames(spec),
+		Names:       resultNames(spec, d.levelNames),
 		Label:       spec.Label,
 		LabelValues: d.LabelValues,
 		ModelInputs: modelInputs(spec),

@@ -38,6 +38,8 @@ var badSentinels = map[string]error{
 	"missing_column":       ErrMissingColumn,
 	"missing_key":          ErrMissingKey,
 	"missing_value":        ErrMissingValue,
+	"names_unknown_level":  ErrBadValue,
+	"names_unknown_node":   ErrUnknownKey,
 	"not_utf8":             ErrEncoding,
 	"not_numeric":          ErrNotNumeric,
 	"ragged_row":           ErrRaggedRow,

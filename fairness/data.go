@@ -59,6 +59,10 @@ type Dataset struct {
 	// LabelValues is how label words were read (spec key positive); nil
 	// when the labels are 0/1 or true/false.
 	LabelValues *LabelValues
+
+	// levelNames holds the display names of the columns' levels (spec key
+	// names; levelNames), set by prepare.
+	levelNames map[string]map[string]string
 }
 
 // Counts returns the number of kept reference and comparison rows.

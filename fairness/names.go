@@ -15,6 +15,10 @@ type Names struct {
 	Groups  *GroupNames            `json:"groups,omitempty"`
 	Nodes   map[string]DisplayName `json:"nodes,omitempty"`
 	Columns map[string]DisplayName `json:"columns,omitempty"`
+	// Levels maps a column to the display names of its levels, keyed as
+	// its details write them (ColumnDetails.Levels: "0" and "1" for a 0/1
+	// column); a level without one is shown as it is.
+	Levels map[string]map[string]string `json:"levels,omitempty"`
 }
 
 // GroupNames are the display names of the reference and comparison
@@ -24,9 +28,10 @@ type GroupNames struct {
 	Comparison string `json:"comparison,omitempty"`
 }
 
-// resultNames returns the Names of spec, nil when it has no names key or
-// the key names nothing.
-func resultNames(spec *Spec) *Names {
+// resultNames returns the Names of spec with the level names of its
+// columns (levelNames), nil when it has no names key or the key names
+// nothing.
+func resultNames(spec *Spec, levels map[string]map[string]string) *Names {
 	if spec.Names == nil {
 		return nil
 	}
@@ -41,7 +46,10 @@ func resultNames(spec *Spec) *Names {
 	if len(columns) > 0 {
 		n.Columns = columns
 	}
-	if n.Groups == nil && n.Nodes == nil && n.Columns == nil {
+	if len(levels) > 0 {
+		n.Levels = levels
+	}
+	if n.Groups == nil && n.Nodes == nil && n.Columns == nil && n.Levels == nil {
 		return nil
 	}
 	return n
@@ -78,6 +86,17 @@ func (n *Names) ColumnLabel(col string) string {
 		}
 	}
 	return col
+}
+
+// LevelName is the display name of level of column col, or level itself
+// when it has none.
+func (n *Names) LevelName(col, level string) string {
+	if n != nil {
+		if name, ok := n.Levels[col][level]; ok {
+			return name
+		}
+	}
+	return level
 }
 
 // Named reports whether node has a display name other than itself.

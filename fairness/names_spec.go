@@ -22,10 +22,14 @@ import (
 //	    panel: red-cell indices         # a name alone
 //	  columns:
 //	    mcv: {name: mean cell volume, unit: fL}
+//	    smoker: {name: smoking, levels: {"0": non-smoker, "1": smoker}}
 //
 // A node with a single column shares its entry with that column, in both
-// directions, unless the other has an entry of its own; a unit on a node
-// with several columns is refused (give each column its unit).
+// directions, unless the other has an entry of its own; a unit or levels
+// on a node with several columns are refused (give each column its own).
+// Levels name the levels of a column the details describe by levels (a
+// categorical column, or a numeric one of at most two values); they are
+// checked against the data when it is loaded (levelNames).
 type NamesSpec struct {
 	Reference, Comparison string // the groups' display names; "" when not given
 
@@ -38,11 +42,21 @@ type NamesSpec struct {
 // NameEntry is one entry of names.nodes or names.columns: the identifier
 // as the graph or the data names it and its display name.
 type NameEntry struct {
-	ID string
-	DisplayName
-	Line int // line of the entry's key
+	ID         string
+	Name, Unit string // "" when not given
+	Line       int    // line of the entry's key
+	// Levels maps levels of the column, as the spec writes them, to their
+	// display names (key levels), in spec order; nil when none.
+	Levels []LevelName
 
-	unitLine int // line of its unit, 0 when none
+	unitLine, levelsLine int // lines of its unit and levels keys, 0 when none
+}
+
+// LevelName is one entry of an entry's levels: a level of the column as
+// the spec writes it, its display name, and the line.
+type LevelName struct {
+	Level, Name string
+	Line        int
 }
 
 // DisplayName is how the reports call a node or a column: Name, and the
@@ -83,7 +97,7 @@ const AuditDateLayout = "2006-01-02"
 var (
 	nameKeys       = []string{"groups", "nodes", "columns"}
 	nameGroupKeys  = []string{"reference", "comparison"}
-	nameEntryKeys  = []string{"name", "unit"}
+	nameEntryKeys  = []string{"name", "unit", "levels"}
 	modelKeys      = []string{"name", "version"}
 	auditDateShape = "a date written YYYY-MM-DD, such as 2026-12-03"
 )
@@ -206,6 +220,9 @@ func (p *specParser) nameEntries(v *yaml.Node, prefix, what string) ([]NameEntry
 			case "unit":
 				e.Unit, err = p.displayText(key2, val2)
 				e.unitLine = k2.Line
+			case "levels":
+				e.Levels, err = p.levelNames(val2, key2)
+				e.levelsLine = k2.Line
 			default:
 				err = p.unknownKey(k2.Line, key2, k2.Value, nameEntryKeys)
 			}
@@ -214,10 +231,36 @@ func (p *specParser) nameEntries(v *yaml.Node, prefix, what string) ([]NameEntry
 		if err != nil {
 			return err
 		}
-		if !seen["name"] && !seen["unit"] {
-			return specErr(p.file, val.Line, key, ErrMissingKey, "%s needs a name, a unit or both", key)
+		if !seen["name"] && !seen["unit"] && !seen["levels"] {
+			return specErr(p.file, val.Line, key, ErrMissingKey, "%s needs a name, a unit or levels", key)
 		}
 		out = append(out, e)
+		return nil
+	})
+	return out, err
+}
+
+// levelNames decodes an entry's levels: a mapping from level to display
+// name, no two levels called alike.
+func (p *specParser) levelNames(v *yaml.Node, prefix string) ([]LevelName, error) {
+	if v.Kind != yaml.MappingNode || len(v.Content) == 0 {
+		return nil, specErr(p.file, v.Line, prefix, ErrBadValue, "%s must be a mapping from level to name, such as {\"0\": non-smoker, \"1\": smoker}", prefix)
+	}
+	var out []LevelName
+	called := map[string]string{}
+	_, err := p.eachKey(v, prefix, func(k, val *yaml.Node, key string) error {
+		if k.Kind != yaml.ScalarNode || k.Value == "" {
+			return specErr(p.file, k.Line, key, ErrBadValue, "a level under %s must be a value of the column", prefix)
+		}
+		name, err := p.displayText(key, val)
+		if err != nil {
+			return err
+		}
+		if other, dup := called[strings.ToLower(name)]; dup {
+			return specErr(p.file, val.Line, key, ErrBadValue, "levels %q and %q would both be shown as %q", other, k.Value, name)
+		}
+		called[strings.ToLower(name)] = k.Value
+		out = append(out, LevelName{Level: k.Value, Name: name, Line: k.Line})
 		return nil
 	})
 	return out, err
@@ -295,6 +338,9 @@ func validateNames(s *Spec) error {
 		if e.Unit != "" && len(n.Columns) != 1 {
 			return specErr(s.File, e.unitLine, key+".unit", ErrBadValue, "node %q has the columns %s; give each its unit under names.columns", e.ID, strings.Join(n.Columns, ", "))
 		}
+		if e.Levels != nil && len(n.Columns) != 1 {
+			return specErr(s.File, e.levelsLine, key+".levels", ErrBadValue, "node %q has the columns %s; give each its levels under names.columns", e.ID, strings.Join(n.Columns, ", "))
+		}
 	}
 	cols := specColumns(s)
 	for _, e := range ns.Columns {
@@ -369,24 +415,28 @@ func specColumns(s *Spec) []string {
 // resolveNames returns the display name of every node and column that has
 // one: its own entry, else the entry it shares (a node with a single
 // column and that column). An entry that gives only a unit is named by
-// its identifier.
+// its identifier; one that gives only levels names nothing here.
 func resolveNames(s *Spec) (nodes, columns map[string]DisplayName) {
 	nodes, columns = map[string]DisplayName{}, map[string]DisplayName{}
 	if s.Names == nil {
 		return nodes, columns
 	}
 	named := func(e NameEntry) DisplayName {
-		d := e.DisplayName
+		d := DisplayName{Name: e.Name, Unit: e.Unit}
 		if d.Name == "" {
 			d.Name = e.ID
 		}
 		return d
 	}
 	for _, e := range s.Names.Nodes {
-		nodes[e.ID] = named(e)
+		if e.Name != "" || e.Unit != "" { // not levels alone
+			nodes[e.ID] = named(e)
+		}
 	}
 	for _, e := range s.Names.Columns {
-		columns[e.ID] = named(e)
+		if e.Name != "" || e.Unit != "" {
+			columns[e.ID] = named(e)
+		}
 	}
 	for _, n := range s.Graph {
 		if len(n.Columns) != 1 {

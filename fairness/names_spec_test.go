@@ -2,6 +2,7 @@ package fairness
 
 import (
 	"errors"
+	"fmt"
 	"reflect"
 	"strings"
 	"testing"
@@ -70,7 +71,7 @@ func TestParseSpecNamesForms(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if s.Model != nil || s.AuditDate != "" || s.Names != nil || resultNames(s) != nil {
+	if s.Model != nil || s.AuditDate != "" || s.Names != nil || resultNames(s, nil) != nil {
 		t.Errorf("keys absent, yet model %+v, date %q, names %+v", s.Model, s.AuditDate, s.Names)
 	}
 }
@@ -92,7 +93,7 @@ func TestParseSpecNamesErrors(t *testing.T) {
 		{"group column named is fine, other is not", "names:\n  columns: {clinc: site}", ErrUnknownKey, `did you mean "clinic"?`},
 		{"unit on a node of two columns", "names:\n  nodes:\n    labs:\n      name: labs\n      unit: mg/L", ErrBadValue, `:22: key names.nodes.labs.unit: node "labs" has the columns m1, m2; give each its unit under names.columns`},
 		{"misspelt entry key", "names:\n  nodes: {age: {nmae: Age}}", ErrUnknownKey, `key names.nodes.age.nmae: unknown key "nmae"; did you mean "name"?`},
-		{"empty entry", "names:\n  nodes: {age: {}}", ErrMissingKey, `key names.nodes.age: names.nodes.age needs a name, a unit or both`},
+		{"empty entry", "names:\n  nodes: {age: {}}", ErrMissingKey, `key names.nodes.age: names.nodes.age needs a name, a unit or levels`},
 		{"blank name", "names:\n  nodes: {age: \"  \"}", ErrBadValue, `key names.nodes.age: names.nodes.age needs a single non-empty value`},
 		{"list as entry", "names:\n  nodes: {age: [a, b]}", ErrBadValue, `key names.nodes.age: names.nodes.age must be a name or a mapping {name, unit}`},
 		{"backtick", "names:\n  nodes: {age: \"a`b\"}", ErrBadValue, "holds a backtick"},
@@ -138,6 +139,23 @@ func TestCheckAuditDate(t *testing.T) {
 	} {
 		if err := CheckAuditDate(tc.s); (err == nil) != tc.ok {
 			t.Errorf("CheckAuditDate(%q) = %v, want ok %v", tc.s, err, tc.ok)
+		}
+	}
+}
+
+// TestParseSpecLevelErrors: the levels of an entry are a mapping from
+// level to a display name, no two called alike, and belong to a column.
+func TestParseSpecLevelErrors(t *testing.T) {
+	for _, tc := range []struct{ name, extra, want string }{
+		{"not a mapping", "names:\n  columns: {dx: {levels: [no, yes]}}", "key names.columns.dx.levels: names.columns.dx.levels must be a mapping from level to name"},
+		{"empty", "names:\n  columns: {dx: {levels: {}}}", "names.columns.dx.levels must be a mapping"},
+		{"two levels one name", "names:\n  columns: {dx: {levels: {0: healthy, 1: Healthy}}}", `key names.columns.dx.levels.1: levels "0" and "1" would both be shown as "Healthy"`},
+		{"node of two columns", "names:\n  nodes: {labs: {levels: {0: no}}}", `key names.nodes.labs.levels: node "labs" has the columns m1, m2; give each its levels under names.columns`},
+		{"misspelt", "names:\n  columns: {dx: {levles: {0: no}}}", `unknown key "levles"; did you mean "levels"?`},
+	} {
+		_, err := ParseSpec("spec.yaml", []byte(exampleSpec+tc.extra+"\n"))
+		if !IsInputError(err) || !strings.Contains(fmt.Sprint(err), tc.want) {
+			t.Errorf("%s: error %v, want %q", tc.name, err, tc.want)
 		}
 	}
 }

@@ -2,7 +2,9 @@ package fairness
 
 import (
 	"encoding/json"
+	"errors"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -53,8 +55,8 @@ func TestNamesAreAdditive(t *testing.T) {
 	}
 	wantNames := &Names{
 		Groups:  &GroupNames{Reference: "Site A", Comparison: "Site B"},
-		Nodes:   map[string]DisplayName{"x": {"exposure", "mg"}, "dx": {"disease", ""}, "z": {"marker", "IU"}},
-		Columns: map[string]DisplayName{"x": {"exposure", "mg"}, "dx": {"disease", ""}, "z": {"marker", "IU"}, "score": {"risk score", ""}},
+		Nodes:   map[string]DisplayName{"x": {Name: "exposure", Unit: "mg"}, "dx": {Name: "disease", Unit: ""}, "z": {Name: "marker", Unit: "IU"}},
+		Columns: map[string]DisplayName{"x": {Name: "exposure", Unit: "mg"}, "dx": {Name: "disease", Unit: ""}, "z": {Name: "marker", Unit: "IU"}, "score": {Name: "risk score", Unit: ""}},
 	}
 	if !reflect.DeepEqual(named.Names, wantNames) {
 		t.Errorf("names %+v, want %+v", named.Names, wantNames)
@@ -119,8 +121,8 @@ func TestNamesLookups(t *testing.T) {
 		t.Error("a nil Names renames something")
 	}
 	n := &Names{Groups: &GroupNames{Comparison: "women"},
-		Nodes:   map[string]DisplayName{"hb": {"haemoglobin", "g/dL"}},
-		Columns: map[string]DisplayName{"hb": {"haemoglobin", "g/dL"}}}
+		Nodes:   map[string]DisplayName{"hb": {Name: "haemoglobin", Unit: "g/dL"}},
+		Columns: map[string]DisplayName{"hb": {Name: "haemoglobin", Unit: "g/dL"}}}
 	for _, tc := range []struct{ got, want string }{
 		{n.NodeName("hb"), "haemoglobin"}, {n.NodeName("age"), "age"},
 		{n.ColumnName("hb"), "haemoglobin"}, {n.ColumnLabel("hb"), "haemoglobin, g/dL"}, {n.ColumnLabel("age"), "age"},
@@ -138,5 +140,57 @@ func TestNamesLookups(t *testing.T) {
 	}
 	if r.ReferenceName() != "m" || r.ComparisonName() != "women" {
 		t.Errorf("groups %q, %q", r.ReferenceName(), r.ComparisonName())
+	}
+}
+
+// TestLevelNames: level names are checked against the loaded data and
+// keyed as the details write the levels, so that a 0/1 column's "1.0"
+// names its level "1"; the label's levels may be written as its words.
+// A level that does not occur, or levels of a column with no levels, are
+// errors naming the key and line.
+func TestLevelNames(t *testing.T) {
+	data := smallData(200)
+	spec := writeAudit(t, smallSpec+"names:\n  columns:\n    dx: {name: disease, levels: {0: healthy, 1.0: diseased}}\n", data)
+	plan, err := Plan(spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[string]string{"0": "healthy", "1": "diseased"}
+	if got := plan.Names.Columns["dx"]; got.Name != "disease" || !reflect.DeepEqual(plan.Names.Levels["dx"], want) {
+		t.Errorf("dx: %+v, levels %v, want levels %v", got, plan.Names.Levels, want)
+	}
+	r, err := Run(spec, RunOptions{Workers: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range r.Details.Columns {
+		if c.Name == "dx" && !slices.Equal(c.Levels, []string{"0", "1"}) {
+			t.Errorf("dx details levels %v: the level names' keys must be these", c.Levels)
+		}
+	}
+	if !reflect.DeepEqual(r.Names.Levels["dx"], want) || r.Names.LevelName("dx", "1") != "diseased" || r.Names.LevelName("dx", "2") != "2" {
+		t.Errorf("result levels %v", r.Names.Levels)
+	}
+	// The label read from words: its levels may be named by the words.
+	words := strings.NewReplacer(",1,", ",sick,", ",0,", ",well,").Replace(data)
+	spec = writeAudit(t, smallSpec+"positive: sick\nnames:\n  nodes:\n    dx: {levels: {well: healthy, sick: diseased}}\n", words)
+	if plan, err = Plan(spec); err != nil {
+		t.Fatal(err)
+	}
+	if got := plan.Names.Levels["dx"]; !reflect.DeepEqual(got, want) {
+		t.Errorf("label words: levels %v, want %v", got, want)
+	}
+	for _, tc := range []struct{ names, want string }{
+		{"    dx: {levels: {2: other}}", `spec.yaml:18: key names.columns.dx.levels.2: level "2" does not occur in column "dx" (its levels: 0, 1)`},
+		{"    x: {levels: {0: none}}", `key names.columns.x.levels: column "x" is numeric with more than two values`},
+		{"    score: {levels: {0: low}}", `key names.columns.score.levels: column "score" is not described by levels`},
+		{"    dx: {levels: {0: a, 0.0: b}}", `key names.columns.dx.levels.0.0: level "0" of column "dx" is named twice`},
+	} {
+		spec := writeAudit(t, smallSpec+"names:\n  columns:\n"+tc.names+"\n", data)
+		_, err := Plan(spec)
+		var se *SpecError
+		if !errors.As(err, &se) || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("%s: error %v, want %q", tc.names, err, tc.want)
+		}
 	}
 }

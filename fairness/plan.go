@@ -70,7 +70,7 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 		info.FoldSplits = attribution.DefaultFoldSplits(sample.Counts())
 	}
 	info.ModelInputs = modelInputs(spec)
-	names := resultNames(spec)
+	names := resultNames(spec, d.levelNames)
 	info.Names = names
 	info.Warnings = append(dataWarnings(info.Groups, names.GroupName(info.Groups.Reference, false), names.GroupName(info.Groups.Comparison, true)),
 		modelInputWarnings(info.ModelInputs, spec.Groups.Column, spec.Score, spec.ScoreIsNode(), nil, names)...)

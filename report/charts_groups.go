@@ -111,23 +111,23 @@ func binLabels(res *fairness.Result, c fairness.ColumnDetails) []string {
 	return out
 }
 
-// levelLabels names the levels of a column described by levels: as they
-// are, except the label's 0 and 1 when the spec named the label's words
-// (fairness.LabelValues), which then name them.
+// levelLabels names the levels of a column described by levels: by the
+// display names of the spec's names key (fairness.Names.LevelName), else
+// the label's 0 and 1 by the label's words when the spec named them
+// (fairness.LabelValues), else as they are.
 func levelLabels(res *fairness.Result, c fairness.ColumnDetails) []string {
 	lv := res.LabelValues
-	if c.Name != res.Label || lv == nil || !c.Binary {
-		return c.Levels
-	}
 	out := make([]string, len(c.Levels))
 	for j, l := range c.Levels {
+		out[j] = res.Names.LevelName(c.Name, l)
+		if out[j] != l || c.Name != res.Label || lv == nil || !c.Binary {
+			continue
+		}
 		switch {
 		case l == "1":
 			out[j] = lv.Positive
 		case l == "0" && lv.Negative != "":
 			out[j] = lv.Negative
-		default:
-			out[j] = l
 		}
 	}
 	return out

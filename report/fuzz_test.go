@@ -14,16 +14,21 @@ import (
 )
 
 // fuzzResult is hostileResult(s) with Details whose column names and
-// categorical levels carry s, and the warnings fairness.Warnings derives
+// categorical levels carry s (the first level of each with a display
+// name that does too), and the warnings fairness.Warnings derives
 // from it (which quote node and column names) before the hostile one.
 func fuzzResult(s string) *fairness.Result {
 	r := hostileResult(s)
 	r.Details = handDetails()
+	r.Names.Levels = map[string]map[string]string{}
 	for i := range r.Details.Columns {
 		c := &r.Details.Columns[i]
 		c.Name += s
 		for j := range c.Levels {
 			c.Levels[j] = "level" + c.Levels[j] + s
+		}
+		if len(c.Levels) > 0 { // the first level gets a display name
+			r.Names.Levels[c.Name] = map[string]string{c.Levels[0]: "LN" + s}
 		}
 	}
 	r.Warnings = append(fairness.Warnings(r), r.Warnings...)

@@ -99,3 +99,28 @@ func TestColumnCardLevels(t *testing.T) {
 		t.Errorf("hb: head %q, %d rows, %d chart bins; want 10 numeric bins", head, len(rows), len(labels("hb")))
 	}
 }
+
+// TestColumnCardLevelNames: the level names of the spec's names key
+// (fairness.Names.Levels) name the levels in the card's table and chart,
+// before the label's words; a level without one is shown as it is.
+func TestColumnCardLevelNames(t *testing.T) {
+	page := renderHTML(t, false, func(r *fairness.Result) {
+		r.Details = levelDetails()
+		r.LabelValues = &fairness.LabelValues{Positive: "anaemic", Negative: "not anaemic"}
+		r.Names = &fairness.Names{Levels: map[string]map[string]string{
+			"anaemia": {"1": "anaemia present"}, "site": {"north": "North clinic", "south": "South clinic"}}}
+	})
+	cols := pageData(t, page)["columns"].(map[string]any)
+	for col, want := range map[string][]any{"anaemia": {"not anaemic", "anaemia present"}, "site": {"North clinic", "South clinic"}} {
+		got := cols[col].(map[string]any)["xAxis"].([]any)[0].(map[string]any)["data"].([]any)
+		if !slices.Equal(got, want) {
+			t.Errorf("%s chart categories %v, want %v", col, got, want)
+		}
+		_, rows := cardRows(t, page, col)
+		for j, w := range want {
+			if j >= len(rows) || rows[j][0] != w {
+				t.Errorf("%s table rows %q, want level %q", col, rows, w)
+			}
+		}
+	}
+}

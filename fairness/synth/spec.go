@@ -40,6 +40,7 @@ names:
   groups: {reference: men, comparison: women}
   nodes:
     age: {name: age, unit: years}
+    anaemia: {levels: {0: no anaemia, 1: anaemia}}
     hb: {name: haemoglobin, unit: g/dL}
     panel: red-cell indices
     bmi: {name: body-mass index, unit: kg/m²}
