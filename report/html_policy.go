@@ -19,5 +19,5 @@ func policyGate(res *fairness.Result) *gateView {
 		return nil
 	}
 	return &gateView{Headline: policyHeadline(o), File: o.File, Title: o.Title, Passed: o.Passed,
-		Rows: policyRows(o), Notes: policyNotes(o), Caution: policyCaution}
+		Rows: policyRows(o, res.Names), Notes: policyNotes(o), Caution: policyCaution}
 }

@@ -18,7 +18,7 @@ func mdPolicy(p mdPrinter, res *fairness.Result) {
 	}
 	p("| Rule | Metric | Group | Limit | Judged on | Value | Result |\n")
 	p("| ---: | --- | --- | --- | --- | ---: | --- |\n")
-	for _, r := range policyRows(o) { // Judged and Value are the report's own words and numbers
+	for _, r := range policyRows(o, res.Names) { // Judged and Value are the report's own words and numbers
 		result := mdText(r.StatusWord)
 		if r.Status == "breach" {
 			result = "**" + result + "**"

@@ -154,3 +154,29 @@ func mustJSON(t *testing.T, v any) string {
 	}
 	return string(b)
 }
+
+// TestNamesInPolicy: the policy section names the comparison group by
+// its display name in every report.
+func TestNamesInPolicy(t *testing.T) {
+	res := policyResult(t)
+	res.Names = &fairness.Names{Groups: &fairness.GroupNames{Comparison: "adult women"}}
+	var text, md, page bytes.Buffer
+	if err := WriteText(&text, res); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteMarkdown(&md, res); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteHTML(&page, res); err != nil {
+		t.Fatal(err)
+	}
+	for name, tc := range map[string]struct{ out, want string }{
+		"text":     {text.String(), "  1 (line 4)  fnr             adult women  |gap| <= 5.00 pts"},
+		"Markdown": {md.String(), "| 1 (line 4) | `fnr` | adult women | \\|gap\\| ≤ 5.00 pts |"},
+		"HTML":     {page.String(), `<td data-label="Metric"><code>fnr</code></td><td data-label="Group">adult women</td>`},
+	} {
+		if !strings.Contains(tc.out, tc.want) {
+			t.Errorf("%s: the policy section lacks %q", name, tc.want)
+		}
+	}
+}

@@ -5,6 +5,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/gapwise/gapwise/fairness"
 	"github.com/gapwise/gapwise/fairness/policy"
 )
 
@@ -26,11 +27,12 @@ type policyRow struct {
 	Preset                     string
 }
 
-// policyRows formats the checks of o in their order.
-func policyRows(o *policy.Outcome) []policyRow {
+// policyRows formats the checks of o in their order, naming the
+// comparison group by its display name in names (nil: by its value).
+func policyRows(o *policy.Outcome, names *fairness.Names) []policyRow {
 	var rows []policyRow
 	for _, c := range o.Checks {
-		r := policyRow{Rule: c.Rule, Line: c.Line, Metric: c.Metric, Group: c.Comparison, Judged: judgedWords(c),
+		r := policyRow{Rule: c.Rule, Line: c.Line, Metric: c.Metric, Group: names.GroupName(c.Comparison, true), Judged: judgedWords(c),
 			Status: c.Status, StatusWord: statusWords[c.Status], Level: statusLevels[c.Status], Reason: c.Reason, Preset: c.Preset}
 		dec := checkDecimals(c)
 		if c.Limit == policy.LimitMaxGap {
@@ -155,7 +157,7 @@ func policyNotes(o *policy.Outcome) []string {
 // how many checks breached, and the first three.
 func PolicyBreachMessage(o *policy.Outcome) string {
 	var parts []string
-	rows := policyRows(o)
+	rows := policyRows(o, nil)
 	for _, r := range rows {
 		if r.Status != policy.StatusBreach && r.Status != policy.StatusUnjudged {
 			continue

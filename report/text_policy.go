@@ -22,7 +22,7 @@ func (t *textWriter) policy(res *fairness.Result) {
 	t.line("Policy gate: %s (%s%s)", policyHeadline(o), o.File, title)
 	tab := textTable{header: []string{"rule", "metric", "group", "limit", "judged on", "value", "result"}}
 	var reasons []string
-	for _, r := range policyRows(o) {
+	for _, r := range policyRows(o, res.Names) {
 		tab.add(fmt.Sprintf("%d (line %d)", r.Rule, r.Line), r.Metric, r.Group, r.LimitPlain, r.Judged, r.Value, r.StatusWord)
 		if r.Reason != "" {
 			reasons = append(reasons, fmt.Sprintf("rule %d, %s for %q: %s", r.Rule, r.Metric, r.Group, r.Reason))
