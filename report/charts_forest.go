@@ -203,7 +203,11 @@ func forestTip(res *fairness.Result, metric string, r forestRow) []string {
 	}
 	v := formatDelta(metric, r.Value)
 	if r.Low != nil && r.High != nil {
-		v += ", " + intervalName(res) + " " + formatDeltaInterval(metric, r.Low, r.High)
+		name := estimateIntervalName(res)
+		if r.Kind == "gap" {
+			name = intervalName(res)
+		}
+		v += ", " + name + " " + formatDeltaInterval(metric, r.Low, r.High)
 	}
 	tip = append(tip, v)
 	switch r.Role {

@@ -6,22 +6,27 @@ import (
 	"io"
 	"math"
 	"path/filepath"
+	"strings"
 
 	"github.com/gapwise/gapwise/fairness"
 )
 
 // DemoOutputs names the files the demo wrote: the folder and the base
 // names of the cohort, the spec, the result and the report in it, and
-// Command, how the user runs gapwise ("gapwise", or "go run ./cmd/gapwise";
-// "" means "gapwise"), for the hint of what to run next.
+// Command, the words of how the user runs gapwise ("gapwise", or "go",
+// "run", "./cmd/gapwise"; none means "gapwise"), for the hint of what to
+// run next, in which every word is quoted for the shell as needed.
 type DemoOutputs struct {
 	Dir, Data, Spec, Result, Report string
-	Command                         string
+	Command                         []string
 }
 
 // DemoSummary writes what `gapwise demo` prints after its audit: per
 // metric, the two groups' values, the gap (with its interval when there is
-// one) and the largest contribution, then where the files are.
+// one) and the largest contribution; how the intervals were made (and why
+// the contributions' intervals are approximate when they came from the
+// fast bootstrap); the warnings, most serious first, with their
+// severities; then where the files are and the command to run next.
 func DemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) error {
 	var b bytes.Buffer
 	writeDemoSummary(&b, res, out)
@@ -50,19 +55,54 @@ func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
 		}
 		fmt.Fprintln(w, line)
 	}
-	if len(res.Warnings) > 0 {
-		fmt.Fprintln(w, "\nWarnings:")
-		for _, wr := range res.Warnings {
-			fmt.Fprintf(w, "  - %s: %s\n", wr.Severity, pt(wr.Message))
+	if iv := intervalSetting(res); iv != "" {
+		fmt.Fprintf(w, "\nIntervals in brackets: %s.\n", iv)
+		if n := approximateNote(res); n != "" {
+			fmt.Fprintln(w, n)
 		}
 	}
+	if len(res.Warnings) > 0 {
+		fmt.Fprintln(w, "\nWarnings (most serious first):")
+		for n, i := range warningOrder(res.Warnings) {
+			wr := res.Warnings[i]
+			fmt.Fprintf(w, "  %d. %s: %s\n", n+1, severityWord(wr.Severity), pt(wr.Message))
+		}
+	} else {
+		fmt.Fprintln(w, "\nNo warnings.")
+	}
 	command := out.Command
-	if command == "" {
-		command = "gapwise"
+	if len(command) == 0 {
+		command = []string{"gapwise"}
 	}
 	fmt.Fprintf(w, "\nWrote %s, %s, %s and %s in %s\n", pt(out.Data), pt(out.Spec), pt(out.Result), pt(out.Report), pt(out.Dir))
-	fmt.Fprintf(w, "Open %s in a browser, or run: %s decompose --spec %s\n",
-		pt(filepath.Join(out.Dir, out.Report)), pt(command), pt(filepath.Join(out.Dir, out.Spec)))
+	next := shellCommand(append(command, "decompose", "--spec", filepath.Join(out.Dir, out.Spec))...)
+	fmt.Fprintf(w, "Open %s in a browser, or run next:\n  %s\n", pt(filepath.Join(out.Dir, out.Report)), pt(next))
+}
+
+// shellWord quotes s for a POSIX shell when it holds anything but
+// letters, digits and -_./:@+=,%: in single quotes, a quote inside
+// closing the quoted part, escaped with a backslash, and reopening it.
+func shellWord(s string) string {
+	safe := s != ""
+	for _, r := range s {
+		if !(r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || strings.ContainsRune("-_./:@+=,%", r)) {
+			safe = false
+		}
+	}
+	if safe {
+		return s
+	}
+	return "'" + strings.ReplaceAll(s, "'", `'\''`) + "'"
+}
+
+// shellCommand joins words into a command line, each word quoted by
+// shellWord.
+func shellCommand(words ...string) string {
+	q := make([]string, len(words))
+	for i, w := range words {
+		q[i] = shellWord(w)
+	}
+	return strings.Join(q, " ")
 }
 
 // Largest returns the estimable contribution of largest magnitude (the

@@ -71,7 +71,7 @@ func TestWriteTextDiagnostics(t *testing.T) {
 		"estimated from       both records",
 		"log-ratios clipped   to their central 99%",
 		"exact Shapley up to  16 mechanisms",
-		"intervals            100 bootstrap replicates, fitted density ratios kept (fast mode: narrower), level 90%; 2 could not be computed",
+		"intervals            100 bootstrap replicates, fitted density ratios kept (fast mode: contribution intervals approximate, too narrow), level 90%; 2 could not be computed",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("missing %q in\n%s", want, out)
@@ -89,7 +89,7 @@ func TestWriteMarkdownTitleAndLevel(t *testing.T) {
 	out := b.String()
 	for _, want := range []string{
 		"## Anaemia screening, spring audit\n\nPerformance audit of `risk`: women compared with men.",
-		"| Mechanism | Contribution | 90% interval | Alone | Gap if equalised |",
+		"| Mechanism | Contribution | approximate 90% interval | Alone | Gap if equalised |", // withDiagnostics keeps the ratios
 		"Intervals in brackets: 100 bootstrap replicates",
 		"is +9.0 pts (90% interval [+6.1, +11.8] pts)",
 	} {

@@ -72,18 +72,36 @@ func TestExcludedInEveryOutput(t *testing.T) {
 	}
 }
 
-// TestDemoSummaryWarningsAndCommand: the demo summary lists the warnings
-// with their severity and hints the command the user ran.
+// TestDemoSummaryWarningsAndCommand: the demo summary lists the warnings,
+// most serious first with their severity, and hints the command the user
+// ran, each word quoted for the shell where it needs it.
 func TestDemoSummaryWarningsAndCommand(t *testing.T) {
 	res := handResult()
-	res.Warnings = []fairness.Warning{{Kind: fairness.KindSmallGroup, Severity: fairness.SeverityNote, Message: "group \"men\" is small"}}
-	var b strings.Builder
-	if err := DemoSummary(&b, res, DemoOutputs{Dir: "d", Data: "c.csv", Spec: "s.yaml", Result: "r.json", Report: "r.html", Command: "go run ./cmd/gapwise"}); err != nil {
-		t.Fatal(err)
+	res.Warnings = append(res.Warnings, fairness.Warning{Kind: fairness.KindSmallGroup, Severity: fairness.SeverityNote, Message: "group \"men\" is small"})
+	res.Warnings[0], res.Warnings[2] = res.Warnings[2], res.Warnings[0] // the note first: the summary reorders
+	cases := []struct {
+		name    string
+		command []string
+		dir     string
+		want    string
+	}{
+		{"go run", []string{"go", "run", "./cmd/gapwise"}, "d", "or run next:\n  go run ./cmd/gapwise decompose --spec d/s.yaml\n"},
+		{"binary on PATH", nil, "d", "or run next:\n  gapwise decompose --spec d/s.yaml\n"},
+		{"paths with spaces and quotes", []string{"/opt/my tools/gapwise"}, "it's here", `or run next:` + "\n" + `  '/opt/my tools/gapwise' decompose --spec 'it'\''s here/s.yaml'` + "\n"},
 	}
-	for _, want := range []string{"Warnings:\n  - note: group \"men\" is small\n", "or run: go run ./cmd/gapwise decompose --spec d/s.yaml"} {
-		if !strings.Contains(b.String(), want) {
-			t.Errorf("summary lacks %q:\n%s", want, b.String())
+	for _, c := range cases {
+		var b strings.Builder
+		if err := DemoSummary(&b, res, DemoOutputs{Dir: c.dir, Data: "c.csv", Spec: "s.yaml", Result: "r.json", Report: "r.html", Command: c.command}); err != nil {
+			t.Fatal(err)
+		}
+		for _, want := range []string{
+			"Warnings (most serious first):\n  1. unreliable: the contribution of `ferritin` rests on 96 effective records",
+			"\n  2. caution: mechanism ferritin: largest weight carries 11% of the total\n  3. note: group \"men\" is small\n",
+			c.want,
+		} {
+			if !strings.Contains(b.String(), want) {
+				t.Errorf("%s: summary lacks %q:\n%s", c.name, want, b.String())
+			}
 		}
 	}
 }

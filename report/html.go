@@ -99,6 +99,8 @@ type page struct {
 	DrillNodes   int
 
 	IntervalName    string // e.g. "95% interval"
+	EstimateName    string // the contributions' intervals: IntervalName, "approximate" in the fast mode
+	ApproximateNote string // why the contributions' intervals are approximate, or ""
 	IntervalSetting string // how the intervals were made, or ""
 	HasStdError     bool   // some contribution has a sampling standard error
 	HasSides        bool   // some contribution has a difference between the sides
@@ -220,6 +222,8 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		CmpName:         cmpName(res),
 		Names:           headerNames(res),
 		IntervalName:    intervalName(res),
+		EstimateName:    estimateIntervalName(res),
+		ApproximateNote: approximateNote(res),
 		IntervalSetting: intervalSetting(res),
 		Diagnostics:     diagnostics(res),
 		Cohort:          filepath.Base(res.Inputs.DataFile), // the footer has the full path

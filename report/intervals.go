@@ -25,9 +25,39 @@ func trimPercent(p float64) string {
 	return s + "%"
 }
 
-// intervalName is the heading of an interval column, e.g. "95% interval".
+// intervalName is the heading of an interval column of observed values
+// (the groups' metrics and the gap), e.g. "95% interval". The bootstrap
+// resamples those directly in either mode, so they are never approximate.
 func intervalName(res *fairness.Result) string {
 	return intervalLevel(res) + " interval"
+}
+
+// approximateIntervals reports whether the intervals of estimated
+// quantities (contributions, the residual) come from the fast bootstrap,
+// which keeps the fitted density ratios: it leaves out the classifiers'
+// own estimation error, so those intervals are too narrow.
+func approximateIntervals(res *fairness.Result) bool {
+	iv := res.Settings.Intervals
+	return iv != nil && iv.KeepRatios
+}
+
+// estimateIntervalName is the heading of an interval of an estimated
+// quantity (a contribution, the residual): intervalName, prefixed
+// "approximate" when approximateIntervals.
+func estimateIntervalName(res *fairness.Result) string {
+	if approximateIntervals(res) {
+		return "approximate " + intervalName(res)
+	}
+	return intervalName(res)
+}
+
+// approximateNote says why the contributions' intervals are approximate,
+// or "" when they are not.
+func approximateNote(res *fairness.Result) string {
+	if !approximateIntervals(res) {
+		return ""
+	}
+	return "Contribution intervals are approximate: the fast bootstrap kept the fitted density ratios, so they leave out the classifiers' own error and are too narrow; refit in every replicate (intervals key keep_ratios: false, or --fast-intervals=false) for intervals to rely on. The groups' values and the gap are resampled directly and are not affected."
 }
 
 // intervalSetting describes how the intervals were made, e.g. "200
@@ -40,7 +70,7 @@ func intervalSetting(res *fairness.Result) string {
 	}
 	mode := "classifiers refitted in each"
 	if iv.KeepRatios {
-		mode = "fitted density ratios kept (fast mode: narrower)"
+		mode = "fitted density ratios kept (fast mode: contribution intervals approximate, too narrow)"
 	}
 	s := fmt.Sprintf("%d bootstrap replicates, %s, level %s", iv.Replicates, mode, intervalLevel(res))
 	if r := res.Settings.FoldSplits; r > 1 {

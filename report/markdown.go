@@ -122,7 +122,7 @@ func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult,
 		rule += " ---: |"
 		blank += " |"
 	}
-	p("| Mechanism | Contribution | %s | Alone | Gap if equalised |%s\n", mdText(intervalName(res)), head)
+	p("| Mechanism | Contribution | %s | Alone | Gap if equalised |%s\n", mdText(estimateIntervalName(res)), head)
 	p("| --- | ---: | ---: | ---: | ---: |%s\n", rule)
 	for i, c := range m.Contributions {
 		name := mdCodeCell(contribMech(res, c))

@@ -6,8 +6,8 @@ import "github.com/gapwise/gapwise/fairness"
 // as mdText, code as mdCodeCell (a pipe inside is escaped).
 var markdownCellInline = inlineStyle{text: mdText, code: mdCodeCell}
 
-// mdOverview prints the overview table (overviewRows) and
-// overviewCaution.
+// mdOverview prints the overview table (overviewRows), overviewCaution
+// and, for intervals of the fast bootstrap, approximateNote.
 func mdOverview(p mdPrinter, res *fairness.Result) {
 	p("### Overview\n\n")
 	if len(res.Metrics) == 0 {
@@ -28,6 +28,9 @@ func mdOverview(p mdPrinter, res *fairness.Result) {
 		p("| %s | %s | %s | %s | %s | **%s**, %s |\n", r.Title, r.Reference, r.Comparison, r.Gap, lead, r.Verdict, because)
 	}
 	p("\n%s\n\n", overviewCaution)
+	if n := approximateNote(res); n != "" {
+		p("%s\n\n", mdText(n))
+	}
 }
 
 // mdWarnings prints the warnings, most serious first, numbered as the

@@ -359,7 +359,7 @@ func contributionWords(res *fairness.Result, metric string, c fairness.Contribut
 		return formatDelta(metric, c.Value)
 	}
 	dec := intervalDecimals(metric, *c.CILow, *c.CIHigh)
-	return deltaAt(metric, c.Value, dec) + " (" + intervalName(res) + " " + deltaIntervalAt(metric, *c.CILow, *c.CIHigh, dec) + ")"
+	return deltaAt(metric, c.Value, dec) + " (" + estimateIntervalName(res) + " " + deltaIntervalAt(metric, *c.CILow, *c.CIHigh, dec) + ")"
 }
 
 // formatEdge prints a histogram bin edge with three significant digits

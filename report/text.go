@@ -130,7 +130,7 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 		right = append(right, true)
 	}
 	if hasCI {
-		head = append(head, intervalName(res))
+		head = append(head, estimateIntervalName(res))
 		right = append(right, true)
 	}
 	if hasSides {

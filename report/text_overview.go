@@ -11,7 +11,8 @@ import (
 const overviewCaution = "These are statistical estimates that hold under the causal assumptions listed in this report (the graph is right, no hidden confounders, overlap between the groups); they are not clinical or legal findings. Local regulation and institutional review govern how a model may be used and changed."
 
 // overview prints the overview of every metric: values, gap, largest
-// contribution and verdict, then overviewCaution.
+// contribution and verdict, then overviewCaution and, for intervals of
+// the fast bootstrap, approximateNote.
 func (t *textWriter) overview(res *fairness.Result) {
 	ref, cmp := refName(res), cmpName(res)
 	head := "Overview: gap = " + cmp + " − " + ref
@@ -36,6 +37,9 @@ func (t *textWriter) overview(res *fairness.Result) {
 		t.line("  The result holds no metrics.")
 	}
 	t.line("  %s", overviewCaution)
+	if n := approximateNote(res); n != "" {
+		t.line("  %s", n)
+	}
 	t.line("")
 }
 

@@ -51,7 +51,8 @@ func TestBinary(t *testing.T) {
 	}
 
 	demo := filepath.Join(dir, "demo")
-	out, errOut, code := run("demo", "--out", demo, "--rows", "3000")
+	// The demo's default bootstrap (demoIntervals refits), on a small cohort.
+	out, errOut, code := run("demo", "--out", demo, "--rows", "1000")
 	if code != 0 {
 		t.Fatalf("demo: exit %d, stderr %q", code, errOut)
 	}
@@ -60,6 +61,9 @@ func TestBinary(t *testing.T) {
 	}
 	if !strings.Contains(out, "SYNTHETIC") || !strings.Contains(out, demo) {
 		t.Errorf("demo summary: %q", out)
+	}
+	if want := "or run next:\n  " + bin + " decompose --spec " + filepath.Join(demo, demoSpec) + "\n"; !strings.Contains(out, want) {
+		t.Errorf("demo summary lacks the hint %q:\n%s", want, out)
 	}
 	for _, f := range []string{demoData, demoSpec, resultFile, reportFile} {
 		if _, err := os.Stat(filepath.Join(demo, f)); err != nil {
@@ -70,8 +74,9 @@ func TestBinary(t *testing.T) {
 	if res.Tool.Version != "v9.9.9-test" {
 		t.Errorf("result records version %q", res.Tool.Version)
 	}
-	// The demo's default bootstrap: demoIntervals fast replicates at 0.95.
-	if iv := res.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: demoIntervals, Level: 0.95, KeepRatios: true}}) {
+	// The demo's default bootstrap: demoIntervals replicates at 0.95 that
+	// refit the classifiers.
+	if iv := res.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: demoIntervals, Level: 0.95, KeepRatios: false}}) {
 		t.Errorf("demo settings.intervals %+v", iv)
 	}
 
@@ -113,5 +118,35 @@ func TestBinary(t *testing.T) {
 	}
 	if iv := refit.Settings.Intervals; iv == nil || iv.KeepRatios || iv.Replicates != 6 {
 		t.Errorf("--intervals 6 --fast-intervals=false: settings.intervals %+v", iv)
+	}
+}
+
+// TestDemoHintRunsAfterGoRun: after `go run . demo` (from this package's
+// folder, as `go run ./cmd/gapwise demo` runs from the module's root), the
+// summary's "run next" hint is a go run command, and running it as printed
+// (by sh, from the same folder) audits the demo's spec.
+func TestDemoHintRunsAfterGoRun(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds with go run")
+	}
+	dir := filepath.Join(t.TempDir(), "demo out") // a space, which the hint must quote
+	demo := exec.Command("go", "run", ".", "demo", "--out", dir, "--rows", "300", "--intervals", "0")
+	out, err := demo.Output()
+	if err != nil {
+		t.Fatalf("go run . demo: %v\n%s", err, out)
+	}
+	const lead = "or run next:\n  "
+	i := strings.Index(string(out), lead)
+	if i < 0 {
+		t.Fatalf("no hint in:\n%s", out)
+	}
+	hint := strings.TrimSpace(strings.SplitN(string(out[i+len(lead):]), "\n", 2)[0])
+	if want := "go run . decompose --spec '" + filepath.Join(dir, demoSpec) + "'"; hint != want {
+		t.Errorf("hint %q, want %q", hint, want)
+	}
+	next := exec.Command("sh", "-c", hint+" --format markdown")
+	got, err := next.CombinedOutput()
+	if err != nil || !strings.Contains(string(got), "### Overview") {
+		t.Errorf("running the hint %q: %v\n%s", hint, err, got)
 	}
 }
