@@ -41,7 +41,8 @@ const drillNodes = 3
 // (forestChart) beside a table, the
 // causal graph shaded by contribution, per-column distributions for the
 // largest contributions, estimation diagnostics, assumptions
-// and cautions, and a reproducibility footer. All scripts (ECharts 6.1.0,
+// and cautions, the appendix of reporting items (crosswalk.go), and a
+// reproducibility footer. All scripts (ECharts 6.1.0,
 // vendored under assets/ with its licence), styles and data are inline: the
 // page makes no network request. Its Content-Security-Policy admits
 // those scripts and the style element by their SHA-256 hashes only
@@ -109,6 +110,7 @@ type page struct {
 	WhatIf          whatIfView // the what-if panel (html_whatif.go)
 	Gate            *gateView  // the policy section (html_policy.go), nil without a policy
 	ImpactNote      string     // what the ratio beside a rate's gap is (impactNote), or ""
+	Crosswalk       crosswalkView
 }
 
 type keyValue struct{ Key, Value string }
@@ -236,6 +238,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		Caution:         overviewCaution,
 		Gate:            policyGate(res),
 		ImpactNote:      impactNote(res),
+		Crosswalk:       crosswalkPage(),
 	}
 	if res.Inputs.DataFile == "" {
 		p.Cohort = "the audited records"

@@ -16,7 +16,8 @@ import (
 // plain-language summary of every metric; a table of the two groups'
 // metric values and one table per metric with its decomposition
 // (contributions, intervals as "[low, high]" when the bootstrap ran, the
-// residual); the assumptions and cautions. The spec's title, when given,
+// residual); the assumptions and cautions; the appendix of reporting items
+// (crosswalk.go). The spec's title, when given,
 // is the heading. Numbers are formatted exactly as in the HTML report. It
 // returns the first write error.
 func WriteMarkdown(w io.Writer, res *fairness.Result) error {
@@ -39,6 +40,7 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 		}
 		p("\n")
 	}
+	mdCrosswalk(p)
 	p("_Statistical estimates under the stated causal assumptions, not clinical or legal findings. %s %s, seed %d._\n",
 		mdText(res.Tool.Name), mdText(res.Tool.Version), res.Seed)
 	return bw.Flush()

@@ -78,6 +78,31 @@ func ExampleWriteMarkdown() {
 	// - The causal graph is right.
 	// - The contributions are statistical estimates, not clinical or legal findings.
 	//
+	// ### Appendix: reporting items
+	//
+	// Which items of three published reporting frameworks this report gives evidence for, and which it does not. The list describes what gapwise&#39;s reports contain; it is the same for every audit.
+	//
+	// | Framework | Item | This report | What it gives | Where |
+	// | --- | --- | --- | --- | --- |
+	// | TRIPOD+AI | Performance measures with confidence intervals, including for key subgroups | **partly** | each audited metric for the two compared groups and their gap, with percentile bootstrap intervals when the audit asks for them \(spec key intervals or --intervals\); one grouping column and two of its values per audit | Overview; Metrics by group |
+	// | TRIPOD+AI | Calibration as well as discrimination | **partly** | calibration-in-the-large, expected calibration error, Brier score and the area under the ROC curve per group when the spec lists them, each split into mechanism contributions; the HTML page adds each group&#39;s reliability curve and table; no calibration slope or smoothed calibration curve | Metrics by group; Decomposition of the … gap |
+	// | TRIPOD+AI | Approaches to model fairness | **partly** | measures the gap between two groups in each metric and estimates how much each mechanism of the causal graph contributes to it; does not describe how fairness was addressed when the model was developed | Overview; Decomposition of the … gap |
+	// | TRIPOD+AI | The other items: data sources, participants, outcome and predictors, sample size, model development and specification, the full validation | **not supplied** | these belong to the model&#39;s own development and validation report; the audit gives the audited records&#39; group sizes, events and rows dropped for missing values, and the inputs&#39; SHA-256 digests | the paragraph on the groups |
+	// | Model cards | Disaggregated evaluation: quantitative analyses reported per group | **partly** | every audited metric for each of the two groups, with the gap and its interval; one factor and two of its groups per audit \(run one audit per pair of groups for more\) | Overview; Metrics by group |
+	// | Model cards | Intersectional evaluation: analyses for combinations of factors | **not supplied** | one grouping column per audit; an intersection \(say, women over 65\) can be audited as a group through a column that combines the factors | – |
+	// | Model cards | The other sections: model details, intended use, factors, training data, ethical considerations, caveats and recommendations | **partly** | only the caveats of this audit \(its assumptions and cautions\); the rest is the model owner&#39;s to state | Assumptions and cautions |
+	// | EU AI Act | Article 10\(2\)\(f\): examination in view of possible biases likely to affect health and safety or lead to prohibited discrimination | **partly** | examines the model&#39;s performance in two groups of the audited records and how the groups&#39; data differ, mechanism by mechanism \(contributions, diagnostics\) and, on the HTML page, column by column; it does not examine the training, validation and testing data sets or the data governance that Article 10 covers | Overview; Decomposition of the … gap |
+	// | EU AI Act | Article 10\(2\)\(g\): appropriate measures to detect, prevent and mitigate those biases | **partly** | detection only: the gaps, the mechanisms behind them and, on the HTML page, what-if estimates of the gap if chosen mechanisms were the same in both groups; no measure to prevent or mitigate is taken or assessed | Overview; Decomposition of the … gap |
+	// | EU AI Act | Article 10\(2\)\(h\): identification of relevant data gaps or shortcomings | **partly** | the warnings flag small groups and few events, poor overlap between the groups, heavy-tailed weights, rows dropped for missing values and model inputs outside the graph; unrecorded variables and errors in the label itself stay invisible to the tool | Warnings |
+	//
+	// Sources:
+	//
+	// - TRIPOD+AI: G. S. Collins, K. G. M. Moons, P. Dhiman, et al. \(2024\). TRIPOD+AI statement: updated guidance for reporting clinical prediction models that use regression or machine learning methods. BMJ 385:e078378. doi:10.1136/bmj-2023-078378.
+	// - Model cards: M. Mitchell, S. Wu, A. Zaldivar, P. Barnes, L. Vasserman, B. Hutchinson, E. Spitzer, I. D. Raji, T. Gebru \(2019\). Model cards for model reporting. Proceedings of the Conference on Fairness, Accountability, and Transparency \(FAT\* 2019\), 220–229 \(pages from memory\).
+	// - EU AI Act: Regulation \(EU\) 2024/1689 \(Artificial Intelligence Act\), Article 10 &quot;Data and data governance&quot;.
+	//
+	// This is not a statement of compliance. Meeting TRIPOD+AI, writing a model card or fulfilling Article 10 of the EU AI Act rests on the whole documentation of a model and its data, judged by its developer, its deployer and the competent authorities; an audit is not a validation of the model or a conformity assessment.
+	//
 	// _Statistical estimates under the stated causal assumptions, not clinical or legal findings. gapwise dev, seed 0._
 }
 

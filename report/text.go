@@ -21,8 +21,9 @@ import (
 // over the fold splits when there were several, and the difference between
 // the two sides' estimates when both sides estimate), the residual
 // gap − Σ contributions with what it holds, the effective records behind
-// the estimate and the comparison of the two sides; then per-mechanism diagnostics and the
-// assumptions under which the numbers hold. Columns are aligned; metric
+// the estimate and the comparison of the two sides; then per-mechanism diagnostics, the
+// assumptions under which the numbers hold, the inputs and settings, and
+// the appendix of reporting items (crosswalk.go). Columns are aligned; metric
 // values print with four decimals, differences with a sign. NaN prints as
 // "n/a". It returns the first write error.
 func WriteText(w io.Writer, res *fairness.Result) error {
@@ -39,6 +40,8 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 	tw.diagnostics(res)
 	tw.list("Assumptions and cautions", res.Assumptions, "")
 	tw.inputs(res)
+	tw.line("")
+	tw.line("%s", crosswalkPointer)
 	return bw.Flush()
 }
 

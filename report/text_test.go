@@ -235,4 +235,6 @@ func ExampleWriteText() {
 	// Inputs and settings
 	//   seed            0
 	//   missing values  an error
+	//
+	// Reporting items (TRIPOD+AI, model cards, EU AI Act Article 10): the appendix of the Markdown and HTML reports (--format markdown, or report.html with --out) lists which this report supplies, partly supplies or does not supply; it is not a compliance statement.
 }
