@@ -83,10 +83,9 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	if err := splitGapsSides(out.Metrics, sides, opt, mix, diag); err != nil {
 		return nil, nil, err
 	}
-	if out.Estimator = opt.Estimator.resolve(); out.Estimator.robust() {
-		if out.Regressions, err = splitGapsRobust(out.Metrics, s, mechs, ratios, g, opt); err != nil {
-			return nil, nil, err
-		}
+	out.Estimator = opt.Estimator.resolve()
+	if out.Regressions, err = estimateGames(out.Metrics, s, mechs, ratios, sides, g, opt, out.Estimator, diag); err != nil {
+		return nil, nil, err
 	}
 	if !diag {
 		return out, ratios, nil

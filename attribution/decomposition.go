@@ -146,9 +146,19 @@ type MetricDecomposition struct {
 	ResidualSE *float64
 
 	// Influence holds the influence-function standard errors of the
-	// robust estimator's estimates (robust_influence.go); nil for the
-	// weighting estimator and in bootstrap replicates.
+	// estimates of the estimator behind them (influence.go): for the
+	// robust estimator valid with the nuisances estimated (its estimating
+	// equation is orthogonal to them), for the weighting estimator the
+	// delta method with the fitted ratios held fixed. Set in the point
+	// estimate (split 0's with several fold splits); nil in bootstrap
+	// replicates.
 	Influence *InfluenceSE
+	// CrossCheck compares the robust estimate with the weighting one
+	// (EstimatorBoth); nil otherwise and for AUC.
+	CrossCheck *EstimatorCheck
+	// crossSE holds the standard errors of the two estimators'
+	// differences until CrossCheck is built.
+	crossSE *InfluenceSE
 
 	// Percentile bootstrap intervals, set by Bootstrap; nil otherwise.
 	ReferenceCI     *Interval

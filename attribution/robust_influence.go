@@ -1,10 +1,6 @@
 package attribution
 
-import (
-	"math"
-
-	"github.com/gapwise/gapwise/internal/workers"
-)
+import "math"
 
 // Influence-function standard errors of the robust estimator.
 //
@@ -24,160 +20,61 @@ import (
 // gap, a what-if value — has influence Σ_S a_S ∇g·ψ_S and variance
 // Σ_i (its influence at i)², the two groups being independent samples.
 
-// InfluenceSE holds the influence-function standard errors of one
-// metric's estimates; NaN where unknown.
-type InfluenceSE struct {
-	Reference, Comparison, Gap float64
-	// Contributions[i] is the standard error of φ̂_i, Alone[i] of v({i})
-	// and IfEqualised[i] of v(N∖{i}).
-	Contributions, Alone, IfEqualised []float64
-}
-
-// robustBlock is the number of records per block of the influence pass;
-// blocks are the unit of parallel work and are summed in order, so the
-// result does not depend on the number of goroutines.
-const robustBlock = 512
-
-// influenceFunctionals returns, per record, from u[m][S] (the influence
-// of the record on M̂(S) of metric m), the influences dst[m] on φ_0 …
-// φ_{k−1}, M̂(∅), M̂(N), v(N), v({i}) (k) and v(N∖{i}) (k).
-func influenceFunctionals(k int) functional {
-	w := shapleyWeights(k)
-	full := 1<<k - 1
-	return func(u, dst [][]float64) {
-		for m := range u {
-			d, um := dst[m], u[m]
-			for i := range d {
-				d[i] = 0
-			}
-			for S := 0; S <= full; S++ {
-				size := popcount(S)
-				for i := 0; i < k; i++ {
-					if S&(1<<i) == 0 {
-						d[i] += w[size] * (um[S|1<<i] - um[S])
-					}
-				}
-			}
-			d[k], d[k+1], d[k+2] = um[0], um[full], um[full]-um[0]
-			for i := 0; i < k; i++ {
-				d[k+3+i] = um[1<<i] - um[0]
-				d[2*k+3+i] = um[full&^(1<<i)] - um[0]
-			}
-		}
-	}
-}
-
-func popcount(x int) int {
-	n := 0
-	for ; x != 0; x &= x - 1 {
-		n++
-	}
-	return n
-}
-
-// influence returns the standard errors of every robust metric (nil for
-// the others) for k mechanisms.
-func (e *robustEstimate) influence(k int) []*InfluenceSE {
-	in := e.in
-	n := len(in.y)
+// prepareInfluence returns, for the coalitions of plan p, the per-record
+// influence of every metric the robust estimator covers (defined[m]; not
+// AUC, nor a metric undefined under some coalition): u[m][c] =
+// ∇g(θ̂_S)·ψ_S(i) at S = p.cs[c].
+func (e *robustEstimate) prepareInfluence(p influencePlan) (func(lo, hi int) recordInfluence, []bool) {
 	nm := len(e.metrics)
-	full := 1<<k - 1
-	// Gradients ∇g(θ̂_S) per metric and coalition; nil where undefined.
-	grads := make([][][]float64, nm)
+	defined := make([]bool, nm)
+	grads := make([][][]float64, nm) // [m][c] ∇g at θ̂_{cs[c]}
 	for m := range grads {
 		if !e.ok[m] {
 			continue
 		}
-		grads[m] = make([][]float64, full+1)
-		for S := range grads[m] {
-			th := e.theta(m, uint64(S), nil)
+		defined[m] = true
+		grads[m] = make([][]float64, len(p.cs))
+		for c, S := range p.cs {
+			th := e.theta(m, S, nil)
 			if _, err := e.metrics[m].value(th); err != nil {
-				continue
+				defined[m] = false
+				break
 			}
 			g := make([]float64, len(th))
 			e.metrics[m].grad(th, g)
-			grads[m][S] = g
+			grads[m][c] = g
 		}
 	}
-	keyOf := make([][]int, len(e.families)) // [family][S] leaf of S
+	keyOf := make([][]int, len(e.families)) // [family][c] leaf of cs[c]
 	for fi, fam := range e.families {
-		keyOf[fi] = make([]int, full+1)
-		for S := range keyOf[fi] {
-			keyOf[fi][S] = fam.leafKey(uint64(S))
+		keyOf[fi] = make([]int, len(p.cs))
+		for c, S := range p.cs {
+			keyOf[fi][c] = fam.leafKey(S)
 		}
 	}
-	nf := 3*k + 3
-	blocks := (n + robustBlock - 1) / robustBlock
-	partial := make([][][]float64, blocks)
-	fn := influenceFunctionals(k)
-	workers.For(in.workers, blocks, func(_, b int) {
-		lo, hi := b*robustBlock, min(n, (b+1)*robustBlock)
+	return func(lo, hi int) recordInfluence {
 		psi := make([][][][]float64, len(e.families)) // [family][leaf][term][a]
 		for fi, fam := range e.families {
-			psi[fi] = fam.blockInfluence(in, lo, hi)
+			psi[fi] = fam.blockInfluence(e.in, lo, hi)
 		}
-		u := zeros(nm, full+1)
-		dst := zeros(nm, nf)
-		acc := zeros(nm, nf)
-		for a := 0; a < hi-lo; a++ {
-			for m := 0; m < nm; m++ {
-				if !e.ok[m] {
+		return func(a int, u [][]float64) {
+			for m := range u {
+				if !defined[m] {
 					continue
 				}
-				for S := 0; S <= full; S++ {
-					g := grads[m][S]
-					if g == nil {
-						u[m][S] = 0
-						continue
-					}
+				for c := range p.cs {
 					var v float64
 					for j, id := range e.metrics[m].terms {
 						w := e.where[id]
-						v += g[j] * psi[w[0]][keyOf[w[0]][S]][w[1]][a]
+						v += grads[m][c][j] * psi[w[0]][keyOf[w[0]][c]][w[1]][a]
 					}
-					u[m][S] = v
+					u[m][c] = v
 				}
-			}
-			fn(u, dst)
-			for m := range acc {
-				for f, x := range dst[m] {
-					acc[m][f] += x * x
-				}
+				// Both ends are the observed metrics.
+				u[m][len(p.cs)], u[m][len(p.cs)+1] = u[m][0], u[m][p.fullAt()]
 			}
 		}
-		partial[b] = acc
-	})
-	total := zeros(nm, nf)
-	for _, p := range partial {
-		for m := range total {
-			for f := range total[m] {
-				total[m][f] += p[m][f]
-			}
-		}
-	}
-	out := make([]*InfluenceSE, nm)
-	for m := range out {
-		if !e.ok[m] {
-			continue
-		}
-		undefined := false
-		for _, g := range grads[m] {
-			undefined = undefined || g == nil
-		}
-		se := func(f int) float64 {
-			if undefined {
-				return math.NaN()
-			}
-			return math.Sqrt(total[m][f])
-		}
-		o := &InfluenceSE{Reference: se(k), Comparison: se(k + 1), Gap: se(k + 2),
-			Contributions: make([]float64, k), Alone: make([]float64, k), IfEqualised: make([]float64, k)}
-		for i := 0; i < k; i++ {
-			o.Contributions[i], o.Alone[i], o.IfEqualised[i] = se(i), se(k+3+i), se(2*k+3+i)
-		}
-		out[m] = o
-	}
-	return out
+	}, defined
 }
 
 // blockInfluence returns ψ[leaf][term][a] for the records lo … hi−1

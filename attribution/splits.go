@@ -161,6 +161,7 @@ func aggregateSplits(fits []splitFit) *Decomposition {
 			agg.SplitContributions[r] = d.Contributions
 		}
 		agg.SplitSD = splitSD(agg.SplitContributions, agg.Contributions)
+		agg.CrossCheck = meanCrossCheck(per, agg)
 		*md = agg
 	}
 	return out
