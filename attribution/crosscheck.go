@@ -2,60 +2,59 @@ package attribution
 
 import "math"
 
-// EstimatorCheck compares, for one metric, the robust estimate with the
-// weighting estimate of the same game (EstimatorBoth). Both are
-// consistent when the density ratios are right; the robust one also when
-// its regressions are, so a difference well beyond sampling error means
-// the ratios are wrong (a misfitted classifier) or the regressions fail
+// EstimatorCheck compares, for one metric, the robust estimate of the
+// game with the weighting estimate (EstimatorRobust and EstimatorBoth;
+// the weighting estimate is computed either way). Both are consistent
+// when the density ratios are right, the robust one also when its
+// regressions are, so a difference well beyond sampling error means the
+// ratios are wrong (a misfitted classifier), or the regressions fail
 // where the weights are poor. Every difference is robust minus weighting,
 // with the standard error of that difference from the two estimators'
-// joint influence (influenceSEs), the weighting part holding the
+// joint influence (influenceSEs), whose weighting part holds the
 // log-ratios fixed.
 type EstimatorCheck struct {
-	// Weighting[i] is the weighting estimator's φ_i, WeightingEstimated
-	// its estimated gap Σφ (with several fold splits, their means).
-	Weighting          []float64
-	WeightingEstimated float64
-	// Contributions[i] is the robust φ_i minus Weighting[i].
+	// Robust[i] and Weighting[i] are the two estimators' φ_i,
+	// RobustEstimated and WeightingEstimated their estimated gaps Σφ
+	// (with several fold splits, the means over the splits).
+	Robust, Weighting                   []float64
+	RobustEstimated, WeightingEstimated float64
+	// Contributions[i] is Robust[i] − Weighting[i].
 	Contributions []Difference
-	// Gap is the robust estimated gap (the observed gap) minus
-	// WeightingEstimated: the weighting estimator's residual.
+	// Gap is RobustEstimated − WeightingEstimated: as the robust
+	// estimated gap is the observed one, minus the weighting estimator's
+	// residual.
 	Gap Difference
 	// MaxZ is the largest |Value|/SE over Gap and Contributions; NaN when
-	// no standard error is known.
+	// no standard error is known (later fold splits, bootstrap
+	// replicates).
 	MaxZ float64
+	se   *InfluenceSE // standard errors of the differences, nil when unknown
 }
 
-// newEstimatorCheck compares the robust md with the weighting w of the
-// same metric; standard errors come from md.crossSE (NaN when unset:
-// later fold splits, replicates).
-func newEstimatorCheck(md, w MetricDecomposition) *EstimatorCheck {
-	c := &EstimatorCheck{Weighting: append([]float64(nil), w.Contributions...), WeightingEstimated: w.Estimated}
-	c.fill(md)
+// newEstimatorCheck compares the robust estimate r of a metric with its
+// weighting estimate w; se holds the standard errors of the differences
+// (nil when unknown).
+func newEstimatorCheck(r, w MetricDecomposition, se *InfluenceSE) *EstimatorCheck {
+	c := &EstimatorCheck{Robust: append([]float64(nil), r.Contributions...), Weighting: append([]float64(nil), w.Contributions...),
+		RobustEstimated: r.Estimated, WeightingEstimated: w.Estimated, se: se}
+	c.fill()
 	return c
 }
 
-// fill sets the differences and MaxZ from the robust md.
-func (c *EstimatorCheck) fill(md MetricDecomposition) {
-	se := md.crossSE
-	at := func(x []float64, i int) float64 {
-		if se == nil || x == nil {
-			return math.NaN()
-		}
-		return x[i]
-	}
+// fill sets the differences and MaxZ.
+func (c *EstimatorCheck) fill() {
 	gapSE := math.NaN()
-	if se != nil {
-		gapSE = se.Estimated
+	if c.se != nil {
+		gapSE = c.se.Estimated
 	}
-	c.Gap = Difference{md.Estimated - c.WeightingEstimated, gapSE}
+	c.Gap = Difference{c.RobustEstimated - c.WeightingEstimated, gapSE}
 	c.Contributions = make([]Difference, len(c.Weighting))
 	for i := range c.Contributions {
-		var x []float64
-		if se != nil {
-			x = se.Contributions
+		se := math.NaN()
+		if c.se != nil {
+			se = c.se.Contributions[i]
 		}
-		c.Contributions[i] = Difference{md.Contributions[i] - c.Weighting[i], at(x, i)}
+		c.Contributions[i] = Difference{c.Robust[i] - c.Weighting[i], se}
 	}
 	c.MaxZ = math.NaN()
 	for _, d := range append([]Difference{c.Gap}, c.Contributions...) {
@@ -65,19 +64,24 @@ func (c *EstimatorCheck) fill(md MetricDecomposition) {
 	}
 }
 
-// meanCrossCheck returns the cross-check of the split-averaged robust
-// estimate agg against the split-averaged weighting estimate (nil when the
-// splits have none), with split 0's standard errors.
-func meanCrossCheck(per []*MetricDecomposition, agg MetricDecomposition) *EstimatorCheck {
+// meanCrossCheck returns the cross-check of the means over the fold
+// splits per (nil when a split has none), with split 0's standard errors.
+func meanCrossCheck(per []*MetricDecomposition) *EstimatorCheck {
 	for _, d := range per {
 		if d.CrossCheck == nil {
 			return nil
 		}
 	}
-	c := &EstimatorCheck{
-		Weighting:          meanOver(per, func(d *MetricDecomposition) []float64 { return d.CrossCheck.Weighting }),
-		WeightingEstimated: meanOver(per, func(d *MetricDecomposition) []float64 { return []float64{d.CrossCheck.WeightingEstimated} })[0],
+	get := func(f func(*EstimatorCheck) []float64) []float64 {
+		return meanOver(per, func(d *MetricDecomposition) []float64 { return f(d.CrossCheck) })
 	}
-	c.fill(agg)
+	c := &EstimatorCheck{
+		Robust:             get(func(c *EstimatorCheck) []float64 { return c.Robust }),
+		Weighting:          get(func(c *EstimatorCheck) []float64 { return c.Weighting }),
+		RobustEstimated:    get(func(c *EstimatorCheck) []float64 { return []float64{c.RobustEstimated} })[0],
+		WeightingEstimated: get(func(c *EstimatorCheck) []float64 { return []float64{c.WeightingEstimated} })[0],
+		se:                 per[0].CrossCheck.se,
+	}
+	c.fill()
 	return c
 }

@@ -153,12 +153,23 @@ type MetricDecomposition struct {
 	// estimate (split 0's with several fold splits); nil in bootstrap
 	// replicates.
 	Influence *InfluenceSE
+	// RobustUnavailable, when set, says why the robust estimator could not
+	// give this metric (a ratio metric whose estimated denominator is not
+	// positive under some coalition, on very few records): the weighting
+	// estimate stands, with no cross-check.
+	RobustUnavailable string
 	// CrossCheck compares the robust estimate with the weighting one
-	// (EstimatorBoth); nil otherwise and for AUC.
+	// (EstimatorRobust, EstimatorBoth); nil otherwise and for AUC.
 	CrossCheck *EstimatorCheck
 	// crossSE holds the standard errors of the two estimators'
 	// differences until CrossCheck is built.
 	crossSE *InfluenceSE
+	// weighting keeps the weighting estimate of a metric the robust
+	// estimator gives, for unifyFallback.
+	weighting *MetricDecomposition
+	// weightingSE holds the weighting estimator's standard errors (nil
+	// when not computed).
+	weightingSE *InfluenceSE
 
 	// Percentile bootstrap intervals, set by Bootstrap; nil otherwise.
 	ReferenceCI     *Interval

@@ -9,9 +9,11 @@ import "fmt"
 //   - EstimatorRobust: the multiply robust estimator, sequential
 //     regressions corrected by the same density ratios (robust.go;
 //     Quintas-Martínez et al. 2024). AUC, a mean over pairs of records,
-//     has no such form and keeps the weighting estimator.
-//   - EstimatorBoth: the robust estimate, with the weighting estimate
-//     beside it as a cross-check (MetricDecomposition.CrossCheck).
+//     has no such form and keeps the weighting estimator. The weighting
+//     estimate, computed on the way, is compared with it
+//     (MetricDecomposition.CrossCheck).
+//   - EstimatorBoth: the weighting estimate, with the robust one computed
+//     beside it and compared (CrossCheck).
 type Estimator int
 
 // Estimators. The zero value means DefaultEstimator.

@@ -2,6 +2,7 @@ package attribution
 
 import (
 	"fmt"
+	"math"
 	"sort"
 
 	"github.com/gapwise/gapwise/internal/workers"
@@ -129,6 +130,7 @@ type robustFamily struct {
 	chain   robustChain
 	terms   []meanTerm
 	f       [][]float64 // [term][record] f
+	lo, hi  []float64   // per term, its range over the records
 	pos     map[int]int // mechanism → step index
 	bases   []*regBasis // per step (step 0: none)
 	moments []*stepMoments
@@ -176,10 +178,13 @@ func newRobustFamily(in *robustInput, ch robustChain, terms []meanTerm) *robustF
 	fam := &robustFamily{chain: ch, terms: terms, pos: map[int]int{}, configs: map[weightConfig]*weightMoments{}}
 	for _, t := range terms {
 		f := make([]float64, n)
+		lo, hi := math.Inf(1), math.Inf(-1)
 		for i := range f {
 			f[i] = t.value(in.y[i], in.s[i], in.threshold, in.bins)
+			lo, hi = min(lo, f[i]), max(hi, f[i])
 		}
 		fam.f = append(fam.f, f)
+		fam.lo, fam.hi = append(fam.lo, lo), append(fam.hi, hi)
 	}
 	R := len(ch.steps)
 	fam.bases = make([]*regBasis, R)

@@ -1,26 +1,30 @@
 package attribution
 
 import (
+	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/gapwise/gapwise/internal/workers"
 )
 
 // estimateGames completes the weighting games of every metric
-// (splitGapsSides) with the other estimator's and the standard errors:
+// (splitGapsSides) with the robust estimator's and the standard errors:
 //
-//   - EstimatorRobust, EstimatorBoth: the game of every metric the
-//     robust estimator covers (all but AUC) becomes the robust one,
-//     M̂(S) = g(θ̂_S) for every coalition S, with its Shapley values,
-//     what-if values and residual (fillSummary; the residual is 0 up to
-//     rounding, as both ends are the observed metrics); with
-//     EstimatorBoth the weighting estimate stays beside it
-//     (MetricDecomposition.CrossCheck).
+//   - EstimatorRobust: the game of every metric the robust estimator
+//     covers (all but AUC) becomes the robust one, M̂(S) = g(θ̂_S) for
+//     every coalition S, with its Shapley values, what-if values and
+//     residual (fillSummary; the residual is 0 up to rounding, as both
+//     ends are the observed metrics).
+//   - EstimatorBoth: the weighting games stay.
+//   - Either way the two estimates are compared (MetricDecomposition.
+//     CrossCheck): the weighting estimate is computed anyway, from the
+//     same density ratios.
 //   - With diag (the point estimate, not a later fold split or a
 //     bootstrap replicate), every metric gets the influence-function
-//     standard errors of the estimator behind it (Influence), and
-//     CrossCheck the standard errors of the two estimators' differences.
+//     standard errors of the estimator behind it (Influence), and the
+//     cross-check the standard errors of the two estimators' differences.
 //
 // The robust estimator reads the weighting estimator's log-ratios,
 // clipped alike. It returns the number of regressions fitted.
@@ -37,31 +41,47 @@ func estimateGames(mds []MetricDecomposition, s *Sample, mechs []Mechanism, rati
 			return 0, err
 		}
 	}
-	weighting := make([]MetricDecomposition, len(mds))
-	copy(weighting, mds)
-	if diag {
-		setInfluence(mds, rob, sides, g, names, opt, k, len(s.Comparison))
-	}
-	full := uint64(1)<<k - 1
+	// A metric the robust estimate leaves undefined under some coalition
+	// (a ratio metric whose estimated denominator is not positive, as on
+	// very few records) keeps the weighting estimate, and says why.
+	games := make([][]float64, len(mds))
 	for m := range mds {
 		if rob == nil || !rob.ok[m] {
 			continue
 		}
 		vals, err := rob.values(m, k)
-		if err != nil {
+		var ce *CoalitionError
+		switch {
+		case errors.As(err, &ce):
+			rob.ok[m] = false
+			mds[m].RobustUnavailable = fallbackReason(rob.metrics[m], ce.Coalition, mechs)
+			continue
+		case err != nil:
 			return 0, err
 		}
-		v := shifted(vals)
-		md := &mds[m]
-		md.Estimator = EstimatorRobust
-		fillSummary(md, ExactShapley(v, k), func(S uint64) float64 { return v[S] }, k, full)
-		md.Game = v
-		md.ReferenceWeight = nil
-		md.Agreement = nil
-		md.ResidualSE = nil
-		if est == EstimatorBoth {
-			md.CrossCheck = newEstimatorCheck(*md, weighting[m])
+		games[m] = shifted(vals)
+	}
+	if diag {
+		setInfluence(mds, rob, est == EstimatorRobust, sides, g, names, opt, k, len(s.Comparison))
+	}
+	full := uint64(1)<<k - 1
+	for m, v := range games {
+		if v == nil {
+			continue
 		}
+		r := mds[m]
+		r.Estimator = EstimatorRobust
+		fillSummary(&r, ExactShapley(v, k), func(S uint64) float64 { return v[S] }, k, full)
+		r.Game = v
+		r.ReferenceWeight, r.Agreement, r.ResidualSE = nil, nil, nil
+		check := newEstimatorCheck(r, mds[m], mds[m].crossSE)
+		if est == EstimatorRobust {
+			w := mds[m]
+			w.Influence = w.weightingSE
+			mds[m] = r
+			mds[m].weighting = &w
+		}
+		mds[m].CrossCheck = check
 	}
 	if rob == nil {
 		return 0, nil
@@ -92,12 +112,12 @@ func robustEstimateOf(s *Sample, mechs []Mechanism, ratios []MechanismRatio, g g
 
 // setInfluence runs the influence pass (influenceSEs) of the estimators
 // computed and sets every metric's Influence (the robust estimator's
-// where it covers the metric, else the weighting estimator's) and, where
-// both are, the standard errors of their differences (kept for
-// newEstimatorCheck in MetricDecomposition.crossSE). Above the exact
-// limit (sampled Shapley values) only the ends, gap and what-if values
-// get one.
-func setInfluence(mds []MetricDecomposition, rob *robustEstimate, sides []*sideEstimate, g groupSplit, names []string, opt Options, k, n int) {
+// where it is the metric's estimator, robustPrimary and covering the
+// metric, else the weighting estimator's) and, where both are computed,
+// the standard errors of their differences (crossSE, for
+// newEstimatorCheck). Above the exact limit (sampled Shapley values) only
+// the ends, gap and what-if values get one.
+func setInfluence(mds []MetricDecomposition, rob *robustEstimate, robustPrimary bool, sides []*sideEstimate, g groupSplit, names []string, opt Options, k, n int) {
 	p := newInfluencePlan(n, k, k <= exactLimit(opt))
 	var prep [2]func(lo, hi int) recordInfluence
 	var defined [2][]bool
@@ -109,10 +129,10 @@ func setInfluence(mds []MetricDecomposition, rob *robustEstimate, sides []*sideE
 	prep[1], defined[1] = prepareWeightingInfluence(mds, sides, g, names, p, opt)
 	se, diff := influenceSEs(n, len(names), p, workers.Count(opt.Workers), prep, defined)
 	for m := range mds {
-		switch {
-		case rob != nil && rob.ok[m]:
+		mds[m].weightingSE = se[1][m]
+		if robustPrimary && rob.ok[m] {
 			mds[m].Influence = se[0][m]
-		default:
+		} else {
 			mds[m].Influence = se[1][m]
 		}
 		if diff != nil {
@@ -147,4 +167,50 @@ func robustLogRatios(ratios []MechanismRatio, g groupSplit, opt Options) ([][]fl
 		out[i] = l
 	}
 	return out, nil
+}
+
+// unifyFallback makes every fold split of a metric use the weighting
+// estimate when the robust one was unavailable in any split, so that the
+// mean over the splits never mixes the two estimators; split 0's metric
+// then carries the reason.
+func unifyFallback(fits []splitFit) {
+	for m := range fits[0].d.Metrics {
+		reason := ""
+		for _, f := range fits {
+			if r := f.d.Metrics[m].RobustUnavailable; r != "" && reason == "" {
+				reason = r
+			}
+		}
+		if reason == "" {
+			continue
+		}
+		for _, f := range fits {
+			md := &f.d.Metrics[m]
+			if w := md.weighting; w != nil {
+				*md = *w
+			}
+			md.RobustUnavailable, md.CrossCheck = reason, nil
+		}
+	}
+}
+
+// fallbackReason says why the robust estimate of metric m is undefined
+// under coalition S: its estimated denominator share is not positive when
+// the mechanisms of S take the comparison group's form.
+func fallbackReason(m robustMetric, S uint64, mechs []Mechanism) string {
+	var nodes []string
+	for i, mc := range mechs {
+		if S&(1<<uint(i)) != 0 {
+			nodes = append(nodes, mc.Node)
+		}
+	}
+	what := m.denominator
+	if what == "" {
+		what = "its terms"
+	}
+	where := "with every mechanism in the reference group's form"
+	if len(nodes) > 0 {
+		where = "with the mechanisms of " + strings.Join(nodes, ", ") + " in the comparison group's form"
+	}
+	return fmt.Sprintf("its estimated share of %s is not positive %s", what, where)
 }

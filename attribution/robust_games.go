@@ -53,13 +53,17 @@ func estimateRobust(in *robustInput, names []string) (*robustEstimate, error) {
 	return e, nil
 }
 
-// theta returns θ̂_S of every term of metric m, in the metric's order.
+// theta returns θ̂_S of every term of metric m, in the metric's order,
+// each clamped to the range of its term over the records: a mean lies
+// within it, and with few records the estimate (regressions are not
+// clamped, corrections are weighted) can stray outside.
 func (e *robustEstimate) theta(m int, S uint64, dst []float64) []float64 {
 	dst = dst[:0]
 	for _, id := range e.metrics[m].terms {
 		w := e.where[id]
 		fam := e.families[w[0]]
-		dst = append(dst, fam.leaves[fam.leafKey(S)].theta[w[1]])
+		v := fam.leaves[fam.leafKey(S)].theta[w[1]]
+		dst = append(dst, min(max(v, fam.lo[w[1]]), fam.hi[w[1]]))
 	}
 	return dst
 }

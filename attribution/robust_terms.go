@@ -108,15 +108,36 @@ type robustMetric struct {
 	value func(theta []float64) (float64, error)
 	// grad writes ∂g/∂θ_j into dst.
 	grad func(theta, dst []float64)
+	// denominator names what a ratio metric's denominator counts
+	// ("positives"), "" for other metrics.
+	denominator string
 }
 
 // robustMetricOf returns the metric called name as a function of means,
 // with ECE on bins bins. ok is false for AUC, which is a mean over pairs
 // of records and not a function of per-record means. The values agree
-// with metrics.Compute on unweighted records (robust_terms_test.go).
+// with metrics.Compute on unweighted records (robust_terms_test.go);
+// estimated means can give a value outside the metric's range (a
+// numerator above its denominator), which is clamped to it
+// (metrics.Fact.Min, Max).
 func robustMetricOf(name string, bins int) (m robustMetric, ok bool) {
+	m, ok = robustMetricRaw(name, bins)
+	if !ok {
+		return m, false
+	}
+	fact, _ := metrics.FactOf(name)
+	raw := m.value
+	m.value = func(th []float64) (float64, error) {
+		v, err := raw(th)
+		return min(max(v, fact.Min), fact.Max), err
+	}
+	return m, true
+}
+
+// robustMetricRaw is robustMetricOf without the clamp.
+func robustMetricRaw(name string, bins int) (m robustMetric, ok bool) {
 	ratio := func(num, den termID, what string) robustMetric {
-		return robustMetric{name: name, terms: []termID{num, den},
+		return robustMetric{name: name, terms: []termID{num, den}, denominator: what,
 			value: func(th []float64) (float64, error) {
 				if !(th[1] > 0) {
 					return math.NaN(), fmt.Errorf("%w: %s needs %s (their estimated share is %g)", metrics.ErrUndefined, name, what, th[1])

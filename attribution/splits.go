@@ -112,6 +112,7 @@ func decomposeSplits(s *Sample, mechs []Mechanism, metricNames []string, opt Opt
 			return nil, nil, err
 		}
 	}
+	unifyFallback(fits)
 	return aggregateSplits(fits), fits, nil
 }
 
@@ -161,7 +162,7 @@ func aggregateSplits(fits []splitFit) *Decomposition {
 			agg.SplitContributions[r] = d.Contributions
 		}
 		agg.SplitSD = splitSD(agg.SplitContributions, agg.Contributions)
-		agg.CrossCheck = meanCrossCheck(per, agg)
+		agg.CrossCheck = meanCrossCheck(per)
 		*md = agg
 	}
 	return out

@@ -64,6 +64,10 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		ClipQuantile: spec.ClipRatios,
 		Sampling:     attribution.SamplingOptions{Progress: opt.SamplingProgress},
 	}
+	if aopt.Estimator, err = estimatorOf(spec); err != nil {
+		return nil, err
+	}
+	aopt.Reads = nodeReads(spec)
 	if spec.EstimateFrom != "" {
 		side, err := attribution.ParseSide(spec.EstimateFrom)
 		if err != nil {
@@ -173,6 +177,7 @@ func buildResult(spec *Spec, d *Dataset, dec *attribution.Decomposition, learner
 		columns[n.Node] = n.Columns
 	}
 	addEstimates(r, dec, columns)
+	addEstimators(r, dec, spec.Intervals.Level)
 	setCoalitions(r, dec, opt.coalitionLimit())
 	for i, md := range dec.Metrics {
 		r.Metrics[i].RecordsReference, r.Metrics[i].RecordsComparison = metricBasis(spec, d, md.Metric)

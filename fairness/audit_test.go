@@ -27,6 +27,7 @@ var badSentinels = map[string]error{
 	"duplicate_key":        ErrDuplicateKey,
 	"duplicate_node":       ErrDuplicateNode,
 	"empty_file":           ErrEmptyFile,
+	"estimator_unknown":    ErrBadValue,
 	"fold_splits_too_many": ErrBadValue,
 	"folds_too_small":      ErrBadValue,
 	"group_absent":         ErrGroupAbsent,

@@ -84,6 +84,10 @@ type Settings struct {
 	// clipped logits: those under the spec key probabilities, and the
 	// score when it is a node (Spec.ProbabilityColumns).
 	ProbabilityColumns []string `json:"probability_columns"`
+	// Estimator names the estimator of the coalition values: weighting,
+	// robust, or both (the weighting numbers, checked against the robust
+	// ones); see attribution.Estimator.
+	Estimator string `json:"estimator"`
 	// EstimateFrom names the records that estimate the hybrid metrics:
 	// reference, comparison or both (see attribution.Side).
 	EstimateFrom string `json:"estimate_from"`
@@ -132,7 +136,10 @@ type GroupInfo struct {
 // MetricResult is one audited metric. Gap = Comparison − Reference and
 // Σ Contributions[i].Value + Residual = Gap.
 type MetricResult struct {
-	Metric     string  `json:"metric"`
+	Metric string `json:"metric"`
+	// Estimator is the estimator behind this metric's contributions:
+	// robust or weighting (auc is always weighted).
+	Estimator  string  `json:"estimator"`
 	Reference  float64 `json:"reference"`
 	Comparison float64 `json:"comparison"`
 	Gap        float64 `json:"gap"`
@@ -185,6 +192,17 @@ type MetricResult struct {
 	ImpactRatioCI   *Interval      `json:"impact_ratio_ci,omitempty"`
 	LowerToHigherCI *Interval      `json:"lower_to_higher_ci,omitempty"`
 	Contributions   []Contribution `json:"contributions"`
+	// Uncertainty holds the influence-function standard errors and Wald
+	// intervals of the group metrics and the gap; present when the robust
+	// estimator gives the metric.
+	Uncertainty *MetricUncertainty `json:"uncertainty,omitempty"`
+	// RobustUnavailable says why the robust estimator, asked for, could not
+	// give this metric (its estimate is undefined under some coalition);
+	// the weighting estimate is reported. Absent otherwise.
+	RobustUnavailable string `json:"robust_unavailable,omitempty"`
+	// EstimatorCheck compares the robust and weighting estimates; present
+	// when both were computed (estimator robust or both; not for auc).
+	EstimatorCheck *EstimatorCheck `json:"estimator_check,omitempty"`
 	// Coalitions lists every coalition of the mechanisms with its value in
 	// the game whose Shapley values are the contributions (Coalition), in
 	// the order of the bit masks S = 0 … 2^k − 1, bit i standing for
@@ -232,6 +250,13 @@ type Contribution struct {
 	// (attribution.SideAgreement); present when both sides estimate and
 	// the Shapley values are exact.
 	SideDifference *SideDifference `json:"side_difference,omitempty"`
+	// Uncertainty is the contribution's influence-function standard
+	// error and Wald interval, with those of its what-if values; present
+	// when the robust estimator gives the metric.
+	Uncertainty *ContributionUncertainty `json:"uncertainty,omitempty"`
+	// EstimatorDifference is the contribution by both estimators and
+	// their difference; present with the metric's EstimatorCheck.
+	EstimatorDifference *EstimatorDifference `json:"estimator_difference,omitempty"`
 }
 
 // SideAgreement compares the estimate from the reweighted reference

@@ -46,6 +46,7 @@ import (
 //	fold_splits: 10      # independent fold splits averaged, 1 to MaxFoldSplits; omit for the default by group size
 //	classifier: auto     # auto, linear, expanded or boosted
 //	ece_bins: 10         # >= 1
+//	estimator: weighting # coalition values by weighting (default), robust (regressions corrected by the weights; AUC weighted) or both (weighting, checked against robust)
 //	estimate_from: both       # records that estimate the hybrids: reference, comparison or both
 //	combine_sides: metric-variance  # with both: one weight per metric (default) or coalition
 //	clip_ratios: 0.99    # clip log-ratios to their central 99% interval; omit for none
@@ -96,6 +97,9 @@ type Spec struct {
 	FoldSplits int
 	Classifier string
 	ECEBins    int
+	// Estimator is attribution.Estimator's name: weighting, robust or
+	// both (default attribution.DefaultEstimator).
+	Estimator string
 	// EstimateFrom is attribution.Side's name: reference, comparison or
 	// both (default attribution.DefaultSide).
 	EstimateFrom string
@@ -396,6 +400,8 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		if err == nil && s.ECEBins > MaxECEBins {
 			err = specErr(p.file, v.Line, k.Value, ErrBadValue, "ece_bins must be at most %d, got %d", MaxECEBins, s.ECEBins)
 		}
+	case "estimator":
+		s.Estimator, err = p.oneOf(k.Value, v, attribution.EstimatorWeighting.String(), attribution.EstimatorRobust.String(), attribution.EstimatorBoth.String())
 	case "estimate_from":
 		s.EstimateFrom, err = p.oneOf(k.Value, v, attribution.SideReference.String(), attribution.SideComparison.String(), attribution.SideBoth.String())
 	case "combine_sides":
@@ -459,6 +465,9 @@ func (s *Spec) finish(p *specParser) error {
 	}
 	if s.EstimateFrom == "" {
 		s.EstimateFrom = attribution.DefaultSide.String()
+	}
+	if s.Estimator == "" {
+		s.Estimator = attribution.DefaultEstimator.String()
 	}
 	if s.CombineSides == "" {
 		s.CombineSides = attribution.DefaultMix.String()

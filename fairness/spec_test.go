@@ -47,7 +47,7 @@ func TestParseSpecExample(t *testing.T) {
 			{Node: "labs", Columns: []string{"m1", "m2"}, Parents: []string{"dx", "age"}, Line: 14},
 		},
 		Seed: 1, Missing: MissingError, Folds: DefaultFolds, Classifier: ClassifierAuto, ECEBins: 10,
-		EstimateFrom: attribution.DefaultSide.String(), CombineSides: attribution.DefaultMix.String(), ExactLimit: 16, Intervals: Intervals{Level: DefaultIntervalLevel},
+		Estimator: attribution.DefaultEstimator.String(), EstimateFrom: attribution.DefaultSide.String(), CombineSides: attribution.DefaultMix.String(), ExactLimit: 16, Intervals: Intervals{Level: DefaultIntervalLevel},
 	}
 	// Compare exported fields only.
 	got := *s

@@ -20,6 +20,7 @@ func WarningsOf(dec *attribution.Decomposition, nRef, nCmp int) []Warning {
 		Settings: Settings{EstimateFrom: dec.Side.String(), CombineSides: combineSides(dec), FoldSplits: dec.FoldSplits},
 	}
 	addEstimates(r, dec, nil)
+	addEstimators(r, dec, DefaultIntervalLevel)
 	return slices.DeleteFunc(Warnings(r), func(w Warning) bool {
 		return slices.Contains(dataKinds, w.Kind)
 	})

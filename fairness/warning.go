@@ -11,7 +11,8 @@ type Warning struct {
 	// concerns.
 	Severity Severity `json:"severity"`
 	// Metric is the metric the warning concerns, for the metric-level
-	// kinds (KindMetricRecords, KindLargeResidual, KindSidesDisagree); ""
+	// kinds (KindMetricRecords, KindLargeResidual, KindSidesDisagree,
+	// KindEstimatorsDisagree); ""
 	// otherwise.
 	Metric string `json:"metric,omitempty"`
 	// Nodes lists, in graph order, the nodes whose mechanisms the warning
@@ -32,7 +33,8 @@ func (w Warning) String() string { return w.Message }
 type WarningKind string
 
 // The kinds of warning, in the order Warnings emits them. The severity of
-// each is fixed except for KindHeavyTail and KindSidesDisagree.
+// each is fixed except for KindHeavyTail, KindSidesDisagree and
+// KindEstimatorsDisagree.
 const (
 	// KindRowsDropped (note; caution when the groups' dropped shares
 	// differ beyond chance, droppedWarnings): rows were dropped for
@@ -104,6 +106,17 @@ const (
 	// contribution; Nodes are the mechanisms whose contributions differ
 	// by more than WarnSidesZ.
 	KindSidesDisagree WarningKind = "sides_disagree"
+	// KindEstimatorsDisagree: the robust and the weighting estimates of a
+	// metric differ by more than WarnEstimatorsZ standard errors (caution)
+	// or more than WarnEstimatorsZUnreliable (unreliable), in the
+	// estimated gap or a contribution (estimatorsWarning); Nodes are the
+	// mechanisms whose contributions differ by more than WarnEstimatorsZ.
+	KindEstimatorsDisagree WarningKind = "estimators_disagree"
+	// KindRobustUnavailable (note): the robust estimator could not give
+	// a metric (its estimate is undefined under some coalition, on very
+	// few records); the weighting estimate is reported
+	// (MetricResult.RobustUnavailable).
+	KindRobustUnavailable WarningKind = "robust_unavailable"
 	// KindSplitDependent (caution): some contributions still move with
 	// the seed by more than WarnSplitShare of their interval's half-width
 	// (or, without intervals, of their value and WarnSplitMin): their fold

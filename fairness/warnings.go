@@ -238,6 +238,12 @@ func metricWarnings(mr MetricResult, side string, names *Names) []Warning {
 	if w, ok := sidesWarning(mr, names); ok {
 		out = append(out, w)
 	}
+	if w, ok := estimatorsWarning(mr, names); ok {
+		out = append(out, w)
+	}
+	if mr.RobustUnavailable != "" {
+		add(KindRobustUnavailable, SeverityNote, fmt.Sprintf("for %s the robust estimator gives no estimate (%s), as happens with very few records; the weighting estimate is reported", mr.Metric, mr.RobustUnavailable))
+	}
 	return out
 }
 

@@ -263,7 +263,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 			ComparisonCI: formatValueInterval(m.Metric, m.ComparisonCI), GapCI: formatGapInterval(m),
 			Estimated: formatDelta(m.Metric, m.Estimated), Residual: residualDelta(m),
 			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m), Impact: impactText(m),
-			SidesNote: sidesLine(m, reportUnits), ResidualNote: residualNote(res), SumLabel: sumLabel(m, "Sum of contributions")}
+			SidesNote: checksLines(m, reportUnits), ResidualNote: residualNote(res, m), SumLabel: sumLabel(m, "Sum of contributions")}
 		for _, c := range m.Contributions {
 			role := gapRole(m, c.Value)
 			ci := formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)
@@ -355,7 +355,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		{"Candidate learners", strings.Join(res.Settings.Learners, ", ")},
 		{"Probabilities read as logits", probabilitySetting(res.Settings.ProbabilityColumns)},
 		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Missing values", missingSetting(res.Settings)},
-		{"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},
+		{"Estimator", estimatorSetting(res)}, {"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},
 		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", p.IntervalSetting},
 	}...)
 	js, err := encodeOptions(data)

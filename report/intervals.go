@@ -15,6 +15,9 @@ func intervalLevel(res *fairness.Result) string {
 	if iv := res.Settings.Intervals; iv != nil && iv.Level > 0 {
 		level = iv.Level
 	}
+	if l, ok := influenceIntervals(res); ok {
+		level = l
+	}
 	return trimPercent(level)
 }
 
@@ -66,6 +69,9 @@ func approximateNote(res *fairness.Result) string {
 func intervalSetting(res *fairness.Result) string {
 	iv := res.Settings.Intervals
 	if iv == nil {
+		if _, ok := influenceIntervals(res); ok {
+			return fmt.Sprintf("influence function of the robust estimator (Wald intervals, no refits), level %s", intervalLevel(res))
+		}
 		return ""
 	}
 	mode := "classifiers refitted in each"

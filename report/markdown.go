@@ -146,10 +146,10 @@ func mdDecomposition(p mdPrinter, res *fairness.Result, m fairness.MetricResult,
 	p("| %s | %s | | | |%s\n", sumLabel(m, "Sum of contributions"), formatDelta(m.Metric, m.Estimated), blank)
 	p("| Residual (not assigned) | %s | | | |%s\n", residualDelta(m), blank)
 	p("| Observed gap | %s | %s | | |%s\n\n", formatDelta(m.Metric, m.Gap), orDash(formatGapInterval(m)), blank)
-	if s := sidesLine(m, reportUnits); s != "" {
+	if s := checksLines(m, reportUnits); s != "" {
 		p("%s\n\n", mdText(s))
 	}
-	p("%s\n\n", mdText(residualNote(res)))
+	p("%s\n\n", mdText(residualNote(res, m)))
 }
 
 // mdColumn is an optional column of the decomposition table: its heading

@@ -11,7 +11,14 @@ import (
 // when both sides are combined per coalition, that it is small by
 // construction (both ends of the gap are pinned to the observed values),
 // so that the comparison of the two sides is the check to read.
-func residualNote(res *fairness.Result) string {
+//
+// For a metric the robust estimator gives (m.Estimator), both ends are
+// the observed metrics and the residual is 0 by construction; the
+// comparison with the weighting estimate is the check then.
+func residualNote(res *fairness.Result, m fairness.MetricResult) string {
+	if m.Estimator == "robust" {
+		return "With the robust estimator both ends of the gap are the observed values, so the residual is 0 by construction: read the comparison with the weighting estimate instead."
+	}
 	s := "The residual holds estimation error and the effect of anything outside the graph that differs between the groups."
 	switch {
 	case res.Settings.EstimateFrom == "both" && res.Settings.CombineSides == "coalition":

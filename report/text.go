@@ -186,10 +186,10 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	if m.ResidualSE != nil {
 		t.line("  standard error of the residual (sampling of the records): %s", fixed(*m.ResidualSE))
 	}
-	if s := sidesLine(m, textUnits); s != "" {
+	if s := checksLines(m, textUnits); s != "" {
 		t.line("  %s", s)
 	}
-	t.line("  %s", residualNote(res))
+	t.line("  %s", residualNote(res, m))
 	t.line("")
 }
 
@@ -237,6 +237,9 @@ func (t *textWriter) inputs(res *fairness.Result) {
 	}
 	if s.ECEBins > 0 {
 		tab.add("ece bins", fmt.Sprint(s.ECEBins))
+	}
+	if e := estimatorSetting(res); e != "" {
+		tab.add("estimator", e)
 	}
 	if s.EstimateFrom != "" {
 		tab.add("estimated from", s.EstimateFrom+" records")

@@ -84,6 +84,8 @@ var warningReasons = map[fairness.WarningKind]string{
 	fairness.KindMetricRecords:       "the estimate rests on few effective records",
 	fairness.KindLargeResidual:       "much of the gap is not assigned to a mechanism",
 	fairness.KindSidesDisagree:       "the estimates from the two groups' records disagree",
+	fairness.KindEstimatorsDisagree:  "the robust and the weighting estimates disagree",
+	fairness.KindRobustUnavailable:   "the robust estimator gives no estimate here",
 	fairness.KindSplitDependent:      "the contribution still moves with the seed (the fold split)",
 	fairness.KindOutlyingValues:      "some values are outside their typical range",
 	fairness.KindBootstrapFailures:   "some bootstrap replicates failed",

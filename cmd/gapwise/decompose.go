@@ -33,6 +33,8 @@ type decomposeOptions struct {
 	workers int
 	force   bool
 	date    string // --audit-date
+	// estimator is --estimator ("": the spec's key).
+	estimator string
 
 	intervals  intervalOptions
 	coalitions coalitionOptions
@@ -63,6 +65,11 @@ The report's what-if panel reads the values of all coalitions of the
 mechanisms, kept for up to --coalition-limit mechanisms (default 12, at most
 16); --coalitions also writes them into the JSON output.
 
+--estimator robust|both|weighting replaces the spec's estimator key: robust
+estimates the coalition values by regressions corrected by the density ratios
+(with influence-function intervals and a check against the weighting
+estimate), both keeps the weighting numbers and checks them against robust.
+
 --audit-date YYYY-MM-DD (or today) dates the audit in the outputs, in place
 of the spec's audit_date key; without either the outputs hold no date, so
 the same inputs give the same bytes on any day.
@@ -90,6 +97,7 @@ outputs; see the README's "Policy gate" section.`,
 	bindCoalitionFlags(cmd, &o.coalitions)
 	bindAuditDateFlag(cmd, &o.date)
 	bindPolicyFlag(cmd, &o.policy)
+	bindEstimatorFlag(cmd, &o.estimator)
 	return cmd
 }
 
@@ -108,6 +116,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err := o.coalitions.check(); err != nil {
 		return err
 	}
+	if err := checkEstimator(o.estimator); err != nil {
+		return err
+	}
 	date, err := auditDate(o.date)
 	if err != nil {
 		return err
@@ -124,6 +135,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	}
 	if date != "" {
 		spec.AuditDate = date
+	}
+	if o.estimator != "" {
+		spec.Estimator = o.estimator
 	}
 	out.inputs = inputFiles(o.spec, o.policy.file, spec.DataPath)
 	pol, err := o.policy.load(spec, o.intervals.runIntervals(spec.Intervals))
