@@ -39,7 +39,7 @@ type Dataset struct {
 	Labels     []float64 // 0/1 per kept row
 	Scores     []float64 // in [0, 1] per kept row
 	Comparison []bool    // false: reference group, true: comparison group
-	Lines      []int     // 1-based CSV line of each kept row
+	Lines      []int     // 1-based CSV line of each kept row; for a Parquet file its 1-based row
 
 	DroppedReference, DroppedComparison int // rows dropped for missing values (missing: drop)
 
@@ -77,8 +77,13 @@ func (d *Dataset) Counts() (nRef, nCmp int) {
 	return
 }
 
-// LoadData reads the CSV file named by spec.DataPath. See ReadData.
+// LoadData reads the data file named by spec.DataPath: a Parquet file when
+// its extension is .parquet (IsParquet, ReadParquet), CSV otherwise
+// (ReadData).
 func LoadData(spec *Spec) (*Dataset, error) {
+	if IsParquet(spec.DataPath) {
+		return loadParquet(spec)
+	}
 	f, err := os.Open(spec.DataPath)
 	if err != nil {
 		if errors.Is(err, fs.ErrNotExist) {
@@ -123,12 +128,21 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 	cr.FieldsPerRecord = -1
 	cr.ReuseRecord = true
 	l := &csvLoader{cr: cr, name: name, spec: spec}
-	if err := l.readHeader(); err != nil {
+	if err := l.readHeader(cr); err != nil {
 		return nil, err
 	}
 	if err := l.readRows(); err != nil {
 		return nil, err
 	}
+	return l.dataset(hex.EncodeToString(h.Sum(nil)))
+}
+
+// dataset finishes the loader's dataset once every row is read: the label
+// words, the groups' sizes, the categorical levels, the filled missing
+// values (missing: indicator), the excluded rows and the file's digest
+// sum.
+func (l *csvLoader) dataset(sum string) (*Dataset, error) {
+	spec := l.spec
 	if err := l.labels.check(); err != nil {
 		return nil, l.derr(0, spec.Label, err)
 	}
@@ -153,16 +167,29 @@ func ReadData(r io.Reader, name string, spec *Spec) (*Dataset, error) {
 	d.LabelValues = l.labels.values()
 	d.Excluded = l.excluded.list(spec.Groups.Reference, spec.Groups.Comparison)
 	d.ExcludedRows, d.MissingGroupRows = l.excluded.total(), l.excluded.missingRows
-	d.SHA256 = hex.EncodeToString(h.Sum(nil))
+	d.SHA256 = sum
 	return d, nil
 }
 
-// csvLoader holds the state of ReadData between its phases: the header's
-// column positions, the dataset being filled and the per-group counts.
+// records is the row source of a loader: encoding/csv's Reader, or the
+// rows of a Parquet file's used columns as text cells (parquetRecords),
+// whose "line" is the row of the file.
+type records interface {
+	Read() ([]string, error)
+	FieldPos(field int) (line, column int)
+}
+
+// csvLoader holds the state of ReadData (and ReadParquet) between its
+// phases: the header's column positions, the dataset being filled and the
+// per-group counts.
 type csvLoader struct {
-	cr   *csv.Reader
+	cr   records
 	name string
 	spec *Spec
+	// parquet marks a Parquet file: lines are the file's rows, located in
+	// their row groups by rowStarts (the rows before each group).
+	parquet   bool
+	rowStarts []int
 
 	width                        int      // fields of the header
 	named                        int      // fields up to the last named one
@@ -184,9 +211,27 @@ type csvLoader struct {
 	complete               Outcomes        // label and score of every audited row that has both
 }
 
-// derr builds the *DataError of a problem at line (0: none) and column.
+// derr builds the *DataError of a problem at line (0: none) and column;
+// in a Parquet file the line is the file's row, reported with its row
+// group.
 func (l *csvLoader) derr(line int, col string, err error) error {
+	if l.parquet {
+		e := &DataError{File: l.name, Row: line, Column: col, Err: err}
+		if line > 0 {
+			e.RowGroup = rowGroupOf(l.rowStarts, line)
+		}
+		return e
+	}
 	return &DataError{File: l.name, Line: line, Column: col, Err: err}
+}
+
+// missingText describes a missing cell in a message: quoted, or for a
+// Parquet file's empty cell "(null or empty text)".
+func (l *csvLoader) missingText(cell string) string {
+	if l.parquet && cell == "" {
+		return "(null or empty text)"
+	}
+	return fmt.Sprintf("%q", cell)
 }
 
 // textErr maps an error of the text layer (skipBOM): an encoding error
@@ -198,8 +243,13 @@ func (l *csvLoader) textErr(err error) error {
 	return l.csvErr(err)
 }
 
-// csvErr maps a csv.Reader error, keeping it reachable (errors.As).
+// csvErr maps a csv.Reader error, keeping it reachable (errors.As); a
+// *DataError (from the Parquet rows) passes as is.
 func (l *csvLoader) csvErr(err error) error {
+	var de *DataError
+	if errors.As(err, &de) {
+		return err
+	}
 	var pe *csv.ParseError
 	if errors.As(err, &pe) {
 		return l.derr(pe.Line, "", wrapCause(ErrCSVSyntax, pe, "malformed CSV at column %d: %v", pe.Column, pe.Err))
@@ -210,8 +260,8 @@ func (l *csvLoader) csvErr(err error) error {
 // readHeader reads the header row, refuses invalid UTF-8 and duplicate
 // names, notes the unnamed fields and finds every column the spec needs
 // (locateColumns).
-func (l *csvLoader) readHeader() error {
-	header, err := l.cr.Read()
+func (l *csvLoader) readHeader(cr *csv.Reader) error {
+	header, err := cr.Read()
 	if err == io.EOF {
 		return l.derr(0, "", wrapf(ErrEmptyFile, "the file is empty; it needs a header row and records"))
 	}
@@ -222,7 +272,7 @@ func (l *csvLoader) readHeader() error {
 	pos := map[string]int{}
 	for i, hname := range header {
 		if err := checkUTF8(hname); err != nil {
-			line, col := l.cr.FieldPos(i)
+			line, col := cr.FieldPos(i)
 			return l.derr(line, "", fmt.Errorf("header field %d (starting at byte %d of the line): %w", i+1, col, err))
 		}
 		hname = strings.TrimSpace(hname)
@@ -277,6 +327,9 @@ func (l *csvLoader) locateColumns(pos map[string]int) error {
 func (l *csvLoader) newDataset() {
 	l.d = &Dataset{Path: l.name, Columns: make([]Column, len(l.names))}
 	l.labels = labelCoder{positive: l.spec.Positive}
+	if l.parquet {
+		l.labels.place = "row"
+	}
 	l.raw = make([][]string, len(l.names))
 	for j, c := range l.names {
 		l.d.Columns[j] = Column{Name: c, Categorical: l.categorical[c]}
@@ -339,7 +392,7 @@ func (r *csvRow) missing(i int, col string, outcome bool) (bool, error) {
 	if spec.IndicateMissing() {
 		return true, nil
 	}
-	return true, r.l.derr(r.at(i), col, wrapf(ErrMissingValue, "missing value %q (set missing: drop to drop such rows, or missing: indicator to keep them)", r.cell(i)))
+	return true, r.l.derr(r.at(i), col, wrapf(ErrMissingValue, "missing value %s (set missing: drop to drop such rows, or missing: indicator to keep them)", r.l.missingText(r.cell(i))))
 }
 
 // readRow checks one record's width and group, parses its label, score
@@ -357,7 +410,7 @@ func (l *csvLoader) readRow(rec []string) error {
 	isCmp := g == spec.Groups.Comparison
 	if isMissing(g) {
 		if !spec.ToleratesMissing() {
-			return l.derr(r.at(l.groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %q (set missing: drop to skip such rows)", g))
+			return l.derr(r.at(l.groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %s (set missing: drop to skip such rows)", l.missingText(g)))
 		}
 		l.excluded.missingRows++
 		return nil

@@ -79,22 +79,31 @@ func (e *SpecError) Error() string {
 func (e *SpecError) Unwrap() error { return e.Err }
 
 // DataError is a problem in the data file. Line is the 1-based CSV line
-// (0 when the problem concerns the whole file) and Column the header name
-// involved (empty when none). Err wraps one of the Err* sentinels above. The
-// message reads
+// (0 when the problem concerns the whole file, and for a Parquet file),
+// Row and RowGroup the 1-based row of a Parquet file (counted over the
+// whole file) and its row group (0 when none; RowGroup alone for a problem
+// with a column chunk), and Column the column involved (empty when none).
+// Err wraps one of the Err* sentinels above. The message reads
 //
 //	cohort.csv:17: column "hb": "12,4" is not a number
+//	cohort.parquet: row 1017 (row group 2): column "hb": "x" is not a number
 type DataError struct {
-	File   string
-	Line   int
-	Column string
-	Err    error
+	File          string
+	Line          int
+	Row, RowGroup int
+	Column        string
+	Err           error
 }
 
 func (e *DataError) Error() string {
 	s := e.File
-	if e.Line > 0 {
+	switch {
+	case e.Line > 0:
 		s += ":" + strconv.Itoa(e.Line)
+	case e.Row > 0:
+		s += fmt.Sprintf(": row %d (row group %d)", e.Row, e.RowGroup)
+	case e.RowGroup > 0:
+		s += fmt.Sprintf(": row group %d", e.RowGroup)
 	}
 	if e.Column != "" {
 		s += ": column " + strconv.Quote(e.Column)

@@ -21,7 +21,8 @@ type LabelValues struct {
 type labelCoder struct {
 	positive     string
 	negative     string
-	negativeLine int // line where negative was first seen
+	negativeLine int    // line where negative was first seen
+	place        string // what negativeLine counts: "line" (CSV, the default) or "row" (Parquet)
 	seenPositive bool
 }
 
@@ -42,8 +43,12 @@ func (c *labelCoder) code(cell string, line int) (float64, error) {
 	case cell == c.negative:
 		return 0, nil
 	}
-	return 0, wrapf(ErrNotBinary, "label %q is a third value: with positive: %q the label column holds %q (from line %d) as its one other value",
-		cell, c.positive, c.negative, c.negativeLine)
+	place := c.place
+	if place == "" {
+		place = "line"
+	}
+	return 0, wrapf(ErrNotBinary, "label %q is a third value: with positive: %q the label column holds %q (from %s %d) as its one other value",
+		cell, c.positive, c.negative, place, c.negativeLine)
 }
 
 // check refuses a positive value that no audited row holds.
