@@ -41,6 +41,7 @@ type demoOptions struct {
 	workers int
 	force   bool
 	date    string // --audit-date
+	parquet bool   // --parquet: the cohort as cohort.parquet
 
 	intervals intervalOptions
 }
@@ -60,7 +61,10 @@ real patients and must not be used for anything but trying gapwise out.
 By default the audit adds 95% intervals from 100 bootstrap replicates, each
 refitting the classifiers; --intervals 0 turns them off, and --fast-intervals
 keeps the fitted density ratios instead (faster, but the contributions'
-intervals are then approximate: too narrow, and labelled so).`,
+intervals are then approximate: too narrow, and labelled so).
+
+--parquet writes the cohort as cohort.parquet (Parquet) instead of
+cohort.csv; the data, and so the result, are the same.`,
 		Args: cobra.NoArgs,
 		RunE: func(*cobra.Command, []string) error {
 			return wrapRun(runDemo(o, stdout, stderr))
@@ -74,6 +78,7 @@ intervals are then approximate: too narrow, and labelled so).`,
 	f.BoolVar(&o.force, "force", false, "write into a non-empty folder, replacing the demo's files")
 	bindIntervalFlags(cmd, &o.intervals, demoIntervals, false)
 	bindAuditDateFlag(cmd, &o.date)
+	f.BoolVar(&o.parquet, "parquet", false, "write the cohort as "+demoParquetData+" (Parquet) instead of "+demoData)
 	return cmd
 }
 
@@ -102,7 +107,11 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	if err := (outDir{path: o.out, force: o.force}).check(demoData, demoSpec, resultFile, reportFile); err != nil {
+	data := demoData
+	if o.parquet {
+		data = demoParquetData
+	}
+	if err := (outDir{path: o.out, force: o.force}).check(data, demoSpec, resultFile, reportFile); err != nil {
 		return err
 	}
 	line := newProgressLine(stderr)
@@ -110,10 +119,17 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	line.show("gapwise: generating %d synthetic records ...", o.rows)
 	var csv bytes.Buffer
 	recs := synth.DefaultScenario().Generate(o.rows, o.seed)
-	if err := synth.AnaemiaTable(recs).WriteCSV(&csv); err != nil {
+	table := synth.AnaemiaTable(recs)
+	if err := table.WriteCSV(&csv); err != nil {
 		return err
 	}
-	inputs := []outFile{{demoData, csv.Bytes()}, {demoSpec, synth.AnaemiaSpec(demoData)}}
+	cohort := csv.Bytes()
+	if o.parquet {
+		if cohort, err = demoParquet(table); err != nil {
+			return err
+		}
+	}
+	inputs := []outFile{{data, cohort}, {demoSpec, synth.AnaemiaSpec(data)}}
 	// Outputs of an earlier demo in a forced folder would not match the new
 	// cohort: they leave with the old inputs, so a failed audit leaves only
 	// the new inputs.
@@ -140,7 +156,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 		return err
 	}
 	return report.DemoSummary(stdout, res, report.DemoOutputs{
-		Dir: o.out, Data: demoData, Spec: demoSpec, Result: resultFile, Report: reportFile,
+		Dir: o.out, Data: data, Spec: demoSpec, Result: resultFile, Report: reportFile,
 		Command: invokedAs(os.Args[0]),
 	})
 }
