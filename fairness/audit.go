@@ -100,6 +100,9 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 		r.Settings.Intervals = boot
 	}
 	r.Details = Describe(d, spec.Threshold, spec.ECEBins)
+	if spec.SuppressBelow > 0 {
+		r.Suppression = planSuppression(r, spec.SuppressBelow) // before the warnings, which word withheld counts so
+	}
 	r.Warnings = Warnings(r) // after Settings.Intervals, whose failed replicates it reports
 	setReliability(r)
 	setHeadlines(r)
@@ -107,6 +110,7 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	if err := checkFinite(r); err != nil {
 		return nil, err
 	}
+	applySuppression(r) // last: every number above comes from all records
 	return r, nil
 }
 

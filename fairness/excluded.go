@@ -127,15 +127,19 @@ func rowsText(n int) string {
 // excludedWarnings reports each excluded value that resembles a chosen
 // one: a capitalisation or spacing slip in the data or the spec that
 // leaves records out of the audit. Never nil.
-func excludedWarnings(g GroupInfo) []Warning {
+func excludedWarnings(g GroupInfo, words countWords) []Warning {
 	out := []Warning{}
-	for _, e := range g.Excluded {
+	for i, e := range g.Excluded {
 		if e.Resembles == "" {
 			continue
 		}
+		rows := rowsText(e.Rows)
+		if n := words(ExcludedPath(i), e.Rows); n != plainCount("", e.Rows) {
+			rows = n + " rows"
+		}
 		out = append(out, Warning{Kind: KindGroupValueNearMiss, Severity: SeverityCaution, Nodes: []string{},
 			Message: fmt.Sprintf("%s with group value %q, which differs from the chosen value %q only in letter case or spacing; they are excluded from the audit (check groups in the spec, or correct the data)",
-				rowsText(e.Rows), e.Value, e.Resembles)})
+				rows, e.Value, e.Resembles)})
 	}
 	return out
 }

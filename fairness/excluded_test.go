@@ -40,7 +40,7 @@ func TestReadDataExcludedValues(t *testing.T) {
 	if r, c := d.Counts(); r != 2 || c != 2 {
 		t.Errorf("kept %d/%d rows, want 2/2", r, c)
 	}
-	ws := excludedWarnings(groupInfo(dataSpec(t, ""), d))
+	ws := excludedWarnings(groupInfo(dataSpec(t, ""), d), plainCount)
 	if len(ws) != 4 {
 		t.Fatalf("%d warnings, want one per near-miss value (4): %v", len(ws), ws)
 	}

@@ -34,7 +34,21 @@ const (
 	// MaxNodes caps the graph's nodes: coalitions of mechanisms are sets
 	// held in 64-bit words.
 	MaxNodes = 63
+	// MaxSuppressBelow caps suppress_below (and --suppress-below), the
+	// threshold of small-cell suppression; publishers use about 5 to 20
+	// (common practice).
+	MaxSuppressBelow = 1000
 )
+
+// CheckSuppressBelow returns nil when t is a threshold of small-cell
+// suppression: 0 (none) or 2 to MaxSuppressBelow (1 would withhold
+// nothing); otherwise an error that reads after the key or flag's name.
+func CheckSuppressBelow(t int) error {
+	if t == 0 || (t >= 2 && t <= MaxSuppressBelow) {
+		return nil
+	}
+	return fmt.Errorf("must be 0 (no suppression) or from 2 to %d (10 is common), got %d", MaxSuppressBelow, t)
+}
 
 // ErrTooLarge is wrapped by errors for inputs beyond a limit.
 var ErrTooLarge = errors.New("input exceeds a limit")

@@ -72,7 +72,7 @@ func Plan(spec *Spec) (*PlanInfo, error) {
 	info.ModelInputs = modelInputs(spec)
 	names := resultNames(spec, d.levelNames)
 	info.Names = names
-	info.Warnings = append(dataWarnings(info.Groups, names.GroupName(info.Groups.Reference, false), names.GroupName(info.Groups.Comparison, true)),
+	info.Warnings = append(dataWarnings(info.Groups, names.GroupName(info.Groups.Reference, false), names.GroupName(info.Groups.Comparison, true), plainCount),
 		modelInputWarnings(info.ModelInputs, spec.Groups.Column, spec.Score, spec.ScoreIsNode(), nil, names)...)
 	for i, n := range spec.Graph {
 		info.Nodes = append(info.Nodes, PlanNode{

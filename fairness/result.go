@@ -52,6 +52,10 @@ type Result struct {
 	// (RunOptions.Policy, --policy): every check and whether the run
 	// passed; absent without a policy.
 	Policy *policy.Outcome `json:"policy,omitempty"`
+	// Suppression, present when the spec's suppress_below (or the flag
+	// --suppress-below) is set, lists the counts withheld as small cells
+	// (null in JSON, 0 here) and what stays shown; see Suppression.
+	Suppression *Suppression `json:"suppression,omitempty"`
 }
 
 // ToolInfo names the program that produced the result.

@@ -63,6 +63,7 @@ import (
 //	  columns: {mcv: {name: mean cell volume, unit: fL}}
 //	model: {name: anaemia risk score, version: "2.1"}  # the audited model
 //	audit_date: 2026-12-03  # shown in the reports and the result; omit for none
+//	suppress_below: 10   # withhold counts from 1 to 9 in the outputs (Suppression); omit or 0 for none
 type Spec struct {
 	File     string // spec path as given ("" when parsed from bytes without a name)
 	SHA256   string // hex SHA-256 of the spec file's bytes
@@ -125,6 +126,10 @@ type Spec struct {
 	// AuditDate is the audit_date key (YYYY-MM-DD, CheckAuditDate), ""
 	// when absent; the CLI's --audit-date replaces it.
 	AuditDate string
+	// SuppressBelow is the suppress_below key: the threshold of small-cell
+	// suppression (Suppression), 0 for none; the CLI's --suppress-below
+	// replaces it.
+	SuppressBelow int
 
 	lines      map[string]int // line of each top-level key
 	catLines   []int          // line of each categorical entry
@@ -435,6 +440,13 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		err = p.model(s, v)
 	case "audit_date":
 		err = p.auditDate(s, v)
+	case "suppress_below":
+		err = p.decode(k.Value, v, &s.SuppressBelow, "an integer")
+		if err == nil {
+			if e := CheckSuppressBelow(s.SuppressBelow); e != nil {
+				err = specErr(p.file, v.Line, k.Value, ErrBadValue, "suppress_below %v", e)
+			}
+		}
 	default:
 		return p.unknownKey(k.Line, k.Value, k.Value, topKeys)
 	}

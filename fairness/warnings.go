@@ -74,7 +74,8 @@ const (
 // since the combination leans on the better one. Each check's kind and
 // severity are listed with the Kind… constants.
 func Warnings(r *Result) []Warning {
-	out := append(dataWarnings(r.Groups, r.ReferenceName(), r.ComparisonName()), sampleSizeWarnings(r)...)
+	words := r.Suppression.words
+	out := append(dataWarnings(r.Groups, r.ReferenceName(), r.ComparisonName(), words), sampleSizeWarnings(r)...)
 	out = append(out, modelInputWarnings(r.ModelInputs, r.Groups.Column, r.Score, scoreIsNode(r), r.Details, r.Names)...)
 	down := downstreamOfSeparation(r)
 	for _, m := range r.Mechanisms {
@@ -90,7 +91,7 @@ func Warnings(r *Result) []Warning {
 	if w, ok := splitWarning(r, out); ok {
 		out = append(out, w)
 	}
-	out = append(out, outlyingWarnings(r.Details, r.Names)...)
+	out = append(out, outlyingWarnings(r.Details, r.Names, words)...)
 	if iv := r.Settings.Intervals; iv != nil && iv.Failed > 0 {
 		out = append(out, Warning{Kind: KindBootstrapFailures, Severity: SeverityNote, Nodes: []string{},
 			Message: fmt.Sprintf("%d of %d bootstrap replicates could not be computed (e.g. a metric without a value in a resample); the intervals rest on the rest", iv.Failed, iv.Replicates)})
@@ -383,8 +384,8 @@ func nodeList(names *Names, nodes []string) string {
 // dataWarnings reports, about the rows of the data file, those dropped for
 // missing values and the excluded group values that resemble a chosen one;
 // ref and cmp are the groups' display names.
-func dataWarnings(g GroupInfo, ref, cmp string) []Warning {
-	return append(droppedWarnings(g, ref, cmp), excludedWarnings(g)...)
+func dataWarnings(g GroupInfo, ref, cmp string, words countWords) []Warning {
+	return append(droppedWarnings(g, ref, cmp, words), excludedWarnings(g, words)...)
 }
 
 // droppedWarnings reports rows dropped for missing values; never nil. It
@@ -393,14 +394,21 @@ func dataWarnings(g GroupInfo, ref, cmp string) []Warning {
 // |z| ≥ WarnDroppedZ, missingShares): dropping then changes the two
 // groups' case mix unequally, so the audit answers a different question
 // (compare each metric's all_records gap). ref and cmp name the groups.
-func droppedWarnings(g GroupInfo, ref, cmp string) []Warning {
+func droppedWarnings(g GroupInfo, ref, cmp string, words countWords) []Warning {
 	if g.DroppedReference == 0 && g.DroppedComparison == 0 {
 		return []Warning{}
 	}
 	refShare, cmpShare, z := missingShares(g)
+	shareOf := func(path string, p float64) string {
+		if words(path, 0) != plainCount(path, 0) {
+			return "share withheld" // the share and the group's records would give the count
+		}
+		return share(p)
+	}
 	w := Warning{Kind: KindRowsDropped, Severity: SeverityNote, Nodes: []string{},
 		Message: fmt.Sprintf("%s rows of group %q (%s) and %s rows of group %q (%s) were dropped for missing values; the audit describes the remaining records only",
-			thousands(g.DroppedReference), ref, share(refShare), thousands(g.DroppedComparison), cmp, share(cmpShare))}
+			words(PathDroppedReference, g.DroppedReference), ref, shareOf(PathDroppedReference, refShare),
+			words(PathDroppedComparison, g.DroppedComparison), cmp, shareOf(PathDroppedComparison, cmpShare))}
 	if math.Abs(cmpShare-refShare) >= WarnDroppedGap && math.Abs(z) >= WarnDroppedZ {
 		w.Severity = SeverityCaution
 		w.Message += fmt.Sprintf(". The shares differ by more than chance explains (z = %.1f): dropping changes the groups unequally; compare the gap on all records with label and score (all_records), or use missing: indicator", z)
@@ -507,21 +515,22 @@ func extremeWarning(m MechanismResult, side, mech string) string {
 // outlyingWarnings names each numeric column with values outside its
 // typical range (ColumnDetails.Outlying), by its display name and then
 // its identifier (columnWords).
-func outlyingWarnings(d *Details, names *Names) []Warning {
+func outlyingWarnings(d *Details, names *Names, words countWords) []Warning {
 	if d == nil {
 		return nil
 	}
 	var out []Warning
-	for _, c := range d.Columns {
+	for i, c := range d.Columns {
 		if c.Outlying == 0 || c.Farthest == nil {
 			continue
 		}
 		values := "values"
-		if c.Outlying == 1 {
+		count := words(OutlyingPath(i), c.Outlying)
+		if count == "1" {
 			values = "value"
 		}
 		out = append(out, Warning{Kind: KindOutlyingValues, Severity: SeverityNote, Nodes: []string{},
-			Message: fmt.Sprintf("column %s has %s %s far outside the bulk of its values (the farthest is %g); the classifiers treat such values as the edge of the typical range; check them for entry errors", columnWords(names, c.Name), thousands(c.Outlying), values, *c.Farthest)})
+			Message: fmt.Sprintf("column %s has %s %s far outside the bulk of its values (the farthest is %g); the classifiers treat such values as the edge of the typical range; check them for entry errors", columnWords(names, c.Name), count, values, *c.Farthest)})
 	}
 	return out
 }

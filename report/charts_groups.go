@@ -12,7 +12,8 @@ import (
 
 // reliabilityChart plots each group's reliability curve (event rate against
 // mean score per non-empty score bin, in percent) with the diagonal of
-// perfect calibration. The reference group is drawn solid with circles and
+// perfect calibration; a bin that small-cell suppression withholds is left
+// out. The reference group is drawn solid with circles and
 // the comparison group dashed with triangles, so the two stay apart in grey
 // print too.
 func reliabilityChart(res *fairness.Result, d *fairness.Details) chartOption {
@@ -31,9 +32,12 @@ func reliabilityChart(res *fairness.Result, d *fairness.Details) chartOption {
 		charts.WithGridOpts(opts.Grid{Left: "56", Right: "16", Top: "36", Bottom: "44"}),
 		charts.WithXAxisOpts(x), charts.WithYAxisOpts(y),
 	)
-	curve := func(name string, g fairness.GroupDetails) []opts.LineData {
+	curve := func(role string, g fairness.GroupDetails) []opts.LineData {
 		var out []opts.LineData
-		for _, b := range g.Curve {
+		for j, b := range g.Curve {
+			if _, ok := withheldText(res, fairness.ReliabilityPath(role, j, "mean_score")); ok {
+				continue // small-cell suppression: the bin is not drawn
+			}
 			out = append(out, opts.LineData{Value: []float64{round6(100 * b.MeanScore), round6(100 * b.EventRate)}})
 		}
 		return out
@@ -41,10 +45,10 @@ func reliabilityChart(res *fairness.Result, d *fairness.Details) chartOption {
 	line.AddSeries("perfect calibration", []opts.LineData{{Value: []float64{0, 0}}, {Value: []float64{100, 100}}},
 		charts.WithLineStyleOpts(opts.LineStyle{Color: colourMuted, Type: "dotted", Width: 1}),
 		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "none"; s.Color = colourMuted }))
-	line.AddSeries(refName(res)+" (reference)", curve("ref", d.Reference),
+	line.AddSeries(refName(res)+" (reference)", curve("reference", d.Reference),
 		charts.WithLineStyleOpts(opts.LineStyle{Color: colourReference, Width: 2}),
 		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "circle"; s.SymbolSize = 8; s.Color = colourReference }))
-	line.AddSeries(cmpName(res)+" (comparison)", curve("cmp", d.Comparison),
+	line.AddSeries(cmpName(res)+" (comparison)", curve("comparison", d.Comparison),
 		charts.WithLineStyleOpts(opts.LineStyle{Color: colourComparison, Width: 2, Type: "dashed"}),
 		charts.WithSeriesOpts(func(s *charts.SingleSeries) { s.Symbol = "triangle"; s.SymbolSize = 10; s.Color = colourComparison }))
 	return optionOf(line)
@@ -52,8 +56,9 @@ func reliabilityChart(res *fairness.Result, d *fairness.Details) chartOption {
 
 // columnChart compares the two groups' distributions of one column as
 // side-by-side bars of the share of records (percent) per histogram bin or
-// level. Bin labels come from binLabels.
-func columnChart(res *fairness.Result, c fairness.ColumnDetails) chartOption {
+// level; a share that small-cell suppression withholds has no bar ("-").
+// Bin labels come from binLabels; i is the column's position in Details.
+func columnChart(res *fairness.Result, i int, c fairness.ColumnDetails) chartOption {
 	bar := charts.NewBar()
 	bar.SetGlobalOptions(
 		charts.WithTooltipOpts(opts.Tooltip{Show: opts.Bool(true), Trigger: "axis", BackgroundColor: "#FFFFFF", BorderColor: colourRule}),
@@ -64,15 +69,19 @@ func columnChart(res *fairness.Result, c fairness.ColumnDetails) chartOption {
 		charts.WithXAxisOpts(opts.XAxis{Type: "category", AxisLabel: &opts.AxisLabel{Interval: "0", Rotate: rotateFor(len(c.Reference))}}),
 	)
 	bar.SetXAxis(binLabels(res, c))
-	shares := func(xs []float64) []opts.BarData {
+	shares := func(role string, xs []float64) []opts.BarData {
 		var out []opts.BarData
-		for _, v := range xs {
+		for j, v := range xs {
+			if _, ok := withheldText(res, fairness.SharePath(i, role, j)); ok {
+				out = append(out, opts.BarData{Value: "-"})
+				continue
+			}
 			out = append(out, opts.BarData{Value: round6(100 * v)})
 		}
 		return out
 	}
-	bar.AddSeries(refName(res), shares(c.Reference), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourReference}))
-	bar.AddSeries(cmpName(res), shares(c.Comparison), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourComparison, BorderColor: colourInk, BorderWidth: 0.5}))
+	bar.AddSeries(refName(res), shares("reference", c.Reference), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourReference}))
+	bar.AddSeries(cmpName(res), shares("comparison", c.Comparison), charts.WithItemStyleOpts(opts.ItemStyle{Color: colourComparison, BorderColor: colourInk, BorderWidth: 0.5}))
 	return optionOf(bar)
 }
 

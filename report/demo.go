@@ -25,7 +25,8 @@ type DemoOutputs struct {
 // metric, the two groups' values, the gap (with its interval when there is
 // one) and the largest contribution; how the intervals were made (and why
 // the contributions' intervals are approximate when they came from the
-// fast bootstrap); the warnings, most serious first, with their
+// fast bootstrap); whether small cells are suppressed; the warnings, most
+// serious first, with their
 // severities; then where the files are and the command to run next.
 func DemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) error {
 	var b bytes.Buffer
@@ -59,6 +60,12 @@ func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
 		fmt.Fprintf(w, "\nIntervals in brackets: %s.\n", iv)
 		if n := approximateNote(res); n != "" {
 			fmt.Fprintln(w, n)
+		}
+	}
+	if ss := suppressionSentences(res); len(ss) > 0 {
+		fmt.Fprintln(w)
+		for _, s := range ss {
+			fmt.Fprintln(w, pt(s))
 		}
 	}
 	if len(res.Warnings) > 0 {

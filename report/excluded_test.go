@@ -26,13 +26,13 @@ func excludedGroups() fairness.GroupInfo {
 // invisible characters shown, and rows without a group value.
 func TestExcludedSentence(t *testing.T) {
 	g := excludedGroups()
-	got := excludedSentence(g)
+	got := excludedSentence(&fairness.Result{Groups: g})
 	want := `Not audited: 57 rows whose "` + g.Column + `" value is neither "` + g.Reference + `" nor "` + g.Comparison + `": ` +
 		`"Female" 40 (like "` + g.Comparison + `"), "unknown" 9, "x\u200b" 3, "a" 1, "b" 1, other values 3 rows; 2 rows without a group value.`
 	if got != want {
 		t.Errorf("got  %s\nwant %s", got, want)
 	}
-	if s := excludedSentence(handResult().Groups); s != "" {
+	if s := excludedSentence(handResult()); s != "" {
 		t.Errorf("no excluded rows: %q", s)
 	}
 }

@@ -10,6 +10,7 @@ import (
 	"math"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"strings"
 
 	"github.com/gapwise/gapwise/fairness"
@@ -88,7 +89,10 @@ type page struct {
 	HasDetails   bool
 	Columns      []columnView
 	Overview     []overviewView
-	Caution      string // overviewCaution
+	Caution      string   // overviewCaution
+	Suppression  []string // suppressionSentences, none when it is off
+	DroppedRef   string   // the groups' rows dropped for missing values, as suppression allows
+	DroppedCmp   string
 	Warnings     []warningView
 	Assumptions  []string
 	Settings     []keyValue
@@ -230,7 +234,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		Diagnostics:     diagnostics(res),
 		Cohort:          filepath.Base(res.Inputs.DataFile), // the footer has the full path
 		Threshold:       formatThreshold(res.Threshold),
-		Excluded:        excludedSentence(res.Groups),
+		Excluded:        excludedSentence(res),
 		LabelWords:      labelWords(res.LabelValues),
 		Assumptions:     res.Assumptions,
 		LowESSShare:     fmt.Sprintf("%.0f%%", 100*fairness.WarnESSShare),
@@ -239,6 +243,9 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		Gate:            policyGate(res),
 		ImpactNote:      impactNote(res),
 		Crosswalk:       crosswalkPage(),
+		Suppression:     suppressionSentences(res),
+		DroppedRef:      countAt(res, fairness.PathDroppedReference, res.Groups.DroppedReference, strconv.Itoa),
+		DroppedCmp:      countAt(res, fairness.PathDroppedComparison, res.Groups.DroppedComparison, strconv.Itoa),
 	}
 	if res.Inputs.DataFile == "" {
 		p.Cohort = "the audited records"
@@ -318,23 +325,30 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	if d := res.Details; d != nil {
 		p.HasDetails = true
 		p.Confusion = []confusionView{
-			confusion(refName(res), "reference", d.Reference),
-			confusion(cmpName(res), "comparison", d.Comparison),
+			confusion(res, refName(res), "reference", d.Reference),
+			confusion(res, cmpName(res), "comparison", d.Comparison),
 		}
 		for _, g := range []struct {
-			name string
-			d    fairness.GroupDetails
-		}{{refName(res), d.Reference}, {cmpName(res), d.Comparison}} {
-			for _, b := range g.d.Curve {
+			name, role string
+			d          fairness.GroupDetails
+		}{{refName(res), "reference", d.Reference}, {cmpName(res), "comparison", d.Comparison}} {
+			for j, b := range g.d.Curve {
+				pct := func(field string, v float64) string {
+					if t, ok := withheldText(res, fairness.ReliabilityPath(g.role, j, field)); ok {
+						return t
+					}
+					return fmt.Sprintf("%.1f%%", 100*v)
+				}
 				p.Reliability = append(p.Reliability, reliabilityRow{Group: g.name,
-					Bin: fmt.Sprintf("%.0f–%.0f%%", 100*b.Lower, 100*b.Upper), Count: fmt.Sprint(b.Count),
-					MeanScore: fmt.Sprintf("%.1f%%", 100*b.MeanScore), EventRate: fmt.Sprintf("%.1f%%", 100*b.EventRate)})
+					Bin:       fmt.Sprintf("%.0f–%.0f%%", 100*b.Lower, 100*b.Upper),
+					Count:     countAt(res, fairness.ReliabilityPath(g.role, j, "count"), b.Count, strconv.Itoa),
+					MeanScore: pct("mean_score", b.MeanScore), EventRate: pct("event_rate", b.EventRate)})
 			}
 		}
 		data.Reliability = reliabilityChart(res, d)
-		for _, c := range d.Columns {
-			p.Columns = append(p.Columns, column(res, c, nodeOfColumn[c.Name]))
-			data.Columns[c.Name] = columnChart(res, c)
+		for i, c := range d.Columns {
+			p.Columns = append(p.Columns, column(res, i, c, nodeOfColumn[c.Name]))
+			data.Columns[c.Name] = columnChart(res, i, c)
 		}
 	}
 	p.Settings = []keyValue{
@@ -358,6 +372,9 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		{"Estimator", estimatorSetting(res)}, {"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},
 		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", p.IntervalSetting},
 	}...)
+	if s := suppressionSetting(res); s != "" {
+		p.Settings = append(p.Settings, keyValue{"Small-cell suppression", s})
+	}
 	js, err := encodeOptions(data)
 	if err != nil {
 		return nil, err
@@ -450,21 +467,27 @@ func columnOrder(res *fairness.Result, m fairness.MetricResult, nodeOfColumn map
 
 // confusion formats one group's confusion counts; each cell's tint is its
 // share of the group's records.
-func confusion(name, role string, g fairness.GroupDetails) confusionView {
-	total := g.Confusion.TP + g.Confusion.FP + g.Confusion.TN + g.Confusion.FN
-	shade := func(v float64) tint {
-		if total <= 0 {
-			return "0"
+func confusion(res *fairness.Result, name, role string, g fairness.GroupDetails) confusionView {
+	total := float64(g.N)
+	shade := func(cell string, v float64) tint {
+		if _, ok := withheldText(res, fairness.ConfusionPath(role, cell)); ok || total <= 0 {
+			return "0" // a withheld count's shade would tell its size
 		}
 		return tint(fmt.Sprintf("%.2f", 0.08+0.6*v/total))
+	}
+	count := func(cell string, v float64) string {
+		if t, ok := withheldText(res, fairness.ConfusionPath(role, cell)); ok {
+			return t
+		}
+		return formatCount(v)
 	}
 	prev := "n/a"
 	if g.N > 0 {
 		prev = fmt.Sprintf("%.1f%%", 100*float64(g.Events)/float64(g.N))
 	}
 	return confusionView{Group: name, Role: role, N: fmt.Sprint(g.N), Events: fmt.Sprint(g.Events), Prevalence: prev,
-		TP: formatCount(g.Confusion.TP), FP: formatCount(g.Confusion.FP), TN: formatCount(g.Confusion.TN), FN: formatCount(g.Confusion.FN),
-		TPShade: shade(g.Confusion.TP), FPShade: shade(g.Confusion.FP), TNShade: shade(g.Confusion.TN), FNShade: shade(g.Confusion.FN)}
+		TP: count("tp", g.Confusion.TP), FP: count("fp", g.Confusion.FP), TN: count("tn", g.Confusion.TN), FN: count("fn", g.Confusion.FN),
+		TPShade: shade("tp", g.Confusion.TP), FPShade: shade("fp", g.Confusion.FP), TNShade: shade("tn", g.Confusion.TN), FNShade: shade("fn", g.Confusion.FN)}
 }
 
 // stdDiffFlag is the |standardised difference| above which a column is
@@ -473,7 +496,7 @@ func confusion(name, role string, g fairness.GroupDetails) confusionView {
 const stdDiffFlag = 0.1
 
 // column formats one column's distributions for its drill-down card.
-func column(res *fairness.Result, c fairness.ColumnDetails, node string) columnView {
+func column(res *fairness.Result, i int, c fairness.ColumnDetails, node string) columnView {
 	v := columnView{Name: c.Name, Label: colCode(res, c.Name), LabelText: colWithID(res, c.Name), Node: node, Kind: "numeric", StdDiff: "undefined", OutsideGraph: c.OutsideGraph}
 	for _, m := range res.Mechanisms {
 		if m.Node == node {
@@ -494,10 +517,19 @@ func column(res *fairness.Result, c fairness.ColumnDetails, node string) columnV
 		v.Imbalanced = math.Abs(*c.StdDiff) > stdDiffFlag
 	}
 	labels := binLabels(res, c)
+	share := func(role string, j int, p float64) string {
+		if t, ok := withheldText(res, fairness.SharePath(i, role, j)); ok {
+			return t
+		}
+		return fmt.Sprintf("%.1f%%", 100*p)
+	}
+	count := func(role string, j, n int) string {
+		return countAt(res, fairness.LevelCountPath(i, role, j), n, func(n int) string { return formatCount(float64(n)) })
+	}
 	for j := range c.Reference {
-		row := binRow{Bin: labels[j], Reference: fmt.Sprintf("%.1f%%", 100*c.Reference[j]), Comparison: fmt.Sprintf("%.1f%%", 100*c.Comparison[j])}
+		row := binRow{Bin: labels[j], Reference: share("reference", j, c.Reference[j]), Comparison: share("comparison", j, c.Comparison[j])}
 		if j < len(c.CountsReference) && j < len(c.CountsComparison) {
-			row.ReferenceCount, row.ComparisonCount = formatCount(float64(c.CountsReference[j])), formatCount(float64(c.CountsComparison[j]))
+			row.ReferenceCount, row.ComparisonCount = count("reference", j, c.CountsReference[j]), count("comparison", j, c.CountsComparison[j])
 		}
 		v.Bins = append(v.Bins, row)
 	}

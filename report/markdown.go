@@ -84,7 +84,7 @@ func mdSummaries(p mdPrinter, res *fairness.Result) {
 		mdCodeWithID(colLabel(res, g.Column), g.Column), mdText(withID(refName(res), g.Reference)), g.NReference, g.EventsReference,
 		mdText(withID(cmpName(res), g.Comparison)), g.NComparison, g.EventsComparison, mdCodeWithID(nodeName(res, res.Label), res.Label),
 		mdText(labelWords(res.LabelValues)), formatThreshold(res.Threshold))
-	if s := excludedSentence(g); s != "" {
+	if s := excludedSentence(res); s != "" {
 		p("%s\n\n", mdText(s))
 	}
 	for _, m := range res.Metrics {

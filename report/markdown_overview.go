@@ -31,6 +31,9 @@ func mdOverview(p mdPrinter, res *fairness.Result) {
 	if n := approximateNote(res); n != "" {
 		p("%s\n\n", mdText(n))
 	}
+	for _, s := range suppressionSentences(res) {
+		p("%s\n\n", mdText(s))
+	}
 }
 
 // mdWarnings prints the warnings, most serious first, numbered as the

@@ -44,7 +44,7 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	fmt.Fprintf(b, "  groups      column %s: reference %s (%d records, %d events, %d dropped), comparison %s (%d records, %d events, %d dropped)\n",
 		pt(columnWithID(names, g.Column)), pt(withID(names.GroupName(g.Reference, false), g.Reference)), g.NReference, g.EventsReference, g.DroppedReference,
 		pt(withID(names.GroupName(g.Comparison, true), g.Comparison)), g.NComparison, g.EventsComparison, g.DroppedComparison)
-	if s := excludedSentence(g); s != "" {
+	if s := excludedSentence(&fairness.Result{Groups: g}); s != "" {
 		fmt.Fprintf(b, "  excluded    %s\n", pt(s))
 	}
 	if mi := p.ModelInputs; mi != nil {

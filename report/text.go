@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/gapwise/gapwise/fairness"
@@ -34,8 +35,8 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 	tw.warnings(res)
 	tw.policy(res)
 	tw.groups(res)
-	for _, m := range res.Metrics {
-		tw.metric(res, m)
+	for i, m := range res.Metrics {
+		tw.metric(res, i, m)
 	}
 	tw.diagnostics(res)
 	tw.list("Assumptions and cautions", res.Assumptions, "")
@@ -82,26 +83,27 @@ func (t *textWriter) groups(res *fairness.Result) {
 		tab = textTable{header: []string{"role", "group", "value", "records", "events", "dropped"}, right: []bool{false, false, false, true, true, true}}
 	}
 	for _, r := range []struct {
-		role, name, value  string
-		n, events, dropped int
+		role, name, value string
+		n, events         int
+		dropped           string
 	}{
-		{"reference", refName(res), g.Reference, g.NReference, g.EventsReference, g.DroppedReference},
-		{"comparison", cmpName(res), g.Comparison, g.NComparison, g.EventsComparison, g.DroppedComparison},
+		{"reference", refName(res), g.Reference, g.NReference, g.EventsReference, countAt(res, fairness.PathDroppedReference, g.DroppedReference, strconv.Itoa)},
+		{"comparison", cmpName(res), g.Comparison, g.NComparison, g.EventsComparison, countAt(res, fairness.PathDroppedComparison, g.DroppedComparison, strconv.Itoa)},
 	} {
-		row := []string{r.role, r.value, fmt.Sprint(r.n), fmt.Sprint(r.events), fmt.Sprint(r.dropped)}
+		row := []string{r.role, r.value, fmt.Sprint(r.n), fmt.Sprint(r.events), r.dropped}
 		if named {
 			row = append([]string{r.role, r.name}, row[1:]...)
 		}
 		tab.add(row...)
 	}
 	tab.write(t.w, "  ")
-	if s := excludedSentence(g); s != "" {
+	if s := excludedSentence(res); s != "" {
 		t.line("  %s", s)
 	}
 	t.line("")
 }
 
-func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
+func (t *textWriter) metric(res *fairness.Result, mi int, m fairness.MetricResult) {
 	t.line("%s (%s)", m.Metric, MetricTitle(m.Metric))
 	vals := textTable{header: []string{"", "value", intervalName(res), "from"}, right: []bool{false, true, true, true}}
 	vals.add("reference", fixed(m.Reference), interval(m.ReferenceCI, fixed), basis(m.Metric, m.RecordsReference))
@@ -109,7 +111,8 @@ func (t *textWriter) metric(res *fairness.Result, m fairness.MetricResult) {
 	vals.add("gap (comparison - reference)", signed(m.Gap), interval(m.GapCI, signed), "")
 	impactRow(&vals, m)
 	if a := m.AllRecords; a != nil {
-		vals.add("gap before dropping rows", signed(a.Gap), "", fmt.Sprintf("%s / %s records", thousandsText(a.NReference), thousandsText(a.NComparison)))
+		vals.add("gap before dropping rows", signed(a.Gap), "", fmt.Sprintf("%s / %s records",
+			countAt(res, fairness.AllRecordsPath(mi, "n_reference"), a.NReference, thousandsText), countAt(res, fairness.AllRecordsPath(mi, "n_comparison"), a.NComparison, thousandsText)))
 	}
 	vals.dropEmpty()
 	vals.write(t.w, "  ")
@@ -252,6 +255,9 @@ func (t *textWriter) inputs(res *fairness.Result) {
 	}
 	if iv := intervalSetting(res); iv != "" {
 		tab.add("intervals", iv)
+	}
+	if s := suppressionSetting(res); s != "" {
+		tab.add("small cells", s)
 	}
 	tab.add("missing values", missingSetting(s))
 	t.line("Inputs and settings")

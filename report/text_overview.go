@@ -40,6 +40,9 @@ func (t *textWriter) overview(res *fairness.Result) {
 	if n := approximateNote(res); n != "" {
 		t.line("  %s", n)
 	}
+	for _, s := range suppressionSentences(res) {
+		t.line("  %s", s)
+	}
 	t.line("")
 }
 

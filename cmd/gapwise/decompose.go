@@ -36,6 +36,8 @@ type decomposeOptions struct {
 	// estimator is --estimator ("": the spec's key).
 	estimator string
 
+	suppress suppressOption
+
 	intervals  intervalOptions
 	coalitions coalitionOptions
 	policy     policyOptions
@@ -84,6 +86,7 @@ outputs; see the README's "Policy gate" section.`,
 				return wrapRun(err)
 			}
 			o.intervals.markSet(cmd)
+			o.suppress.markSet(cmd)
 			return wrapRun(runDecompose(o, stdout, stderr))
 		},
 	}
@@ -98,6 +101,7 @@ outputs; see the README's "Policy gate" section.`,
 	bindAuditDateFlag(cmd, &o.date)
 	bindPolicyFlag(cmd, &o.policy)
 	bindEstimatorFlag(cmd, &o.estimator)
+	bindSuppressFlag(cmd, &o.suppress)
 	return cmd
 }
 
@@ -123,6 +127,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	if err := o.suppress.check(); err != nil {
+		return err
+	}
 	out := outDir{path: o.out, force: o.force, inputs: inputFiles(o.spec, o.policy.file)}
 	if o.out != "" {
 		if err := out.check(resultFile, reportFile); err != nil {
@@ -139,6 +146,7 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if o.estimator != "" {
 		spec.Estimator = o.estimator
 	}
+	o.suppress.apply(spec)
 	out.inputs = inputFiles(o.spec, o.policy.file, spec.DataPath)
 	pol, err := o.policy.load(spec, o.intervals.runIntervals(spec.Intervals))
 	if err != nil {

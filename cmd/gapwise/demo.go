@@ -44,6 +44,7 @@ type demoOptions struct {
 	parquet bool   // --parquet: the cohort as cohort.parquet
 
 	intervals intervalOptions
+	suppress  suppressOption
 }
 
 func newDemoCmd(stdout, stderr io.Writer) *cobra.Command {
@@ -66,7 +67,8 @@ intervals are then approximate: too narrow, and labelled so).
 --parquet writes the cohort as cohort.parquet (Parquet) instead of
 cohort.csv; the data, and so the result, are the same.`,
 		Args: cobra.NoArgs,
-		RunE: func(*cobra.Command, []string) error {
+		RunE: func(cmd *cobra.Command, _ []string) error {
+			o.suppress.markSet(cmd)
 			return wrapRun(runDemo(o, stdout, stderr))
 		},
 	}
@@ -79,6 +81,7 @@ cohort.csv; the data, and so the result, are the same.`,
 	bindIntervalFlags(cmd, &o.intervals, demoIntervals, false)
 	bindAuditDateFlag(cmd, &o.date)
 	f.BoolVar(&o.parquet, "parquet", false, "write the cohort as "+demoParquetData+" (Parquet) instead of "+demoData)
+	bindSuppressFlag(cmd, &o.suppress)
 	return cmd
 }
 
@@ -105,6 +108,9 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	}
 	date, err := auditDate(o.date)
 	if err != nil {
+		return err
+	}
+	if err := o.suppress.check(); err != nil {
 		return err
 	}
 	data := demoData
@@ -144,6 +150,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if date != "" {
 		spec.AuditDate = date
 	}
+	o.suppress.apply(spec)
 	res, err := audit(spec, o.workers, o.intervals, 0, line)
 	if err != nil {
 		return err
