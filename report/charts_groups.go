@@ -13,7 +13,7 @@ import (
 // reliabilityChart plots each group's reliability curve (event rate against
 // mean score per non-empty score bin, in percent) with the diagonal of
 // perfect calibration; a bin that small-cell suppression withholds is left
-// out. The reference group is drawn solid with circles and
+// out, the curve broken there. The reference group is drawn solid with circles and
 // the comparison group dashed with triangles, so the two stay apart in grey
 // print too.
 func reliabilityChart(res *fairness.Result, d *fairness.Details) chartOption {
@@ -36,7 +36,10 @@ func reliabilityChart(res *fairness.Result, d *fairness.Details) chartOption {
 		var out []opts.LineData
 		for j, b := range g.Curve {
 			if _, ok := withheldText(res, fairness.ReliabilityPath(role, j, "mean_score")); ok {
-				continue // small-cell suppression: the bin is not drawn
+				// small-cell suppression: the bin is not drawn, and the
+				// curve breaks there ("-" is ECharts' empty value)
+				out = append(out, opts.LineData{Value: "-"})
+				continue
 			}
 			out = append(out, opts.LineData{Value: []float64{round6(100 * b.MeanScore), round6(100 * b.EventRate)}})
 		}
