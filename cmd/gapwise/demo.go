@@ -42,6 +42,7 @@ type demoOptions struct {
 	force   bool
 	date    string // --audit-date
 	parquet bool   // --parquet: the cohort as cohort.parquet
+	model   int    // --model: the screening model's version (synth.DemoModel)
 
 	intervals intervalOptions
 	suppress  suppressOption
@@ -58,6 +59,10 @@ runs decompose on them, writing result.json and report.html beside them.
 
 The data are SYNTHETIC: generated from hand-picked mechanisms, they describe no
 real patients and must not be used for anything but trying gapwise out.
+
+--model 2 scores the same invented records with the demo model's second
+version (a haemoglobin cut-off of 12.5 instead of 13 g/dL), for trying out
+gapwise compare on two releases of a model.
 
 By default the audit adds 95% intervals from 100 bootstrap replicates, each
 refitting the classifiers; --intervals 0 turns them off, and --fast-intervals
@@ -78,6 +83,7 @@ cohort.csv; the data, and so the result, are the same.`,
 	f.Uint64Var(&o.seed, "seed", 1, "seed `S` of the cohort generator")
 	f.IntVar(&o.workers, "workers", 0, "`N` goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty folder, replacing the demo's files")
+	f.IntVar(&o.model, "model", 1, "`VERSION` of the invented screening model that writes the score: 1 or 2")
 	bindIntervalFlags(cmd, &o.intervals, demoIntervals, false)
 	bindAuditDateFlag(cmd, &o.date)
 	f.BoolVar(&o.parquet, "parquet", false, "write the cohort as "+demoParquetData+" (Parquet) instead of "+demoData)
@@ -100,6 +106,13 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	}
 	if err := checkWorkers(o.workers); err != nil {
 		return err
+	}
+	if o.model == 0 { // options made in code: the flag's default
+		o.model = 1
+	}
+	model, version, ok := synth.DemoModel(o.model)
+	if !ok {
+		return &usageError{fmt.Sprintf("--model must be 1 or 2, got %d", o.model)}
 	}
 	// The demo's spec has no intervals key: the flags decide.
 	o.intervals = o.intervals.allSet()
@@ -124,7 +137,9 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	defer line.clear()
 	line.show("gapwise: generating %d synthetic records ...", o.rows)
 	var csv bytes.Buffer
-	recs := synth.DefaultScenario().Generate(o.rows, o.seed)
+	sc := synth.DefaultScenario()
+	sc.Model = model
+	recs := sc.Generate(o.rows, o.seed)
 	table := synth.AnaemiaTable(recs)
 	if err := table.WriteCSV(&csv); err != nil {
 		return err
@@ -135,7 +150,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 			return err
 		}
 	}
-	inputs := []outFile{{data, cohort}, {demoSpec, synth.AnaemiaSpec(data)}}
+	inputs := []outFile{{data, cohort}, {demoSpec, synth.AnaemiaSpecVersion(data, version)}}
 	// Outputs of an earlier demo in a forced folder would not match the new
 	// cohort: they leave with the old inputs, so a failed audit leaves only
 	// the new inputs.

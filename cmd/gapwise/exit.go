@@ -4,6 +4,7 @@ import (
 	"errors"
 
 	"github.com/gapwise/gapwise/fairness"
+	"github.com/gapwise/gapwise/fairness/compare"
 )
 
 // Exit statuses.
@@ -29,7 +30,8 @@ func (e *runError) Unwrap() error { return e.err }
 
 // exitCode maps an error from executing the root command to an exit
 // status: errors from cobra's parsing, usage errors and input errors
-// (fairness.IsInputError, an output folder that is in the way) give 2, a
+// (fairness.IsInputError, a result file compare cannot read or compare,
+// an output folder that is in the way) give 2, a
 // result that breaches its policy 3, a
 // write stopped by a signal 128+n (the shell's status for signal n, used
 // only when the signal cannot be re-raised), everything else 1.
@@ -51,7 +53,8 @@ func exitCode(err error) int {
 	}
 	var ue *usageError
 	var oe *outDirError
-	if errors.As(err, &ue) || errors.As(err, &oe) || fairness.IsInputError(err) {
+	var ce *compare.Error
+	if errors.As(err, &ue) || errors.As(err, &oe) || errors.As(err, &ce) || fairness.IsInputError(err) {
 		return exitInput
 	}
 	return exitFailure

@@ -57,6 +57,10 @@ type Change struct {
 	BeforeCI *fairness.Interval `json:"before_ci,omitempty"`
 	AfterCI  *fairness.Interval `json:"after_ci,omitempty"`
 	ChangeCI *fairness.Interval `json:"change_ci,omitempty"`
+	// ExcludesZero is set when ChangeCI lies wholly above or below 0:
+	// the change is distinguished from sampling noise at the interval's
+	// level.
+	ExcludesZero bool `json:"excludes_zero,omitempty"`
 }
 
 // ContributionChange is the change of one mechanism's contribution.
@@ -162,6 +166,7 @@ func change(method string, b, a float64, bi, ai *fairness.Interval) Change {
 	c := Change{Before: b, After: a, Change: a - b, BeforeCI: bi, AfterCI: ai}
 	if method != "" {
 		c.ChangeCI = changeCI(method, b, a, bi, ai)
+		c.ExcludesZero = c.ChangeCI != nil && (c.ChangeCI.Low > 0 || c.ChangeCI.High < 0)
 	}
 	return c
 }

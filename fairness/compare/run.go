@@ -2,6 +2,7 @@ package compare
 
 import (
 	"path/filepath"
+	"strconv"
 
 	"github.com/gapwise/gapwise/fairness"
 )
@@ -49,38 +50,15 @@ func newRun(file string, r *fairness.Result) Run {
 }
 
 // distinctLabels makes the runs' labels distinct: a label that several
-// runs share gets the run's number, "name (2)"; when the model's version
-// is the same in all, the audit date or the file name is tried first.
+// runs share gets the run's number, "name (run 2)".
 func distinctLabels(runs []Run) {
 	count := map[string]int{}
 	for _, r := range runs {
 		count[r.Label]++
 	}
 	for i := range runs {
-		if count[runs[i].Label] < 2 {
-			continue
-		}
-		if runs[i].AuditDate != "" && runs[i].AuditDate != runs[i].Label {
-			runs[i].Label += ", " + runs[i].AuditDate
-		} else {
-			runs[i].Label += " (" + filepath.Base(runs[i].File) + ")"
-		}
-	}
-	count = map[string]int{}
-	for _, r := range runs {
-		count[r.Label]++
-	}
-	for i := range runs {
 		if count[runs[i].Label] > 1 {
-			runs[i].Label += " #" + itoa(i+1)
+			runs[i].Label += " (run " + strconv.Itoa(i+1) + ")"
 		}
 	}
-}
-
-func itoa(i int) string {
-	const digits = "0123456789"
-	if i < 10 {
-		return digits[i : i+1]
-	}
-	return itoa(i/10) + digits[i%10:i%10+1]
 }

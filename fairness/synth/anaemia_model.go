@@ -48,3 +48,27 @@ func (m ScreeningModel) Score(age, hb, mcv, rdw float64) float64 {
 		m.AgeWeight*(age-50)
 	return sigmoid(z)
 }
+
+// SecondScreeningModel is the demo's second model version (2.0), as if
+// retrained after an audit of version 1.0: the same form and
+// coefficients with the haemoglobin cut-off lowered to 12.5 g/dL, between
+// the WHO cut-offs for men (13) and non-pregnant women (12; WHO 2011, see
+// DefaultScenario). It flags fewer healthy women than version 1.0 and
+// misses more anaemic men. Invented, like the rest of the demo.
+func SecondScreeningModel() ScreeningModel {
+	m := DefaultScreeningModel()
+	m.HbCutoff = 12.5
+	return m
+}
+
+// DemoModel returns the screening model of the demo's model version 1 or
+// 2 and its version string ("1.0", "2.0"); ok is false for any other.
+func DemoModel(version int) (m ScreeningModel, name string, ok bool) {
+	switch version {
+	case 1:
+		return DefaultScreeningModel(), "1.0", true
+	case 2:
+		return SecondScreeningModel(), "2.0", true
+	}
+	return ScreeningModel{}, "", false
+}

@@ -13,7 +13,11 @@ import (
 // (GroupParams), and its model key names the invented screening model
 // that wrote the score; it has no audit_date, so the demo's outputs are
 // the same on any day.
-func AnaemiaSpec(dataFile string) []byte {
+func AnaemiaSpec(dataFile string) []byte { return AnaemiaSpecVersion(dataFile, "1.0") }
+
+// AnaemiaSpecVersion is AnaemiaSpec naming the model's version (DemoModel)
+// in its model key.
+func AnaemiaSpecVersion(dataFile, version string) []byte {
 	return []byte(`# Anaemia screening audit. SYNTHETIC DATA: invented by gapwise's demo
 # generator (package fairness/synth); it describes no real patients.
 title: Anaemia screening (synthetic demo)
@@ -48,7 +52,7 @@ names:
     mcv: {name: mean cell volume, unit: fL}
     rdw: {name: red-cell distribution width, unit: "%"}
     score: anaemia risk score
-model: {name: Demo anaemia screening model, version: "1.0"}
+model: {name: Demo anaemia screening model, version: "` + version + `"}
 `)
 }
 
