@@ -33,9 +33,8 @@ func newRun(file string, r *fairness.Result) Run {
 	run := Run{File: file, Model: r.Model, AuditDate: r.AuditDate, Score: r.Score, Threshold: r.Threshold,
 		DataSHA256: r.Inputs.DataSHA256, NReference: r.Groups.NReference, NComparison: r.Groups.NComparison,
 		Synthetic: r.Synthetic}
-	if iv := r.Settings.Intervals; iv != nil {
-		run.IntervalLevel = iv.Level
-	}
+	run.IntervalLevel = intervalLevel(r)
+
 	switch {
 	case r.Model != nil && r.Model.Name != "" && r.Model.Version != "":
 		run.Label = r.Model.Name + " " + r.Model.Version
@@ -47,6 +46,22 @@ func newRun(file string, r *fairness.Result) Run {
 		run.Label = filepath.Base(file)
 	}
 	return run
+}
+
+// intervalLevel is the level of r's intervals: the bootstrap's, or
+// without a bootstrap that of the robust estimator's Wald intervals,
+// which then are the metrics' intervals (MetricResult.Uncertainty); 0
+// when the run has none.
+func intervalLevel(r *fairness.Result) float64 {
+	if iv := r.Settings.Intervals; iv != nil {
+		return iv.Level
+	}
+	for _, m := range r.Metrics {
+		if m.Uncertainty != nil && m.GapCI != nil {
+			return m.Uncertainty.Level
+		}
+	}
+	return 0
 }
 
 // distinctLabels makes the runs' labels distinct: a label that several
