@@ -40,7 +40,7 @@ clinical or legal findings.`,
 		return fmt.Errorf("%w (see '%s --help')", err, c.CommandPath())
 	})
 	root.CompletionOptions.DisableDefaultCmd = true
-	root.AddCommand(newDecomposeCmd(stdout, stderr), newCheckCmd(stdout, stderr), newDemoCmd(stdout, stderr), newCompareCmd(stdout, stderr), newCompletionCmd(stdout))
+	root.AddCommand(newDecomposeCmd(stdout, stderr), newCheckCmd(stdout, stderr), newDemoCmd(stdout, stderr), newCompareCmd(stdout, stderr), newWeightsCmd(stdout, stderr), newCompletionCmd(stdout))
 	return root
 }
 
