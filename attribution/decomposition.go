@@ -38,6 +38,18 @@ type Options struct {
 	// Estimator chooses the estimator of the coalition values (see
 	// Estimator); EstimatorDefault means DefaultEstimator.
 	Estimator Estimator
+	// RobustPool, for studies, makes every step of the robust estimator
+	// pool both groups' records: the regression of group c's step also
+	// reads the other group's records, carried to c's mechanism by the
+	// step's own density ratio, and each correction (and the first term)
+	// is the effective-sample-size-weighted mean of the two groups'
+	// estimates (robust_pool.go). It lowers the error when the ratios are
+	// right, but the estimate is then neither multiply robust nor
+	// orthogonal to the ratios, so its influence-function intervals do not
+	// hold; by default (false) every step reads only the records of the
+	// group whose mechanism its node follows, as in Quintas-Martínez et
+	// al. (2024).
+	RobustPool bool
 	// Reads says which mechanisms the label and the score depend on, for
 	// the robust estimator (see NodeReads); the zero value means every
 	// mechanism for both.

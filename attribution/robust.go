@@ -87,6 +87,7 @@ type robustInput struct {
 	reads     NodeReads
 	workers   int
 	group     [2][]int // records of each group (0: reference, 1: comparison)
+	pool      bool     // Options.RobustPool
 	hooks     *robustHooks
 }
 
@@ -114,7 +115,7 @@ func newRobustInput(s *Sample, mechs []Mechanism, logr [][]float64, folds []int,
 	}
 	in := &robustInput{x: x, cmp: s.Comparison, folds: folds, k: k, logr: logr, y: s.Labels, s: s.Scores,
 		threshold: opt.Threshold, bins: opt.ECEBins, mechs: mechs, graph: g, reads: opt.Reads,
-		workers: workers.Count(opt.Workers), hooks: opt.robustHooks}
+		workers: workers.Count(opt.Workers), hooks: opt.robustHooks, pool: opt.RobustPool}
 	for i, c := range s.Comparison {
 		gi := 0
 		if c {
@@ -152,12 +153,12 @@ type treeNode struct {
 	learner []int         // [term] chosen learner
 }
 
-// robustLeaf is the estimate of one relevant coalition.
+// robustLeaf is the estimate of one relevant coalition: θ̂ per term, and
+// per step (step 0: the first term) the weighted parts it averages
+// (robust_pool.go).
 type robustLeaf struct {
-	theta []float64   // [term] θ̂
-	first []float64   // [term] mean of μ̂_2 over group c_{k_1}
-	corr  [][]float64 // [step][term] the step's correction (step ≥ 1)
-	w     []*weightMoments
+	theta []float64    // [term] θ̂
+	parts [][]leafPart // [step] one part, or with pooling one per group
 }
 
 // leafKey returns the leaf of coalition S (bit i: mechanism i in its
@@ -303,7 +304,7 @@ func (fam *robustFamily) fitNode(in *robustInput, r, g int, up [][][]float64, ke
 		}
 		for j := 0; j < in.k; j++ {
 			b := up[t][j]
-			xz := mulVec(trainSum(m.K, j, g), m.d, b)
+			xz := mulVec(m.trainCross(j, g), m.d, b)
 			held := quad(b, hNext[j][g], b)
 			for l := 0; l < numRegLearners; l++ {
 				beta := sv.solve(j, g, l, xz)
@@ -330,42 +331,4 @@ func (fam *robustFamily) fitNode(in *robustInput, r, g int, up [][][]float64, ke
 		fam.chosen[r][best]++
 	}
 	return node, nil
-}
-
-// leaf computes θ̂ of the relevant coalition key (bit r: the group of step
-// r) from the coefficients on its path:
-//
-//	θ̂ = Σ_j S_1[j]·β_{1,j} / n_{c_1} + Σ_{r≥1} Σ_j (W_{r+1,j}·β_{r+1,j} − W_{r,j}·β_{r,j}) / Σω_r,
-//
-// S_1[j] the design sums of step 1 over fold j's records of group c_1
-// (the top's sums of f when R = 1) and W the ω_r-weighted design sums
-// (weightMoments).
-func (fam *robustFamily) leaf(in *robustInput, key int, path [][][][]float64) {
-	R := len(fam.chain.steps)
-	T := len(fam.terms)
-	lf := robustLeaf{theta: make([]float64, T), first: make([]float64, T), corr: make([][]float64, R), w: make([]*weightMoments, R)}
-	g0 := key & 1
-	first := fam.unitMoments(in, g0)
-	for t := 0; t < T; t++ {
-		var s float64
-		for j := 0; j < in.k; j++ {
-			s += dot(first.cur[j], path[1][t][j])
-		}
-		lf.first[t] = s / float64(len(in.group[g0]))
-		lf.theta[t] = lf.first[t]
-	}
-	for r := 1; r < R; r++ {
-		wm := fam.weighted(in, key, r)
-		lf.w[r] = wm
-		lf.corr[r] = make([]float64, T)
-		for t := 0; t < T; t++ {
-			var s float64
-			for j := 0; j < in.k; j++ {
-				s += dot(wm.next[j], path[r+1][t][j]) - dot(wm.cur[j], path[r][t][j])
-			}
-			lf.corr[r][t] = s / wm.sum
-			lf.theta[t] += lf.corr[r][t]
-		}
-	}
-	fam.leaves[key] = lf
 }

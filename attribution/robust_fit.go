@@ -39,12 +39,14 @@ type stepSolver struct {
 	fac  [][2][numRegLearners]*mat.Cholesky // nil where factorisation failed
 }
 
-// newStepSolver factorises the training Gram matrices of moments m.
+// newStepSolver factorises the training Gram matrices of moments m; with
+// pooling, group g's regression also reads the other group's records
+// carried to g's mechanism (trainGram).
 func newStepSolver(m *stepMoments, nLin, folds int) *stepSolver {
 	sv := &stepSolver{nLin: nLin, fac: make([][2][numRegLearners]*mat.Cholesky, folds)}
 	for j := 0; j < folds; j++ {
 		for g := 0; g < 2; g++ {
-			H := trainSum(m.H, j, g)
+			H := m.trainGram(j, g)
 			for l, size := range [numRegLearners]int{nLin, m.d} {
 				sym := mat.NewSymDense(size, nil)
 				for p := 0; p < size; p++ {
@@ -86,4 +88,28 @@ func (sv *stepSolver) solve(j, g, l int, xz []float64) []float64 {
 	out := make([]float64, len(xz))
 	copy(out, beta.RawVector().Data)
 	return out
+}
+
+// trainGram returns the Gram matrix of group g's regression on fold j's
+// training records: Σ x xᵀ over group g, plus, with pooling, Σ ρ x xᵀ
+// over the other group (its records carried to g's mechanism).
+func (m *stepMoments) trainGram(j, g int) []float64 {
+	H := trainSum(m.H, j, g)
+	if m.HR != nil {
+		for p, v := range trainSum(m.HR, j, 1-g) {
+			H[p] += v
+		}
+	}
+	return H
+}
+
+// trainCross is trainGram for the cross moments K.
+func (m *stepMoments) trainCross(j, g int) []float64 {
+	K := trainSum(m.K, j, g)
+	if m.KR != nil {
+		for p, v := range trainSum(m.KR, j, 1-g) {
+			K[p] += v
+		}
+	}
+	return K
 }

@@ -124,9 +124,10 @@ func (fam *robustFamily) blockInfluence(in *robustInput, lo, hi int) [][][]float
 }
 
 // leafInfluence returns ψ_S[term][a] of leaf key at records lo … hi−1
-// from the path's predictions pred[r][term][a] (pred[R]: the terms).
+// from the path's predictions pred[r][term][a] (pred[R]: the terms): for
+// each step and each of its parts, the part's share times the centred,
+// normalised weighted summand of a record of the part's group.
 func (fam *robustFamily) leafInfluence(in *robustInput, key, lo, hi int, pred [][][]float64) [][]float64 {
-	R := len(fam.chain.steps)
 	T := len(fam.terms)
 	lf := &fam.leaves[key]
 	out := zeros(T, hi-lo)
@@ -137,19 +138,25 @@ func (fam *robustFamily) leafInfluence(in *robustInput, key, lo, hi int, pred []
 			g = 1
 		}
 		ng := float64(len(in.group[g]))
-		if key&1 == g {
-			for t := 0; t < T; t++ {
-				out[t][a] += (pred[1][t][a] - lf.first[t]) / ng
-			}
-		}
-		for r := 1; r < R; r++ {
-			if key>>r&1 != g {
-				continue
-			}
-			wm := lf.w[r]
-			w := math.Exp(in.logWeight(wm.cfg, i)-wm.logScale) / (wm.sum / float64(wm.n))
-			for t := 0; t < T; t++ {
-				out[t][a] += w * (pred[r+1][t][a] - pred[r][t][a] - lf.corr[r][t]) / ng
+		for r, parts := range lf.parts {
+			for _, p := range parts {
+				wm := p.w
+				if wm.cfg.g != g {
+					continue
+				}
+				w := 1.0
+				if wm.cfg.mask != 0 {
+					w = math.Exp(in.logWeight(wm.cfg, i)-wm.logScale) / (wm.sum / float64(wm.n))
+				}
+				for t := 0; t < T; t++ {
+					var d float64
+					if r == 0 {
+						d = pred[1][t][a]
+					} else {
+						d = pred[r+1][t][a] - pred[r][t][a]
+					}
+					out[t][a] += p.share * w * (d - p.mean[t]) / ng
+				}
 			}
 		}
 	}

@@ -1,6 +1,8 @@
 package attribution
 
 import (
+	"math"
+
 	"gonum.org/v1/gonum/blas/blas64"
 )
 
@@ -22,9 +24,16 @@ import (
 //	S = Σ x_r            (d_r)
 //
 // The training sums of fold j are those over the other folds.
+//
+// With pooling (Options.RobustPool) it also holds HR and KR, the same
+// sums weighted by ρ(i) = P_c(x_k | pa_k)/P_g(x_k | pa_k), the ratio of
+// the step's own mechanism k that carries a record of group g to the other
+// group c's mechanism (r_k for reference records, 1/r_k for comparison
+// ones).
 type stepMoments struct {
 	d, dNext int
 	H, K, S  [][2][]float64
+	HR, KR   [][2][]float64
 }
 
 // stepDesign evaluates the design rows of step r of a family (1 ≤ r ≤ R; r =
@@ -84,6 +93,17 @@ func (fam *robustFamily) momentsOf(in *robustInput, r int) *stepMoments {
 			m.S[j][g] = make([]float64, m.d)
 		}
 	}
+	if in.pool {
+		m.HR = make([][2][]float64, in.k)
+		m.KR = make([][2][]float64, in.k)
+		for j := 0; j < in.k; j++ {
+			for g := 0; g < 2; g++ {
+				m.HR[j][g] = make([]float64, m.d*m.d)
+				m.KR[j][g] = make([]float64, m.d*m.dNext)
+			}
+		}
+	}
+	mech := fam.chain.steps[r].mech
 	x, xn := make([]float64, m.d), make([]float64, m.dNext)
 	for i := range in.y {
 		g := 0
@@ -93,33 +113,61 @@ func (fam *robustFamily) momentsOf(in *robustInput, r int) *stepMoments {
 		j := in.folds[i]
 		cur.row(i, x)
 		next.row(i, xn)
-		H, K, S := m.H[j][g], m.K[j][g], m.S[j][g]
 		for p, xp := range x {
-			S[p] += xp
-			if xp == 0 {
-				continue
-			}
-			h := H[p*m.d:]
-			for q := p; q < m.d; q++ {
-				h[q] += xp * x[q]
-			}
-			kr := K[p*m.dNext:]
-			for q, v := range xn {
-				kr[q] += xp * v
-			}
+			m.S[j][g][p] += xp
+		}
+		addOuter(m.H[j][g], m.K[j][g], x, xn, 1)
+		if in.pool {
+			addOuter(m.HR[j][g], m.KR[j][g], x, xn, in.carry(mech, g, i))
 		}
 	}
 	for j := range m.H {
 		for g := range m.H[j] {
-			H := m.H[j][g]
-			for p := 0; p < m.d; p++ {
-				for q := 0; q < p; q++ {
-					H[p*m.d+q] = H[q*m.d+p]
-				}
+			symmetrise(m.H[j][g], m.d)
+			if in.pool {
+				symmetrise(m.HR[j][g], m.d)
 			}
 		}
 	}
 	return m
+}
+
+// carry returns ρ(i), the ratio of mechanism k that carries record i of
+// group g to the other group's mechanism: r_k(i) for a reference record,
+// 1/r_k(i) for a comparison one.
+func (in *robustInput) carry(k, g, i int) float64 {
+	if g == 1 {
+		return math.Exp(-in.logr[k][i])
+	}
+	return math.Exp(in.logr[k][i])
+}
+
+// addOuter adds w·x xᵀ to the upper triangle of H and w·x xnᵀ to K.
+func addOuter(H, K, x, xn []float64, w float64) {
+	d, dn := len(x), len(xn)
+	for p, xp := range x {
+		if xp == 0 {
+			continue
+		}
+		wx := w * xp
+		h := H[p*d:]
+		for q := p; q < d; q++ {
+			h[q] += wx * x[q]
+		}
+		kr := K[p*dn:]
+		for q, v := range xn {
+			kr[q] += wx * v
+		}
+	}
+}
+
+// symmetrise copies the upper triangle of the d × d matrix H below.
+func symmetrise(H []float64, d int) {
+	for p := 0; p < d; p++ {
+		for q := 0; q < p; q++ {
+			H[p*d+q] = H[q*d+p]
+		}
+	}
 }
 
 // topGram returns, per fold and group, Σ f fᵀ over the terms (T × T):

@@ -50,12 +50,24 @@ func chainSample(n int) (*Sample, []Mechanism, [][]float64) {
 // fitted regression is the least-squares fit of its response at its
 // training rows, and every leaf's θ̂ is mean_{c_1} μ̂_2 + Σ_r Σ ω_r·(μ̂_{r+1}
 // − μ̂_r)/Σ ω_r from cross-fitted predictions. Source: the definitions in
-// robust.go (a check of the implementation, not of the method).
+// robust.go and robust_pool.go (a check of the implementation, not of the
+// method).
 func TestRobustMomentsMatchDirectSums(t *testing.T) {
+	for _, pool := range []bool{false, true} {
+		t.Run(map[bool]string{false: "own group", true: "pooled"}[pool], func(t *testing.T) { checkMomentsDirect(t, pool) })
+	}
+}
+
+// checkMomentsDirect is TestRobustMomentsMatchDirectSums with or without
+// pooling: with it, each regression also reads the other group's
+// training records weighted by the step's carrying ratio, and each step
+// averages both groups' weighted means with shares proportional to their
+// effective sample sizes.
+func checkMomentsDirect(t *testing.T, pool bool) {
 	const n, k = 600, 3
 	s, mechs, logr := chainSample(n)
 	folds := assignFolds(s.Comparison, k, 5)
-	in, err := newRobustInput(s, mechs, logr, folds, k, Options{Threshold: 0.5, ECEBins: 10, Workers: 2})
+	in, err := newRobustInput(s, mechs, logr, folds, k, Options{Threshold: 0.5, ECEBins: 10, Workers: 2, RobustPool: pool})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -94,15 +106,23 @@ func TestRobustMomentsMatchDirectSums(t *testing.T) {
 						bv := mat.NewVecDense(size, nil)
 						x := make([]float64, d)
 						for i := range s.Labels {
-							if folds[i] == j || in.cmp[i] != (g == 1) {
+							h := 0
+							if in.cmp[i] {
+								h = 1
+							}
+							if folds[i] == j || (h != g && !pool) {
 								continue
+							}
+							w := 1.0
+							if h != g {
+								w = in.carry(fam.chain.steps[r].mech, h, i)
 							}
 							ds.row(i, x)
 							z := predict(r+1, key>>1, tm, j, i)
 							for p := 0; p < size; p++ {
-								bv.SetVec(p, bv.AtVec(p)+x[p]*z)
+								bv.SetVec(p, bv.AtVec(p)+w*x[p]*z)
 								for q := 0; q < size; q++ {
-									A.Set(p, q, A.At(p, q)+x[p]*x[q])
+									A.Set(p, q, A.At(p, q)+w*x[p]*x[q])
 								}
 							}
 						}
@@ -125,20 +145,30 @@ func TestRobustMomentsMatchDirectSums(t *testing.T) {
 		}
 		for key := range fam.leaves {
 			for tm := 0; tm < T; tm++ {
-				g0 := key & 1
 				var theta float64
-				for _, i := range in.group[g0] {
-					theta += predict(1, key>>1, tm, folds[i], i) / float64(len(in.group[g0]))
-				}
-				for r := 1; r < R; r++ {
-					c := fam.configOf(key, r)
-					var num, den float64
-					for _, i := range in.group[c.g] {
-						w := math.Exp(in.logWeight(c, i))
-						num += w * (predict(r+1, key>>(r+1), tm, folds[i], i) - predict(r, key>>r, tm, folds[i], i))
-						den += w
+				for r := 0; r < R; r++ {
+					var means, ess []float64
+					for _, c := range fam.leafConfigs(in, key, r) {
+						var num, den, den2 float64
+						for _, i := range in.group[c.g] {
+							w := math.Exp(in.logWeight(c, i))
+							d := predict(1, key>>1, tm, folds[i], i)
+							if r > 0 {
+								d = predict(r+1, key>>(r+1), tm, folds[i], i) - predict(r, key>>r, tm, folds[i], i)
+							}
+							num += w * d
+							den += w
+							den2 += w * w
+						}
+						means, ess = append(means, num/den), append(ess, den*den/den2)
 					}
-					theta += num / den
+					var e float64
+					for _, x := range ess {
+						e += x
+					}
+					for c := range means {
+						theta += ess[c] / e * means[c]
+					}
 				}
 				if got := fam.leaves[key].theta[tm]; math.Abs(got-theta) > 1e-10 {
 					t.Errorf("leaf %b term %v: θ̂ = %.12f, direct sums %.12f", key, fam.terms[tm].id, got, theta)

@@ -23,11 +23,11 @@ type weightConfig struct {
 // its largest value is 1 (the estimator is a ratio in ω, so the scale
 // cancels).
 type weightMoments struct {
-	cfg       weightConfig
-	cur, next [][]float64
-	sum       float64
-	logScale  float64
-	n         int // records of the group
+	cfg        weightConfig
+	cur, next  [][]float64 // next is nil for the first term (r = 0)
+	sum, sumSq float64
+	logScale   float64
+	n          int // records of the group
 }
 
 // configOf returns the weightConfig of step r (r ≥ 1) under leaf key.
@@ -49,11 +49,12 @@ func (fam *robustFamily) prepareWeights(in *robustInput) {
 	seen := map[weightConfig]bool{}
 	var cfgs []weightConfig
 	for key := 0; key < 1<<R; key++ {
-		for r := 1; r < R; r++ {
-			c := fam.configOf(key, r)
-			if !seen[c] {
-				seen[c] = true
-				cfgs = append(cfgs, c)
+		for r := 0; r < R; r++ {
+			for _, c := range fam.leafConfigs(in, key, r) {
+				if !seen[c] && !(c.r == 0 && c.mask == 0) {
+					seen[c] = true
+					cfgs = append(cfgs, c)
+				}
 			}
 		}
 	}
@@ -113,24 +114,41 @@ func (fam *robustFamily) weightMomentsOf(in *robustInput, c weightConfig) *weigh
 	if math.IsInf(scale, -1) {
 		scale = 0
 	}
-	cur, next := fam.design(in, c.r), fam.design(in, c.r+1)
-	wm := &weightMoments{cfg: c, logScale: scale, n: len(recs), cur: make([][]float64, in.k), next: make([][]float64, in.k)}
+	// The first term (r = 0) averages step 1's fit; a correction the
+	// difference of steps r+1 and r.
+	cur := fam.design(in, max(c.r, 1))
+	var next *stepDesign
+	wm := &weightMoments{cfg: c, logScale: scale, n: len(recs), cur: make([][]float64, in.k)}
+	if c.r > 0 {
+		next = fam.design(in, c.r+1)
+		wm.next = make([][]float64, in.k)
+	}
 	for j := range wm.cur {
 		wm.cur[j] = make([]float64, cur.width())
-		wm.next[j] = make([]float64, next.width())
+		if next != nil {
+			wm.next[j] = make([]float64, next.width())
+		}
 	}
-	x, xn := make([]float64, cur.width()), make([]float64, next.width())
+	x := make([]float64, cur.width())
+	var xn []float64
+	if next != nil {
+		xn = make([]float64, next.width())
+	}
 	for a, i := range recs {
 		w := math.Exp(logw[a] - scale)
 		wm.sum += w
+		wm.sumSq += w * w
 		cur.row(i, x)
-		next.row(i, xn)
-		cj, nj := wm.cur[in.folds[i]], wm.next[in.folds[i]]
+		cj := wm.cur[in.folds[i]]
 		for p, v := range x {
 			cj[p] += w * v
 		}
-		for p, v := range xn {
-			nj[p] += w * v
+		if next != nil {
+			next.row(i, xn)
+			nj := wm.next[in.folds[i]]
+			for p, v := range xn {
+				nj[p] += w * v
+			}
 		}
 	}
 	return wm
@@ -157,7 +175,7 @@ func (fam *robustFamily) unitMoments(in *robustInput, g int) *weightMoments {
 			cj[p] += v
 		}
 	}
-	wm.sum = float64(wm.n)
+	wm.sum, wm.sumSq = float64(wm.n), float64(wm.n)
 	fam.configs[c] = wm
 	return wm
 }

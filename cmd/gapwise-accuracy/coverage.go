@@ -29,6 +29,12 @@ const (
 	methodRefit = "refit" // bootstrap refitting the classifiers in every replicate
 	methodFast  = "fast"  // bootstrap keeping the fitted log-ratios
 	methodDelta = "delta" // delta-method Wald intervals, fitted log-ratios held fixed
+	// methodInfluence: the robust estimator's Wald intervals from its
+	// influence function (attribution.EstimatorRobust, Influence).
+	methodInfluence = "influence"
+	// methodRobustRefit: bootstrap of the robust estimator refitting the
+	// classifiers and regressions in every replicate.
+	methodRobustRefit = "robust-refit"
 )
 
 // groupSizes are the records of the two groups of one row of the study.
@@ -55,6 +61,8 @@ func (f coverageForm) String() string {
 	switch f.method {
 	case methodDelta:
 		return "delta, ratios fixed"
+	case methodInfluence:
+		return "robust, influence function"
 	}
 	shape := "percentile"
 	if f.normal {
@@ -70,7 +78,7 @@ func (f coverageForm) String() string {
 func coverageForms(opt options) []coverageForm {
 	var out []coverageForm
 	for _, m := range opt.methods {
-		if m == methodDelta {
+		if m == methodDelta || m == methodInfluence {
 			continue
 		}
 		counts := []int{opt.boot}
@@ -84,8 +92,8 @@ func coverageForms(opt options) []coverageForm {
 		}
 	}
 	for _, m := range opt.methods {
-		if m == methodDelta {
-			out = append(out, coverageForm{method: methodDelta})
+		if m == methodDelta || m == methodInfluence {
+			out = append(out, coverageForm{method: m})
 		}
 	}
 	return out
@@ -275,7 +283,7 @@ func runCoverage(opt options, stdout, stderr io.Writer) error {
 					return
 				}
 				opt.onScale(s)
-				aopt := attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Workers: 1}
+				aopt := attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Workers: 1, Reads: c.Model.Reads()}
 				draws[d] = coverageIntervals(s, mechs, opt, aopt, forms)
 			})
 			cl := tallyCoverage(c.Name, c.Hard, size, nodes, forms, truth, draws)
@@ -308,8 +316,22 @@ func coverageIntervals(s *attribution.Sample, mechs []attribution.Mechanism, opt
 		if method == methodDelta {
 			continue
 		}
+		if method == methodInfluence {
+			o := aopt
+			o.Estimator = attribution.EstimatorRobust
+			dec, err := attribution.Decompose(s, mechs, opt.metrics, o)
+			if err != nil {
+				return drawIntervals{err: err}
+			}
+			point[method] = dec
+			continue
+		}
+		bopt := aopt
+		if method == methodRobustRefit {
+			bopt.Estimator = attribution.EstimatorRobust
+		}
 		r := make([][][]float64, opt.boot)
-		dec, sum, err := attribution.DecomposeWithIntervals(s, mechs, opt.metrics, aopt, attribution.BootstrapOptions{
+		dec, sum, err := attribution.DecomposeWithIntervals(s, mechs, opt.metrics, bopt, attribution.BootstrapOptions{
 			Intervals: attribution.Intervals{Replicates: opt.boot, Level: coverageLevel, KeepRatios: method == methodFast},
 			Replicate: func(b int, md []attribution.MetricDecomposition) { r[b] = quantities(md) },
 		})
@@ -351,6 +373,9 @@ func quantities(md []attribution.MetricDecomposition) [][]float64 {
 // f.replicates replicates reps (failed ones left out) around the point
 // estimate boot of that method.
 func formIntervals(f coverageForm, dec, boot *attribution.Decomposition, reps [][][]float64) ([][]attribution.Interval, error) {
+	if f.method == methodInfluence {
+		return influenceIntervals(boot)
+	}
 	if f.method == methodDelta {
 		out := make([][]attribution.Interval, len(dec.Metrics))
 		for m, md := range dec.Metrics {
@@ -516,4 +541,23 @@ func caseLabel(c coverageCell) string {
 		return c.caseName + " (hard)"
 	}
 	return c.caseName
+}
+
+// influenceIntervals returns, per metric and quantity (the gap, then the
+// contributions), the Wald intervals of the robust estimate dec with its
+// influence-function standard errors.
+func influenceIntervals(dec *attribution.Decomposition) ([][]attribution.Interval, error) {
+	out := make([][]attribution.Interval, len(dec.Metrics))
+	for m, md := range dec.Metrics {
+		se := md.Influence
+		if se == nil || md.Estimator != attribution.EstimatorRobust {
+			return nil, fmt.Errorf("metric %s: no robust influence-function standard errors", md.Metric)
+		}
+		est := append([]float64{md.Gap}, md.Contributions...)
+		sds := append([]float64{se.Gap}, se.Contributions...)
+		for q := range est {
+			out[m] = append(out[m], attribution.WaldInterval(est[q], sds[q], coverageLevel))
+		}
+	}
+	return out, nil
 }

@@ -33,7 +33,7 @@ type options struct {
 	learners []string // learner choices: linear, expanded, boosted, auto
 	// estimators are the coalition-value estimators compared
 	// (attribution.Estimator names; weighting or robust).
-	estimators []attribution.Estimator
+	estimators []valueEstimator
 	cases      []string // case names; empty means all
 	metrics    []string
 	seed       uint64
@@ -109,7 +109,7 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	reps := fs.Int("reps", 3, "replicate samples per case, learner and size")
 	truthN := fs.Int("truth-n", 1<<20, "records per hybrid distribution in the ground-truth simulation")
 	learners := fs.String("learners", "linear,expanded,boosted,auto", "comma-separated classifier choices (auto = all three, picked per mechanism by out-of-fold log loss)")
-	estimators := fs.String("estimators", "weighting", "comma-separated estimators of the coalition values: weighting, robust")
+	estimators := fs.String("estimators", "weighting", "comma-separated estimators of the coalition values: weighting, robust, robust-pooled (both groups' records at every step; a study option)")
 	cases := fs.String("cases", "", "comma-separated case names (default all)")
 	metricList := fs.String("metrics", strings.Join([]string{metrics.NameFNR, metrics.NameFPR, metrics.NameCalibrationInTheLarge, metrics.NameBrier}, ","), "comma-separated metrics")
 	seed := fs.Uint64("seed", 1, "seed of the samples and the ground-truth simulation")
@@ -124,7 +124,7 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	splits := fs.Bool("splits", false, "measure how much the contributions move with the seed for each -fold-splits value (default sizes "+strconv.Itoa(splitsSize)+", cases "+strings.Join(splitsCases, ",")+"; first -learners choice)")
 	seeds := fs.Int("seeds", 10, "seeds per row with -splits")
 	foldSplits := fs.String("fold-splits", "1,0", "comma-separated fold splits R compared with -splits (0: the default for the size)")
-	methods := fs.String("methods", strings.Join([]string{methodRefit, methodFast, methodDelta}, ","), "with -coverage: interval methods compared (refit: bootstrap refitting the classifiers, fast: bootstrap keeping the fitted ratios, delta: Wald intervals with the ratios held fixed)")
+	methods := fs.String("methods", strings.Join([]string{methodRefit, methodFast, methodDelta}, ","), "with -coverage: interval methods compared (refit: bootstrap refitting the classifiers, fast: bootstrap keeping the fitted ratios, delta: Wald intervals with the ratios held fixed; influence: the robust estimator's influence-function Wald intervals, robust-refit: bootstrap of the robust estimator refitting everything)")
 	subs := fs.String("subs", "50", "with -coverage: also form each bootstrap method's intervals from its first S replicates, for each comma-separated S below -boot")
 	scale := fs.String("scale", scaleLogit, "how probability-valued columns (the score-node case's score) enter the learners: logit (clipped, the engine's way) or raw")
 	if err := fs.Parse(args); err != nil {
@@ -180,8 +180,8 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 		opt.pairs = nil
 	}
 	for _, m := range split(*methods) {
-		if m != methodRefit && m != methodFast && m != methodDelta {
-			err := fmt.Errorf("-methods: %q is not refit, fast or delta", m)
+		if m != methodRefit && m != methodFast && m != methodDelta && m != methodInfluence && m != methodRobustRefit {
+			err := fmt.Errorf("-methods: %q is not refit, fast, delta, influence or robust-refit", m)
 			fmt.Fprintln(stderr, err)
 			return options{}, err
 		}
@@ -205,9 +205,8 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 		opt.mix = x
 	}
 	for _, name := range split(*estimators) {
-		e, err := attribution.ParseEstimator(name)
-		if err != nil || e == attribution.EstimatorBoth {
-			err = fmt.Errorf("-estimators: %q is not weighting or robust", name)
+		e, err := parseValueEstimator(name)
+		if err != nil {
 			fmt.Fprintln(stderr, err)
 			return options{}, err
 		}

@@ -16,7 +16,7 @@ import (
 // absolute errors |φ̂ − φ| of every metric, mechanism and replicate.
 type cell struct {
 	caseName, learner string
-	estimator         attribution.Estimator
+	estimator         valueEstimator
 	size              int
 	hard              bool
 	// errs[m][i][r] = φ̂ − φ for metric m, mechanism i, replicate r.
@@ -71,7 +71,7 @@ func run(opt options, stdout, stderr io.Writer) error {
 						}
 						opt.onScale(s)
 						start := time.Now()
-						d, err := attribution.Decompose(s, mechs, opt.metrics, attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Estimator: est, Reads: c.Model.Reads()})
+						d, err := attribution.Decompose(s, mechs, opt.metrics, est.apply(attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Reads: c.Model.Reads()}))
 						if err != nil {
 							return fmt.Errorf("case %s, learner %s, n %d: %w", c.Name, choice, n, err)
 						}

@@ -6,7 +6,6 @@ import (
 	"math"
 	"strings"
 
-	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/internal/scm"
 )
 
@@ -149,16 +148,16 @@ func writeEstimators(w io.Writer, opt options, cells []cell) {
 	fmt.Fprint(w, "\n")
 	for _, choice := range opt.learners {
 		for _, n := range opt.sizes {
-			byCase := map[string]map[attribution.Estimator]*cell{}
+			byCase := map[string]map[valueEstimator]*cell{}
 			var order []string
-			pooled := map[attribution.Estimator][]cell{}
+			pooled := map[valueEstimator][]cell{}
 			for i := range cells {
 				c := &cells[i]
 				if c.learner != choice || c.size != n || c.hard {
 					continue
 				}
 				if byCase[c.caseName] == nil {
-					byCase[c.caseName] = map[attribution.Estimator]*cell{}
+					byCase[c.caseName] = map[valueEstimator]*cell{}
 					order = append(order, c.caseName)
 				}
 				byCase[c.caseName][c.estimator] = c
