@@ -71,6 +71,7 @@ const checksSize = 2000
 type checkDraw struct {
 	kinds  []fairness.WarningKind // distinct kinds of warning that fired
 	maxZ   float64                // largest SideAgreement.MaxZ over metrics
+	estZ   float64                // largest EstimatorCheck.MaxZ over metrics (−Inf without one)
 	maxErr float64                // max |φ̂ − φ| over metrics and kept mechanisms
 	null   float64                // max |φ̂| over the null mechanisms kept
 	resid  float64                // max |residual| over metrics
@@ -79,7 +80,7 @@ type checkDraw struct {
 
 // checkKinds are the warning kinds the checks table has a column for, in
 // that order; the others are pooled in "other".
-var checkKinds = []fairness.WarningKind{fairness.KindSidesDisagree, fairness.KindLargeResidual,
+var checkKinds = []fairness.WarningKind{fairness.KindSidesDisagree, fairness.KindEstimatorsDisagree, fairness.KindLargeResidual,
 	fairness.KindMeanRatioOff, fairness.KindStratumRatioOff, fairness.KindLowEffectiveRecords, fairness.KindHeavyTail, fairness.KindMetricRecords}
 
 // runChecks measures how often each warning fires on clean draws (false
@@ -149,11 +150,12 @@ func checkOne(opt options, c scm.Case, su checkSetup, truth []scm.Truth, learner
 	for a, i := range keep {
 		kept[a] = mechs[i]
 	}
-	d, err := attribution.Decompose(s, kept, opt.metrics, attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Workers: 1, Mix: opt.mix})
+	aopt := attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Workers: 1, Mix: opt.mix, Reads: keptReads(c.Model.Reads(), keep)}
+	d, err := attribution.Decompose(s, kept, opt.metrics, opt.firstEstimator().apply(aopt))
 	if err != nil {
 		return checkDraw{err: err}
 	}
-	out := checkDraw{maxZ: math.Inf(-1)}
+	out := checkDraw{maxZ: math.Inf(-1), estZ: math.Inf(-1)}
 	for _, w := range fairness.WarningsOf(d, n, n) {
 		if !slices.Contains(out.kinds, w.Kind) {
 			out.kinds = append(out.kinds, w.Kind)
@@ -162,6 +164,9 @@ func checkOne(opt options, c scm.Case, su checkSetup, truth []scm.Truth, learner
 	for m, md := range d.Metrics {
 		if a := md.Agreement; a != nil && !math.IsNaN(a.MaxZ) {
 			out.maxZ = math.Max(out.maxZ, a.MaxZ)
+		}
+		if ck := md.CrossCheck; ck != nil && !math.IsNaN(ck.MaxZ) {
+			out.estZ = math.Max(out.estZ, ck.MaxZ)
 		}
 		out.resid = math.Max(out.resid, math.Abs(md.Residual))
 		for a, i := range keep {
@@ -242,7 +247,8 @@ func (r checkRow) quantiles(f func(checkDraw) float64, qs ...float64) []float64 
 func (r checkRow) summary() string {
 	z := r.quantiles(func(d checkDraw) float64 { return d.maxZ }, 0.5, 0.95)
 	_, failed := r.ok()
-	return fmt.Sprintf("sides_disagree %s, large_residual %s, median max z %.2f, 95%% %.2f, failed %d", r.fired(fairness.KindSidesDisagree), r.fired(fairness.KindLargeResidual), z[0], z[1], failed)
+	ez := r.quantiles(func(d checkDraw) float64 { return d.estZ }, 0.5, 0.95)
+	return fmt.Sprintf("sides_disagree %s, estimators_disagree %s, large_residual %s, median max z %.2f, 95%% %.2f, estimators z %.2f / %.2f, failed %d", r.fired(fairness.KindSidesDisagree), r.fired(fairness.KindEstimatorsDisagree), r.fired(fairness.KindLargeResidual), z[0], z[1], ez[0], ez[1], failed)
 }
 
 // writeChecks prints the checks table and the distribution of the largest
@@ -276,7 +282,41 @@ func writeChecks(w io.Writer, opt options, rows []checkRow) {
 		z := r.quantiles(func(d checkDraw) float64 { return d.maxZ }, 0.5, 0.95, 1)
 		fmt.Fprintf(w, " %s | %s | %.4f | %.4f | %.4f | %.1f / %.1f / %.1f |\n", r.fired("other"), r.fired(""), errs[0], nulls[0], res[0], z[0], z[1], z[2])
 	}
-	writeZCalibration(w, opt, rows)
+	writeZCalibration(w, opt, rows, "the sides", func(d checkDraw) float64 { return d.maxZ })
+	if opt.firstEstimator().est != attribution.EstimatorWeighting {
+		writeZCalibration(w, opt, rows, "the robust and the weighting estimates", func(d checkDraw) float64 { return d.estZ })
+	}
+}
+
+// keptReads maps the nodes the label and score read (mechanism indices of
+// the full model) to those of the mechanisms kept (keep[a] = full index):
+// the score's reads become unknown (nil) when a node it reads was left
+// out, as fairness does for a model input outside the graph.
+func keptReads(r attribution.NodeReads, keep []int) attribution.NodeReads {
+	at := map[int]int{}
+	for a, i := range keep {
+		at[i] = a
+	}
+	mapAll := func(xs []int) ([]int, bool) {
+		if xs == nil {
+			return nil, true
+		}
+		var out []int
+		for _, i := range xs {
+			a, ok := at[i]
+			if !ok {
+				return nil, false
+			}
+			out = append(out, a)
+		}
+		return out, true
+	}
+	var out attribution.NodeReads
+	out.Label, _ = mapAll(r.Label)
+	if s, ok := mapAll(r.Score); ok {
+		out.Score = s
+	}
+	return out
 }
 
 // zThresholds are the candidate thresholds of the sides_disagree check
@@ -286,8 +326,8 @@ var zThresholds = []float64{3, 3.5, 4, 5, 6, 8}
 // writeZCalibration prints, per kind of setup and size, the share of draws
 // whose largest disagreement z exceeds each candidate threshold: the false
 // alarm rate on clean setups, the detection rate on broken ones.
-func writeZCalibration(w io.Writer, opt options, rows []checkRow) {
-	fmt.Fprint(w, "\nShare of draws whose largest |difference|/SE between the sides exceeds a threshold, pooled over the setups of a kind.\n\n| setup | n | draws |")
+func writeZCalibration(w io.Writer, opt options, rows []checkRow, between string, zOf func(checkDraw) float64) {
+	fmt.Fprintf(w, "\nShare of draws whose largest |difference|/SE between %s exceeds a threshold, pooled over the setups of a kind.\n\n| setup | n | draws |", between)
 	for _, t := range zThresholds {
 		fmt.Fprintf(w, " z > %g |", t)
 	}
@@ -309,7 +349,7 @@ func writeZCalibration(w io.Writer, opt options, rows []checkRow) {
 				if r.setup.kind == kind && r.size == n {
 					ds, _ := r.ok()
 					for _, d := range ds {
-						z = append(z, d.maxZ)
+						z = append(z, zOf(d))
 					}
 				}
 			}

@@ -24,7 +24,7 @@ func TestWriteChecksCounts(t *testing.T) {
 	writeChecks(&out, options{metrics: []string{"fnr"}, sizes: []int{100}}, []checkRow{row})
 	text := out.String()
 	for _, want := range []string{
-		"| broken learner | toy, linear | 100 | 2 (1 failed) | 1/2 | 0/2 | 0/2 | 0/2 | 0/2 | 0/2 | 0/2 | 1/2 | 1/2 |",
+		"| broken learner | toy, linear | 100 | 2 (1 failed) | 1/2 | 0/2 | 0/2 | 0/2 | 0/2 | 0/2 | 0/2 | 0/2 | 1/2 | 1/2 |",
 		"| broken learner | 100 | 2 | 0.500 | 0.500 | 0.500 | 0.000 | 0.000 | 0.000 |",
 	} {
 		if !strings.Contains(text, want) {

@@ -38,3 +38,12 @@ func parseValueEstimator(name string) (valueEstimator, error) {
 	}
 	return valueEstimator{}, fmt.Errorf("-estimators: %q is not weighting, robust or robust-pooled", name)
 }
+
+// firstEstimator is the first -estimators choice (weighting when none),
+// the one the -checks study uses.
+func (opt options) firstEstimator() valueEstimator {
+	if len(opt.estimators) == 0 {
+		return valueEstimator{est: attribution.EstimatorWeighting}
+	}
+	return opt.estimators[0]
+}
