@@ -162,8 +162,9 @@ type MetricDecomposition struct {
 	// robust estimator valid with the nuisances estimated (its estimating
 	// equation is orthogonal to them), for the weighting estimator the
 	// delta method with the fitted ratios held fixed. Set in the point
-	// estimate (split 0's with several fold splits); nil in bootstrap
-	// replicates.
+	// estimate (split 0's with several fold splits) when the robust
+	// estimator was computed (EstimatorRobust, EstimatorBoth); nil
+	// otherwise and in bootstrap replicates.
 	Influence *InfluenceSE
 	// RobustUnavailable, when set, says why the robust estimator could not
 	// give this metric (a ratio metric whose estimated denominator is not

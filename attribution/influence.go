@@ -2,6 +2,7 @@ package attribution
 
 import (
 	"math"
+	"math/bits"
 
 	"github.com/gapwise/gapwise/internal/workers"
 )
@@ -55,6 +56,9 @@ type influencePlan struct {
 	k    int
 	full bool
 	cs   []uint64
+	// b[S] = w(|S|) and c[S] = w(|S|−1) + w(|S|) with the Shapley weights
+	// w (w(−1) = w(k) = 0), for functionals; set when full.
+	b, c []float64
 }
 
 // newInfluencePlan returns the plan for n records and k mechanisms: all
@@ -65,8 +69,18 @@ func newInfluencePlan(n, k int, exact bool) influencePlan {
 	all := uint64(1)<<k - 1
 	if p.full {
 		p.cs = make([]uint64, 1<<k)
+		w := shapleyWeights(k)
+		at := func(s int) float64 {
+			if s < 0 || s >= k {
+				return 0
+			}
+			return w[s]
+		}
+		p.b, p.c = make([]float64, 1<<k), make([]float64, 1<<k)
 		for S := range p.cs {
 			p.cs[S] = uint64(S)
+			size := popcount(S)
+			p.b[S], p.c[S] = at(size), at(size-1)+at(size)
 		}
 		return p
 	}
@@ -94,14 +108,21 @@ func (p influencePlan) functionals(w []float64, um, d []float64) {
 		d[k], d[k+1], d[k+2] = um[nc], um[nc+1], um[nc+1]-um[nc]
 	}()
 	if p.full {
+		// φ_i = Σ_{S∌i} w(|S|)(u(S∪i) − u(S)) = Σ_{S∋i} c_S·u(S) − B with
+		// c_S = w(|S|−1) + w(|S|) (w(k) = 0) and B = Σ_S w(|S|)·u(S).
 		full := 1<<k - 1
-		for S := 0; S <= full; S++ {
-			size := popcount(S)
-			for i := 0; i < k; i++ {
-				if S&(1<<i) == 0 {
-					d[i] += w[size] * (um[S|1<<i] - um[S])
-				}
+		var B float64
+		for S := 0; S < full; S++ {
+			B += p.b[S] * um[S]
+		}
+		for S := 1; S <= full; S++ {
+			v := p.c[S] * um[S]
+			for b := uint(S); b != 0; b &= b - 1 {
+				d[bits.TrailingZeros(b)] += v
 			}
+		}
+		for i := 0; i < k; i++ {
+			d[i] -= B
 		}
 		for i := 0; i < k; i++ {
 			d[k+3+i] = um[1<<i] - um[0]

@@ -22,9 +22,13 @@ import (
 //     CrossCheck): the weighting estimate is computed anyway, from the
 //     same density ratios.
 //   - With diag (the point estimate, not a later fold split or a
-//     bootstrap replicate), every metric gets the influence-function
-//     standard errors of the estimator behind it (Influence), and the
-//     cross-check the standard errors of the two estimators' differences.
+//     bootstrap replicate) and the robust estimator computed, every
+//     metric gets the influence-function standard errors of the estimator
+//     behind it (Influence), and the cross-check the standard errors of
+//     the two estimators' differences. The weighting estimator alone gets
+//     none: its delta-method errors, which hold the fitted ratios fixed,
+//     do not cover (README, Accuracy), and the default run would pay for
+//     them.
 //
 // The robust estimator reads the weighting estimator's log-ratios,
 // clipped alike. It returns the number of regressions fitted.
@@ -61,7 +65,7 @@ func estimateGames(mds []MetricDecomposition, s *Sample, mechs []Mechanism, rati
 		}
 		games[m] = shifted(vals)
 	}
-	if diag {
+	if diag && rob != nil {
 		setInfluence(mds, rob, est == EstimatorRobust, sides, g, names, opt, k, len(s.Comparison))
 	}
 	full := uint64(1)<<k - 1

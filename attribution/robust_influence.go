@@ -99,12 +99,15 @@ func (fam *robustFamily) blockInfluence(in *robustInput, lo, hi int) [][][]float
 		pred[R][t] = fam.f[t][lo:hi]
 	}
 	out := make([][][]float64, 1<<R)
+	// Normalised weights ω(i)/ω̄ of the block's records per weight
+	// configuration, shared by the leaves that use it.
+	wcache := map[*weightMoments][]float64{}
 	var walk func(r, suffix int)
 	walk = func(r, suffix int) {
 		for g := 0; g < 2; g++ {
 			key := g | suffix<<1
 			if r == 0 {
-				out[key] = fam.leafInfluence(in, key, lo, hi, pred)
+				out[key] = fam.leafInfluence(in, key, lo, hi, pred, wcache)
 				continue
 			}
 			node := fam.nodes[r][key]
@@ -127,10 +130,28 @@ func (fam *robustFamily) blockInfluence(in *robustInput, lo, hi int) [][][]float
 // from the path's predictions pred[r][term][a] (pred[R]: the terms): for
 // each step and each of its parts, the part's share times the centred,
 // normalised weighted summand of a record of the part's group.
-func (fam *robustFamily) leafInfluence(in *robustInput, key, lo, hi int, pred [][][]float64) [][]float64 {
+func (fam *robustFamily) leafInfluence(in *robustInput, key, lo, hi int, pred [][][]float64, wcache map[*weightMoments][]float64) [][]float64 {
 	T := len(fam.terms)
 	lf := &fam.leaves[key]
 	out := zeros(T, hi-lo)
+	weights := func(wm *weightMoments) []float64 {
+		if w, ok := wcache[wm]; ok {
+			return w
+		}
+		w := make([]float64, hi-lo)
+		for a := range w {
+			i := lo + a
+			if g := pick01(in.cmp[i]); int(g) != wm.cfg.g {
+				continue
+			}
+			w[a] = 1
+			if wm.cfg.mask != 0 {
+				w[a] = math.Exp(in.logWeight(wm.cfg, i)-wm.logScale) / (wm.sum / float64(wm.n))
+			}
+		}
+		wcache[wm] = w
+		return w
+	}
 	for a := 0; a < hi-lo; a++ {
 		i := lo + a
 		g := 0
@@ -144,10 +165,7 @@ func (fam *robustFamily) leafInfluence(in *robustInput, key, lo, hi int, pred []
 				if wm.cfg.g != g {
 					continue
 				}
-				w := 1.0
-				if wm.cfg.mask != 0 {
-					w = math.Exp(in.logWeight(wm.cfg, i)-wm.logScale) / (wm.sum / float64(wm.n))
-				}
+				w := weights(wm)[a]
 				for t := 0; t < T; t++ {
 					var d float64
 					if r == 0 {

@@ -2,6 +2,7 @@ package attribution
 
 import (
 	"math"
+	"math/bits"
 
 	"github.com/gapwise/gapwise/metrics"
 )
@@ -91,6 +92,7 @@ func prepareWeightingInfluence(mds []MetricDecomposition, sides []*sideEstimate,
 		}
 	}
 	return func(lo, hi int) recordInfluence {
+		subset := make([]float64, 1<<p.k)
 		return func(a int, u [][]float64) {
 			i := lo + a
 			for m := range u {
@@ -107,8 +109,9 @@ func prepareWeightingInfluence(mds []MetricDecomposition, sides []*sideEstimate,
 			cell := metrics.Cell(in.y[r], in.s[r], in.threshold, in.bins)
 			s := in.s[r]
 			h := [4]float64{1, s, s * s, metrics.LogLossTerm(in.y[r], s)}
-			for c, wc := range in.wc {
-				w := math.Exp(in.logWeight(wc, r) - logc[j][c])
+			lw := logWeights(in, r, p, subset)
+			for c := range in.wc {
+				w := math.Exp(lw[c] - logc[j][c])
 				for m := range u {
 					gr := grads[j][c][m]
 					if gr == nil || !defined[m] {
@@ -134,4 +137,28 @@ func prepareWeightingInfluence(mds []MetricDecomposition, sides []*sideEstimate,
 			}
 		}
 	}, defined
+}
+
+// logWeights returns log w at record r of side in for every weight
+// coalition in.wc[c]: the sums of the clipped log-ratios of its
+// mechanisms. With every coalition present (p.full) they are the subset
+// sums of the clipped log-ratios, 2^k additions into sums (scratch of
+// length 2^k); otherwise each is summed on its own.
+func logWeights(in *deltaInput, r int, p influencePlan, sums []float64) []float64 {
+	out := make([]float64, len(in.wc))
+	if !p.full {
+		for c, wc := range in.wc {
+			out[c] = in.logWeight(wc, r)
+		}
+		return out
+	}
+	sums[0] = 0
+	for W := 1; W < len(sums); W++ {
+		low := bits.TrailingZeros(uint(W))
+		sums[W] = sums[W&(W-1)] + math.Max(-ClipLogRatio, math.Min(ClipLogRatio, in.logr[low][r]))
+	}
+	for c, wc := range in.wc {
+		out[c] = sums[wc]
+	}
+	return out
 }

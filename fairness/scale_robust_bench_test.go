@@ -1,6 +1,7 @@
 package fairness_test
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -11,13 +12,20 @@ import (
 )
 
 // BenchmarkRunScaleEstimators times a whole audit, as BenchmarkRunScale
-// does (200k records, 6 mechanisms, 4 metrics, classifier auto), with
-// each estimator; the benchmark cohort's score reads every finding, so
-// every mechanism is a step of the robust estimator's chains:
+// does (6 mechanisms, 4 metrics, classifier auto, no intervals), at 20k
+// and 200k records with each estimator; the benchmark cohort's score
+// reads every finding, so every mechanism is a step of the robust
+// estimator's chains:
 //
 //	go test ./fairness -run '^$' -bench RunScaleEstimators -benchtime 1x
 func BenchmarkRunScaleEstimators(b *testing.B) {
-	const rows, k = 200_000, 6
+	for _, rows := range []int{20_000, 200_000} {
+		b.Run(fmt.Sprintf("rows=%d", rows), func(b *testing.B) { benchEstimators(b, rows) })
+	}
+}
+
+func benchEstimators(b *testing.B, rows int) {
+	const k = 6
 	dir := b.TempDir()
 	tab, err := synth.BenchTable(rows, k, 1)
 	if err != nil {
