@@ -25,7 +25,24 @@ const (
 )
 
 // DefaultEstimator is the estimator used when Options.Estimator is
-// EstimatorDefault.
+// EstimatorDefault. The accuracy study against simulated ground truth
+// decided it:
+//
+//	go run ./cmd/gapwise-accuracy -sizes 2000,10000,50000 -reps 3 -learners auto -estimators weighting,robust
+//
+// pooled over the six cases that are not hard, four metrics and 3
+// replicates, max / mean |φ̂ − φ| at 2,000 / 10,000 / 50,000 records per
+// group was
+//
+//	weighting  0.0361/0.0037  0.0204/0.0019  0.0163/0.0009
+//	robust     0.0350/0.0038  0.0138/0.0017  0.0143/0.0008
+//
+// The robust estimator has the smaller largest error at every size and
+// the smaller mean error from 10,000 records per group; its influence-
+// function intervals cover at least as well as the refitting bootstrap
+// (0.938–0.977 at 800 to 2,000 records per group) and its run costs 2.6
+// times the CPU at 200,000 records. Not beating the mean error at 2,000
+// keeps the weighting estimator the default (README, Accuracy).
 const DefaultEstimator = EstimatorWeighting
 
 // Estimators lists the estimators, for studies.
