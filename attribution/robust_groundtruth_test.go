@@ -46,16 +46,32 @@ var robustTolerance = map[string]float64{
 	metrics.NameBrier:                 5 * 0.0016,
 }
 
+// robustHardTolerance is robustTolerance for the hard case (spread-wide:
+// infinite-variance reference weights), 5 × its own largest RMSE over 10
+// replicates of 20 000 records per group:
+//
+//	go run ./cmd/gapwise-accuracy -sizes 20000 -reps 10 -learners linear+expanded -cases spread-wide -estimators robust,weighting -detail
+//
+// fnr 0.0083, fpr 0.0042, calibration_in_the_large 0.0026, brier 0.0018
+// (marker_b and disease; the weighting estimator's 0.0067, 0.0026, 0.0034,
+// 0.0013).
+var robustHardTolerance = map[string]float64{
+	metrics.NameFNR:                   5 * 0.0083,
+	metrics.NameFPR:                   5 * 0.0042,
+	metrics.NameCalibrationInTheLarge: 5 * 0.0026,
+	metrics.NameBrier:                 5 * 0.0018,
+}
+
 // TestRobustMatchesGroundTruth compares every contribution of the robust
-// estimator with the simulated ground truth on every study case but the
-// hard one (spread-wide, reported by the accuracy study), at half the
-// records of TestDecomposeMatchesGroundTruth with the tolerances scaled
-// by √2 (root-n consistency; a quarter and 2 × in -short).
+// estimator with the simulated ground truth on every study case (the hard
+// one, spread-wide, with its own tolerances), at half the records of
+// TestDecomposeMatchesGroundTruth with the tolerances scaled by √2
+// (root-n consistency; a quarter and 2 × in -short).
 func TestRobustMatchesGroundTruth(t *testing.T) {
 	records, truthRecords, scale := gtSizes()
 	records /= 2
 	scale *= math.Sqrt2
-	for _, name := range []string{"interaction", "spread-narrow", "prevalence", "case-mix", "combined", "score-node"} {
+	for _, name := range []string{"interaction", "spread-narrow", "spread-wide", "prevalence", "case-mix", "combined", "score-node"} {
 		t.Run(name, func(t *testing.T) {
 			c := gtCase(t, name)
 			truth, err := scm.GroundTruth(c.Model, gtMetrics, truthRecords, 20260, scm.ScreeningThreshold, 1)
@@ -85,7 +101,11 @@ func TestRobustMatchesGroundTruth(t *testing.T) {
 						}
 						continue
 					}
-					tol := scale*robustTolerance[md.Metric] + 4*tr.SE[i]
+					bound := robustTolerance[md.Metric]
+					if c.Hard {
+						bound = robustHardTolerance[md.Metric]
+					}
+					tol := scale*bound + 4*tr.SE[i]
 					worst = math.Max(worst, math.Abs(got-want)/tol)
 					if math.Abs(got-want) > tol {
 						t.Errorf("%s φ(%s) = %+.4f, ground truth %+.4f ± %.4f", md.Metric, c.Model.Nodes[i].Name, got, want, tol)
