@@ -10,13 +10,14 @@ import (
 	"github.com/gapwise/gapwise/internal/workers"
 )
 
-// Intervals are the settings of percentile bootstrap intervals: the one
-// shape in which they travel from the spec's intervals key through
-// fairness.Run to DecomposeWithIntervals, and back into the result. Its
-// JSON field names are part of the result contract.
+// Intervals are the settings of bootstrap intervals: the one shape in
+// which they travel from the spec's intervals key through fairness.Run to
+// DecomposeWithIntervals, and back into the result. Its JSON field names
+// are part of the result contract.
 type Intervals struct {
 	// Replicates is the number of resamples: 0 means no intervals where
-	// the settings come from a spec, and 200 in DecomposeWithIntervals.
+	// the settings come from a spec, and DefaultReplicates(Form) in
+	// DecomposeWithIntervals.
 	Replicates int `json:"replicates"`
 	// Level is the interval level, e.g. 0.95 (0 means 0.95).
 	Level float64 `json:"level"`
@@ -27,9 +28,12 @@ type Intervals struct {
 	// replicates still take the ratios of different splits, so the
 	// between-split spread is in them (see DecomposeWithIntervals).
 	KeepRatios bool `json:"keep_ratios"`
+	// Form is how the intervals are read off the replicates (see
+	// IntervalForm); "" means DefaultIntervalForm.
+	Form IntervalForm `json:"form"`
 }
 
-// BootstrapOptions controls percentile bootstrap intervals.
+// BootstrapOptions controls bootstrap intervals.
 type BootstrapOptions struct {
 	Intervals
 	// Progress, if non-nil, is called after each finished replicate with
@@ -49,22 +53,39 @@ type BootstrapOptions struct {
 // is the result's record of the bootstrap (fairness.IntervalSettings).
 type BootstrapSummary struct {
 	Intervals
+	// Method names where the intervals' uncertainty comes from:
+	// MethodRefit or MethodFast (KeepRatios).
+	Method string `json:"method"`
 	// Failed counts replicates that could not be computed (e.g. a metric
 	// undefined in a resample); the intervals rest on the others.
 	Failed int `json:"failed"`
 }
 
-// DecomposeWithIntervals runs Decompose and then a percentile bootstrap
-// (Efron & Tibshirani 1993, "An Introduction to the Bootstrap", ch. 13):
+// Names of the bootstrap methods (BootstrapSummary.Method).
+const (
+	// MethodRefit: every replicate refits the classifiers.
+	MethodRefit = "bootstrap-refit"
+	// MethodFast: every replicate keeps the fitted log-ratios.
+	MethodFast = "bootstrap-fast"
+)
+
+// DecomposeWithIntervals runs Decompose and then a bootstrap (Efron &
+// Tibshirani 1993, "An Introduction to the Bootstrap", ch. 6 and 13):
 // each replicate resamples the records of each group with replacement
 // (group sizes fixed), refits the classifiers (with the learner chosen on
 // the full data for each column set, or keeps the fitted ratios in fast
 // mode; a boosted learner grows the number of rounds early stopping kept on
 // the full data, without an inner validation split, see refitLearner), and
 // recomputes each group's metric, the gap and every
-// contribution. The interval for a quantity is the ((1−L)/2, (1+L)/2)
-// quantiles of its replicates (linear interpolation between order
-// statistics). Replicate b uses a PCG stream seeded by (Seed, b), and
+// contribution. The interval for a quantity is, in the normal form, the
+// point estimate ± t_{B−1,(1+L)/2} times the standard deviation of its
+// replicates (NormalInterval), except that a rate's observed group values
+// and gap get score intervals from their counts (scoreIntervals: Wilson
+// and Newcombe), which keep their level with few events; in the
+// percentile form it is the ((1−L)/2, (1+L)/2) quantiles of its
+// replicates (PercentileInterval). The interval
+// level is L = Level, the replicates B = Replicates (0:
+// DefaultReplicates(Form)). Replicate b uses a PCG stream seeded by (Seed, b), and
 // replicates run in parallel with one result slot each, so the intervals do
 // not depend on the number of goroutines. Each replicate runs its fits one
 // at a time on a single goroutine (the replicates already occupy the
@@ -82,8 +103,14 @@ type BootstrapSummary struct {
 // It is conservative: θ̄ itself varies between seeds by about
 // SplitSD/√R, while the mixture carries the whole between-split spread.
 func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, opt Options, bopt BootstrapOptions) (*Decomposition, *BootstrapSummary, error) {
+	if bopt.Form == "" {
+		bopt.Form = DefaultIntervalForm
+	}
+	if !bopt.Form.Known() {
+		return nil, nil, fmt.Errorf("attribution: interval form %q is neither %s nor %s", bopt.Form, FormNormal, FormPercentile)
+	}
 	if bopt.Replicates == 0 {
-		bopt.Replicates = 200
+		bopt.Replicates = DefaultReplicates(bopt.Form)
 	}
 	if bopt.Level == 0 {
 		bopt.Level = 0.95
@@ -110,9 +137,7 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 	var done atomic.Int64
 	var progressMu sync.Mutex
 	workers.For(opt.Workers, B, func(_, b int) {
-		rng := rand.New(rand.NewPCG(opt.Seed, 0xb0075742^uint64(b)))
-		ri := resample(g.refIdx, rng)
-		ci := resample(g.cmpIdx, rng)
+		ri, ci := replicateRecords(g, opt.Seed, b)
 		var md []MetricDecomposition
 		var err error
 		r := b % len(fits)
@@ -135,7 +160,10 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 		}
 	})
 
-	sum := &BootstrapSummary{Intervals: Intervals{Replicates: B, Level: bopt.Level, KeepRatios: bopt.KeepRatios}}
+	sum := &BootstrapSummary{Intervals: Intervals{Replicates: B, Level: bopt.Level, KeepRatios: bopt.KeepRatios, Form: bopt.Form}, Method: MethodRefit}
+	if bopt.KeepRatios {
+		sum.Method = MethodFast
+	}
 	var ok [][]MetricDecomposition
 	for _, r := range reps {
 		if r == nil {
@@ -147,28 +175,45 @@ func DecomposeWithIntervals(s *Sample, mechs []Mechanism, metricNames []string, 
 	if len(ok) < 2 {
 		return nil, nil, fmt.Errorf("attribution: only %d of %d bootstrap replicates could be computed", len(ok), B)
 	}
-	lo, hi := (1-bopt.Level)/2, (1+bopt.Level)/2
-	interval := func(get func(md []MetricDecomposition) float64) Interval {
+	for m := range d.Metrics {
+		setIntervals(&d.Metrics[m], m, ok, bopt.Intervals)
+		if bopt.Form == FormNormal {
+			scoreIntervals(&d.Metrics[m], g, opt.Threshold, bopt.Level)
+		}
+	}
+	return d, sum, nil
+}
+
+// setIntervals sets the intervals of metric m of the point estimate md
+// from the computed replicates ok, in the form iv.Form at level iv.Level:
+// percentile intervals (PercentileInterval), or normal ones around md's
+// own values (NormalInterval), the ratios' on the log scale
+// (ratioIntervals, normalRatioIntervals).
+func setIntervals(md *MetricDecomposition, m int, ok [][]MetricDecomposition, iv Intervals) {
+	interval := func(est float64, get func(md []MetricDecomposition) float64) *Interval {
 		x := make([]float64, len(ok))
 		for b, r := range ok {
 			x[b] = get(r)
 		}
-		return PercentileInterval(x, bopt.Level)
-	}
-	for m := range d.Metrics {
-		md := &d.Metrics[m]
-		ref := interval(func(r []MetricDecomposition) float64 { return r[m].Reference })
-		cmp := interval(func(r []MetricDecomposition) float64 { return r[m].Comparison })
-		gap := interval(func(r []MetricDecomposition) float64 { return r[m].Gap })
-		res := interval(func(r []MetricDecomposition) float64 { return r[m].Residual })
-		md.ReferenceCI, md.ComparisonCI, md.GapCI, md.ResidualCI = &ref, &cmp, &gap, &res
-		md.ContributionCIs = make([]Interval, len(md.Contributions))
-		for i := range md.Contributions {
-			md.ContributionCIs[i] = interval(func(r []MetricDecomposition) float64 { return r[m].Contributions[i] })
+		out := PercentileInterval(x, iv.Level)
+		if iv.Form == FormNormal {
+			out = NormalInterval(est, x, iv.Level)
 		}
-		md.ImpactRatioCI, md.LowerToHigherCI = ratioIntervals(ok, m, md.Metric, lo, hi)
+		return &out
 	}
-	return d, sum, nil
+	md.ReferenceCI = interval(md.Reference, func(r []MetricDecomposition) float64 { return r[m].Reference })
+	md.ComparisonCI = interval(md.Comparison, func(r []MetricDecomposition) float64 { return r[m].Comparison })
+	md.GapCI = interval(md.Gap, func(r []MetricDecomposition) float64 { return r[m].Gap })
+	md.ResidualCI = interval(md.Residual, func(r []MetricDecomposition) float64 { return r[m].Residual })
+	md.ContributionCIs = make([]Interval, len(md.Contributions))
+	for i := range md.Contributions {
+		md.ContributionCIs[i] = *interval(md.Contributions[i], func(r []MetricDecomposition) float64 { return r[m].Contributions[i] })
+	}
+	if iv.Form == FormNormal {
+		md.ImpactRatioCI, md.LowerToHigherCI = normalRatioIntervals(ok, m, md, iv.Level)
+	} else {
+		md.ImpactRatioCI, md.LowerToHigherCI = ratioIntervals(ok, m, md.Metric, (1-iv.Level)/2, (1+iv.Level)/2)
+	}
 }
 
 // dropGames clears the games of a replicate's metrics: the intervals
@@ -203,6 +248,16 @@ func reuseBySplit(fits []splitFit, keep bool) (chosen []fixedLearners, logRatio 
 		}
 	}
 	return chosen, logRatio
+}
+
+// replicateRecords draws replicate b's records of a decomposition seeded
+// by seed: each group's records resampled with replacement from a PCG
+// stream seeded by (seed, b), the reference group first.
+func replicateRecords(g groupSplit, seed uint64, b int) (ri, ci []int) {
+	rng := rand.New(rand.NewPCG(seed, 0xb0075742^uint64(b)))
+	ri = resample(g.refIdx, rng)
+	ci = resample(g.cmpIdx, rng)
+	return ri, ci
 }
 
 // resample draws len(idx) elements of idx with replacement.

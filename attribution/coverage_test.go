@@ -42,8 +42,10 @@ func independentPooled(t *testing.T, m *scm.Model, nRef, nCmp int, seed uint64) 
 }
 
 // TestBootstrapCoverage draws the prevalence-shift screening model
-// repeatedly and counts how often the 95% percentile intervals of the FNR
-// gap and of every contribution contain the ground truth (direct simulation
+// repeatedly and counts how often the 95% intervals (the default normal
+// form: the FNR gap's by Newcombe's score interval, the contributions'
+// from 40 refitting replicates) of the FNR gap and of every contribution
+// contain the ground truth (direct simulation
 // of the hybrid distributions with common random numbers + Shapley 1953; see
 // package scm). With R draws × 7 quantities, the pooled coverage of a
 // correct 95% procedure has a standard error of about √(0.95·0.05/(7R)),

@@ -7,6 +7,40 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 )
 
+// IntervalForm is how a bootstrap interval is read off the replicates.
+type IntervalForm string
+
+// Interval forms.
+const (
+	// FormNormal: the estimate ± t_{B−1} times the replicates' standard
+	// deviation (NormalInterval); a rate's observed values and gap by
+	// their score intervals (WilsonInterval, NewcombeInterval).
+	FormNormal IntervalForm = "normal"
+	// FormPercentile: the replicates' quantiles (PercentileInterval).
+	FormPercentile IntervalForm = "percentile"
+)
+
+// DefaultIntervalForm is the form of Intervals.Form "".
+const DefaultIntervalForm = FormNormal
+
+// Known reports whether f is FormNormal or FormPercentile.
+func (f IntervalForm) Known() bool { return f == FormNormal || f == FormPercentile }
+
+// DefaultReplicates is the number of replicates DecomposeWithIntervals
+// draws when Intervals.Replicates is 0: a normal interval needs only the
+// standard deviation of the replicates, which 50 estimate to about 10%
+// (relative SE 1/√(2(B−1))) and the Student factor t₄₉ = 2.010 accounts
+// for, while a percentile interval reads its ends off the tails, 2.5% of
+// the replicates each, and needs 200 (Efron & Tibshirani 1993, §6.4 and
+// §19.3: 25–200 replicates for a standard error, at least 1,000 for
+// percentiles, from memory).
+func DefaultReplicates(f IntervalForm) int {
+	if f == FormPercentile {
+		return 200
+	}
+	return 50
+}
+
 // PercentileInterval returns the percentile bootstrap interval of level L
 // from replicates x: the (1−L)/2 and (1+L)/2 quantiles of x by linear
 // interpolation between order statistics (Efron & Tibshirani 1993, "An

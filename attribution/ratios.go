@@ -453,13 +453,16 @@ func (p *fitPlan) completeFolds(selFolds int) error {
 	return p.run(jobs)
 }
 
-// finish scores the chosen learner on all folds where it was not scored,
-// drops the losing learners' log-odds and sets the learner bootstrap
+// finish scores the chosen learner on all folds where it was not scored
+// (not in a bootstrap replicate, whose learner is fixed), drops the losing
+// learners' log-odds and sets the learner bootstrap
 // replicates refit (refitLearner, warm-started from the chosen learner's
 // fold-0 model).
 func (p *fitPlan) finish() {
 	for _, f := range p.sets {
-		if math.IsNaN(f.losses[f.best]) {
+		// A bootstrap replicate's fixed learner needs no scores: they
+		// serve the choice and the diagnostics of the point estimate.
+		if math.IsNaN(f.losses[f.best]) && f.fixed == nil {
 			f.losses[f.best] = meanLogLoss(p.y, f.logOdds[f.best])
 			f.oddsMean[f.best] = oddsCalibration(p.y, f.logOdds[f.best])
 			f.oddsShare[f.best] = oddsMaxShare(p.y, f.logOdds[f.best])

@@ -311,7 +311,7 @@ func TestRunAutoAndBootstrap(t *testing.T) {
 	if r.Title != "Small audit" {
 		t.Errorf("title %q", r.Title)
 	}
-	if got, want := r.Settings.Intervals, (IntervalSettings{Intervals: Intervals{Replicates: 20, Level: 0.9, KeepRatios: true}}); got == nil || *got != want {
+	if got, want := r.Settings.Intervals, (IntervalSettings{Intervals: Intervals{Replicates: 20, Level: 0.9, KeepRatios: true, Form: FormNormal}, Method: attribution.MethodFast}); got == nil || *got != want {
 		t.Errorf("settings.intervals %+v, want %+v", got, want)
 	}
 	want := strings.Join(r.Settings.Learners, ",")
@@ -354,7 +354,9 @@ func TestRunIntervalsOverride(t *testing.T) {
 		want     *IntervalSettings // nil: no bootstrap ran
 	}{
 		{"other settings", Intervals{Replicates: 6, Level: 0.8, KeepRatios: true},
-			&IntervalSettings{Intervals: Intervals{Replicates: 6, Level: 0.8, KeepRatios: true}}},
+			&IntervalSettings{Intervals: Intervals{Replicates: 6, Level: 0.8, KeepRatios: true, Form: FormNormal}, Method: attribution.MethodFast}},
+		{"percentile", Intervals{Replicates: 6, Level: 0.8, Form: FormPercentile},
+			&IntervalSettings{Intervals: Intervals{Replicates: 6, Level: 0.8, Form: FormPercentile}, Method: attribution.MethodRefit}},
 		{"none", Intervals{Replicates: 0, Level: 0.9, KeepRatios: true}, nil},
 	}
 	for _, c := range cases {

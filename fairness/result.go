@@ -111,9 +111,10 @@ type Settings struct {
 	Intervals *IntervalSettings `json:"intervals,omitempty"`
 }
 
-// IntervalSettings records how the percentile bootstrap intervals were
-// made: the settings used (replicates requested, level, keep_ratios) and
-// the replicates that failed. It is the engine's own summary.
+// IntervalSettings records how the bootstrap intervals were made: the
+// settings used (replicates requested, level, keep_ratios, form), the
+// method (bootstrap-refit or bootstrap-fast) and the replicates that
+// failed. It is the engine's own summary.
 type IntervalSettings = attribution.BootstrapSummary
 
 // GroupInfo describes the two groups compared.

@@ -51,10 +51,11 @@ import (
 //	combine_sides: metric-variance  # with both: one weight per metric (default) or coalition
 //	clip_ratios: 0.99    # clip log-ratios to their central 99% interval; omit for none
 //	exact_limit: 16      # exact Shapley values up to this many mechanisms, sampled above
-//	intervals:           # percentile bootstrap intervals; omit for none
-//	  replicates: 200    # resamples, 0 (none) or at least 2
+//	intervals:           # bootstrap intervals; decompose adds them by default, the library only when replicates is given
+//	  replicates: 50     # resamples, 0 (none) or at least 2; default 50 (normal form) or 200 (percentile)
 //	  level: 0.95        # interval level, in (0, 1); default 0.95
 //	  keep_ratios: false # true: reuse the fitted ratios (fast mode)
+//	  form: normal       # normal (estimate ± t × bootstrap SE, the default) or percentile
 //	synthetic: false     # the data is invented
 //	title: free text
 //	names:               # display names for the reports (NamesSpec); omit for the identifiers
@@ -117,8 +118,12 @@ type Spec struct {
 	// reads it unless RunOptions.Intervals overrides it (the CLI's flags
 	// do).
 	Intervals Intervals
-	Synthetic bool
-	Title     string
+	// IntervalReplicatesGiven reports whether the spec gave
+	// intervals.replicates. Without it Run computes no intervals, while
+	// `gapwise decompose` uses DefaultIntervals.
+	IntervalReplicatesGiven bool
+	Synthetic               bool
+	Title                   string
 	// Names holds the names key; nil when absent.
 	Names *NamesSpec
 	// Model names the audited model (key model); nil when absent.
@@ -148,9 +153,66 @@ type GroupSpec struct {
 // the spec, the engine (attribution.Intervals) and the result.
 type Intervals = attribution.Intervals
 
+// IntervalForm is how intervals are read off the bootstrap replicates
+// (attribution.IntervalForm): FormNormal or FormPercentile.
+type IntervalForm = attribution.IntervalForm
+
+// Interval forms (intervals.form).
+const (
+	FormNormal     = attribution.FormNormal
+	FormPercentile = attribution.FormPercentile
+)
+
+// DefaultReplicates is the number of replicates of form f when
+// intervals.replicates is not given (attribution.DefaultReplicates).
+func DefaultReplicates(f IntervalForm) int { return attribution.DefaultReplicates(f) }
+
 // DefaultIntervalLevel is the interval level when intervals.level is not
 // given.
 const DefaultIntervalLevel = 0.95
+
+// IntervalsByDefault returns the interval settings of a run that adds
+// intervals unless told not to (`gapwise decompose` without its interval
+// flags): the spec's intervals key, with the DefaultIntervals form where
+// intervals.form is not given and ReplicatesByDefault of the form where
+// intervals.replicates is not given. Replicates 0 (intervals.replicates:
+// 0) stays: no intervals.
+func (s *Spec) IntervalsByDefault() Intervals {
+	iv := s.Intervals
+	if iv.Form == "" {
+		iv.Form = DefaultIntervals.Form
+	}
+	if !s.IntervalReplicatesGiven {
+		iv.Replicates = s.ReplicatesByDefault(iv.Form)
+	}
+	if iv.Level == 0 {
+		iv.Level = DefaultIntervalLevel
+	}
+	return iv
+}
+
+// ReplicatesByDefault is the number of bootstrap replicates of form f for
+// a run that adds intervals unless told not to, when intervals.replicates
+// is not given: DefaultReplicates(f), but 0 with estimator robust, whose
+// influence-function Wald intervals need no refits and become the
+// intervals when no bootstrap runs (UncertaintyInfluence).
+func (s *Spec) ReplicatesByDefault(f IntervalForm) int {
+	if s.Estimator == attribution.EstimatorRobust.String() {
+		return 0
+	}
+	return DefaultReplicates(f)
+}
+
+// DefaultIntervals are the interval settings of `gapwise decompose` when
+// neither the spec's intervals.replicates nor --intervals says otherwise:
+// the normal form from bootstrap replicates that refit the classifiers
+// (attribution.DefaultReplicates of it), at DefaultIntervalLevel. The
+// choice rests on the coverage study (README, Accuracy).
+var DefaultIntervals = Intervals{
+	Replicates: attribution.DefaultReplicates(attribution.DefaultIntervalForm),
+	Level:      DefaultIntervalLevel,
+	Form:       attribution.DefaultIntervalForm,
+}
 
 // NodeSpec is one node of the causal graph.
 type NodeSpec struct {
@@ -606,16 +668,18 @@ func (p *specParser) groups(s *Spec, v *yaml.Node) error {
 	return nil
 }
 
-// intervals decodes the intervals mapping: replicates, level, keep_ratios.
+// intervals decodes the intervals mapping: replicates, level, keep_ratios,
+// form.
 func (p *specParser) intervals(s *Spec, v *yaml.Node) error {
 	if v.Kind != yaml.MappingNode {
-		return specErr(p.file, v.Line, "intervals", ErrBadValue, "intervals must be a mapping such as {replicates: 200, level: 0.95, keep_ratios: false}")
+		return specErr(p.file, v.Line, "intervals", ErrBadValue, "intervals must be a mapping such as {replicates: 50, level: 0.95, keep_ratios: false, form: normal}")
 	}
 	_, err := p.eachKey(v, "intervals", func(k, val *yaml.Node, key string) error {
 		var err error
 		switch k.Value {
 		case "replicates":
 			err = p.decode(key, val, &s.Intervals.Replicates, "an integer")
+			s.IntervalReplicatesGiven = true
 			if err == nil && (s.Intervals.Replicates < 0 || s.Intervals.Replicates == 1) {
 				err = specErr(p.file, val.Line, key, ErrBadValue, "%s must be 0 (no intervals) or at least 2, got %d", key, s.Intervals.Replicates)
 			}
@@ -629,6 +693,14 @@ func (p *specParser) intervals(s *Spec, v *yaml.Node) error {
 			}
 		case "keep_ratios":
 			err = p.decode(key, val, &s.Intervals.KeepRatios, "true or false")
+		case "form":
+			var f string
+			if err = p.decode(key, val, &f, "normal or percentile"); err == nil {
+				s.Intervals.Form = attribution.IntervalForm(f)
+				if !s.Intervals.Form.Known() {
+					err = specErr(p.file, val.Line, key, ErrBadValue, "%s must be normal or percentile, got %q", key, f)
+				}
+			}
 		default:
 			err = p.unknownKey(k.Line, key, k.Value, intervalKeys)
 		}

@@ -84,7 +84,7 @@ estimate_from: both
 combine_sides: coalition
 clip_ratios: 0.98
 exact_limit: 12
-intervals: {replicates: 50, level: 0.9, keep_ratios: true}
+intervals: {replicates: 50, level: 0.9, keep_ratios: true, form: percentile}
 `
 	s, err := ParseSpec("/abs/spec.yaml", []byte(strings.Replace(src, "data: cohort.csv", "data: /data/cohort.csv", 1)))
 	if err != nil {
@@ -93,7 +93,7 @@ intervals: {replicates: 50, level: 0.9, keep_ratios: true}
 	if !s.DropMissing() || s.Folds != 3 || s.FoldSplits != 7 || s.Classifier != "expanded" || s.ECEBins != 15 || !s.Synthetic ||
 		s.Title != "Anaemia screening (synthetic)" || !reflect.DeepEqual(s.Categorical, []string{"m2"}) || s.DataPath != "/data/cohort.csv" ||
 		s.EstimateFrom != "both" || s.CombineSides != "coalition" || s.ClipRatios != 0.98 || s.ExactLimit != 12 ||
-		s.Intervals != (Intervals{Replicates: 50, Level: 0.9, KeepRatios: true}) {
+		s.Intervals != (Intervals{Replicates: 50, Level: 0.9, KeepRatios: true, Form: FormPercentile}) || !s.IntervalReplicatesGiven {
 		t.Errorf("got %+v", s)
 	}
 }
@@ -153,6 +153,7 @@ func TestParseSpecErrors(t *testing.T) {
 		{"intervals 1 replicate", exampleSpec + "intervals:\n  replicates: 1\n", ErrBadValue, 19, "intervals.replicates", "0 (no intervals) or at least 2"},
 		{"intervals level 95", exampleSpec + "intervals:\n  replicates: 20\n  level: 95\n", ErrBadValue, 20, "intervals.level", "strictly between 0 and 1"},
 		{"intervals keep text", exampleSpec + "intervals: {keep_ratios: sometimes}\n", ErrBadValue, 18, "intervals.keep_ratios", "true or false"},
+		{"intervals form", exampleSpec + "intervals: {form: bca}\n", ErrBadValue, 18, "intervals.form", `normal or percentile, got "bca"`},
 		{"intervals unknown key", exampleSpec + "intervals:\n  reps: 20\n", ErrUnknownKey, 19, "intervals.reps", `unknown key "reps"`},
 		{"intervals duplicate", exampleSpec + "intervals: {level: 0.9, level: 0.8}\n", ErrDuplicateKey, 18, "intervals.level", "twice"},
 		{"categorical not in graph", exampleSpec + "categorical: [clinic]\n", ErrBadValue, 18, "categorical[0]", "not a column of any graph node"},
@@ -234,5 +235,38 @@ func BenchmarkParseSpec(b *testing.B) {
 		if _, err := ParseSpec("spec.yaml", src); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// TestIntervalsByDefault: what `gapwise decompose` runs without its
+// interval flags: a spec silent on intervals gets DefaultIntervals; one
+// with a form but no replicates the default replicates of that form; one
+// with replicates its own, 0 meaning none; with estimator robust none
+// unless asked.
+func TestIntervalsByDefault(t *testing.T) {
+	for _, c := range []struct {
+		add  string
+		want Intervals
+	}{
+		{"", DefaultIntervals},
+		{"intervals: {level: 0.9}\n", Intervals{Replicates: 50, Level: 0.9, Form: FormNormal}},
+		{"intervals: {form: percentile}\n", Intervals{Replicates: 200, Level: 0.95, Form: FormPercentile}},
+		{"intervals: {replicates: 0}\n", Intervals{Replicates: 0, Level: 0.95, Form: FormNormal}},
+		{"intervals: {replicates: 30, keep_ratios: true}\n", Intervals{Replicates: 30, Level: 0.95, KeepRatios: true, Form: FormNormal}},
+		// The robust estimator's influence-function intervals need no
+		// bootstrap; asked for, it runs.
+		{"estimator: robust\n", Intervals{Replicates: 0, Level: 0.95, Form: FormNormal}},
+		{"estimator: robust\nintervals: {replicates: 20}\n", Intervals{Replicates: 20, Level: 0.95, Form: FormNormal}},
+	} {
+		s, err := ParseSpec("spec.yaml", []byte(exampleSpec+c.add))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := s.IntervalsByDefault(); got != c.want {
+			t.Errorf("%q: %+v, want %+v", c.add, got, c.want)
+		}
+	}
+	if DefaultIntervals != (Intervals{Replicates: 50, Level: 0.95, Form: FormNormal}) {
+		t.Errorf("DefaultIntervals %+v", DefaultIntervals)
 	}
 }

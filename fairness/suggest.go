@@ -9,7 +9,7 @@ var (
 		"missing", "categorical", "model_inputs", "probabilities", "folds", "fold_splits", "classifier", "ece_bins", "estimator", "estimate_from", "combine_sides",
 		"clip_ratios", "exact_limit", "intervals", "synthetic", "title", "names", "model", "audit_date", "suppress_below"}
 	groupKeys     = []string{"column", "reference", "comparison"}
-	intervalKeys  = []string{"replicates", "level", "keep_ratios"}
+	intervalKeys  = []string{"replicates", "level", "keep_ratios", "form"}
 	graphNodeKeys = []string{"node", "columns", "parents"}
 )
 

@@ -68,6 +68,29 @@ func (c Confusion) Rate(name string) (float64, error) {
 	return math.NaN(), fmt.Errorf("metrics: %q is not a threshold metric", name)
 }
 
+// RateCounts returns the events and the records behind the rate called
+// name, the numerator and denominator of Rate (FP and FP+TN for the FPR,
+// and so on); ok is false for a name that is not a threshold rate.
+func (c Confusion) RateCounts(name string) (events, records float64, ok bool) {
+	switch name {
+	case NameFPR:
+		return c.FP, c.FP + c.TN, true
+	case NameTPR:
+		return c.TP, c.TP + c.FN, true
+	case NameFNR:
+		return c.FN, c.TP + c.FN, true
+	case NamePPV:
+		return c.TP, c.TP + c.FP, true
+	case NameNPV:
+		return c.TN, c.TN + c.FN, true
+	case NameSelectionRate:
+		return c.TP + c.FP, c.Total(), true
+	case NameAccuracy:
+		return c.TP + c.TN, c.Total(), true
+	}
+	return 0, 0, false
+}
+
 // IsThreshold reports whether the metric called name depends on the
 // decision threshold (and so is a function of the confusion counts alone).
 func IsThreshold(name string) bool {

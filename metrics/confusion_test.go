@@ -88,3 +88,24 @@ func BenchmarkConfusionAt(b *testing.B) {
 		ConfusionAt(labels, scores, 0.5, w)
 	}
 }
+
+// TestRateCounts: every threshold rate is its events over its records,
+// Rate's own ratio (the definitions in Rate's doc comment), and other
+// metrics have none.
+func TestRateCounts(t *testing.T) {
+	c := Confusion{TP: 3, FP: 2, TN: 7, FN: 5}
+	for _, f := range Facts() {
+		x, n, ok := c.RateCounts(f.Name)
+		if ok != f.Proportion {
+			t.Errorf("%s: ok %v, proportion %v", f.Name, ok, f.Proportion)
+			continue
+		}
+		if !ok {
+			continue
+		}
+		want, err := c.Rate(f.Name)
+		if err != nil || x/n != want {
+			t.Errorf("%s: %v/%v, Rate %v (%v)", f.Name, x, n, want, err)
+		}
+	}
+}

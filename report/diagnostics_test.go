@@ -20,7 +20,7 @@ func withDiagnostics(r *fairness.Result) {
 	r.Settings.EstimateFrom = "both"
 	r.Settings.ClipRatios = 0.99
 	r.Settings.ExactLimit = 16
-	r.Settings.Intervals = &fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 100, Level: 0.9, KeepRatios: true}, Failed: 2}
+	r.Settings.Intervals = &fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 100, Level: 0.9, KeepRatios: true, Form: fairness.FormPercentile}, Failed: 2}
 	for i := range r.Mechanisms {
 		m := &r.Mechanisms[i]
 		m.ExtremeShare = 0.001 * float64(i)
@@ -71,7 +71,7 @@ func TestWriteTextDiagnostics(t *testing.T) {
 		"estimated from       both records",
 		"log-ratios clipped   to their central 99%",
 		"exact Shapley up to  16 mechanisms",
-		"intervals            100 bootstrap replicates, fitted density ratios kept (fast mode: contribution intervals approximate, too narrow), level 90%; 2 could not be computed",
+		"intervals            100 bootstrap replicates, fitted density ratios kept (fast mode: contribution intervals approximate, too narrow), percentile form (the replicates' quantiles), level 90%; 2 could not be computed",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("missing %q in\n%s", want, out)

@@ -370,7 +370,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		{"Probabilities read as logits", probabilitySetting(res.Settings.ProbabilityColumns)},
 		{"ECE bins", fmt.Sprint(res.Settings.ECEBins)}, {"Missing values", missingSetting(res.Settings)},
 		{"Estimator", estimatorSetting(res)}, {"Hybrids estimated from", res.Settings.EstimateFrom}, {"Log-ratios clipped to", clipSetting(res.Settings.ClipRatios)},
-		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", p.IntervalSetting},
+		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", intervalSettingOrNone(res)},
 	}...)
 	if s := suppressionSetting(res); s != "" {
 		p.Settings = append(p.Settings, keyValue{"Small-cell suppression", s})

@@ -52,7 +52,7 @@ func forestItems(t *testing.T, data map[string]any, metric string) []map[string]
 // contributions (age, hb) and the gap; Brier has none.
 func TestWriteHTMLIntervals(t *testing.T) {
 	page := renderHTML(t, true, func(r *fairness.Result) {
-		r.Settings.Intervals = &fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 200, Level: 0.9}}
+		r.Settings.Intervals = &fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 200, Level: 0.9, Form: fairness.FormPercentile}}
 	})
 	data := pageData(t, page)
 	// Rows in graph order: age, anaemia, hb, ferritin, then the residual
@@ -87,7 +87,7 @@ func TestWriteHTMLIntervals(t *testing.T) {
 	}
 	for _, want := range []string{
 		`<th class="num">90% interval</th>`,
-		"its 90% interval from the bootstrap (200 bootstrap replicates, classifiers refitted in each, level 90%)",
+		"its 90% interval from the bootstrap (200 bootstrap replicates, classifiers refitted in each, percentile form (the replicates&#39; quantiles), level 90%)",
 		`<span class="gw-ci">[10.1%, 13.9%]</span>`,
 		"<dt>Intervals</dt><dd>200 bootstrap replicates",
 	} {

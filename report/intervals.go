@@ -63,9 +63,10 @@ func approximateNote(res *fairness.Result) string {
 	return "Contribution intervals are approximate: the fast bootstrap kept the fitted density ratios, so they leave out the classifiers' own error and are too narrow; refit in every replicate (intervals key keep_ratios: false, or --fast-intervals=false) for intervals to rely on. The groups' values and the gap are resampled directly and are not affected."
 }
 
-// intervalSetting describes how the intervals were made, e.g. "200
-// bootstrap replicates, classifiers refitted in each, level 95%"; "" when
-// no bootstrap ran.
+// intervalSetting describes how the intervals were made, e.g. "50
+// bootstrap replicates, classifiers refitted in each, normal form
+// (estimate ± t × bootstrap standard error), level 95%"; "" when no
+// bootstrap ran (see noIntervals).
 func intervalSetting(res *fairness.Result) string {
 	iv := res.Settings.Intervals
 	if iv == nil {
@@ -78,7 +79,7 @@ func intervalSetting(res *fairness.Result) string {
 	if iv.KeepRatios {
 		mode = "fitted density ratios kept (fast mode: contribution intervals approximate, too narrow)"
 	}
-	s := fmt.Sprintf("%d bootstrap replicates, %s, level %s", iv.Replicates, mode, intervalLevel(res))
+	s := fmt.Sprintf("%d bootstrap replicates, %s, %s, level %s", iv.Replicates, mode, formPhrase(iv.Form), intervalLevel(res))
 	if r := res.Settings.FoldSplits; r > 1 {
 		s += fmt.Sprintf(", replicates spread over the %d fold splits", r)
 	}
@@ -105,4 +106,26 @@ func foldSplitsPhrase(r int) string {
 		return "1 fold split"
 	}
 	return fmt.Sprintf("%d fold splits averaged", r)
+}
+
+// formPhrase names how the intervals were read off the replicates, e.g.
+// "normal form (estimate ± t × bootstrap standard error; a rate's group values and gap by score intervals)".
+func formPhrase(f fairness.IntervalForm) string {
+	if f == fairness.FormPercentile {
+		return "percentile form (the replicates' quantiles)"
+	}
+	return "normal form (estimate ± t × bootstrap standard error; a rate's group values and gap by score intervals)"
+}
+
+// noIntervals is what the reports say in place of intervalSetting when no
+// bootstrap ran.
+const noIntervals = "none (decompose adds them unless --intervals 0 or intervals.replicates: 0 turns them off); no value here shows its sampling error"
+
+// intervalSettingOrNone is intervalSetting, or noIntervals when no
+// bootstrap ran.
+func intervalSettingOrNone(res *fairness.Result) string {
+	if s := intervalSetting(res); s != "" {
+		return s
+	}
+	return noIntervals
 }

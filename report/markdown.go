@@ -92,6 +92,8 @@ func mdSummaries(p mdPrinter, res *fairness.Result) {
 	}
 	if iv := intervalSetting(res); iv != "" {
 		p("Intervals in brackets: %s.\n\n", mdText(iv))
+	} else {
+		p("Intervals: %s.\n\n", mdText(noIntervals))
 	}
 }
 

@@ -55,6 +55,8 @@ func ExampleWriteMarkdown() {
 	//
 	// The false-negative rate is 16.0% for women and 10.0% for men (reference group). The gap, women minus men, is +6.0 pts: the false-negative rate is higher for women. Widening the gap: how `hb` presents given `anaemia`, +6.5 pts — unreliable: a warning names it. Narrowing it: the mix of `age`, −1.0 pts. The contributions add up to +5.5 pts; the residual, +0.5 pts, is estimation error or the effect of something outside the graph, which the method cannot assign.
 	//
+	// Intervals: none \(decompose adds them unless --intervals 0 or intervals.replicates: 0 turns them off\); no value here shows its sampling error.
+	//
 	// ### Metrics by group
 	//
 	// | Metric | men (reference) | women (comparison) | Gap | From |

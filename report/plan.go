@@ -57,14 +57,20 @@ func writePlan(b *strings.Builder, spec *fairness.Spec, p *fairness.PlanInfo) {
 	fmt.Fprintf(b, "  metrics     %s\n", list(p.Metrics))
 	fmt.Fprintf(b, "  classifier  %s (candidates: %s), %d folds, %s, seed %d\n", pt(p.Classifier), list(p.Learners), p.Folds, foldSplitsPhrase(p.FoldSplits), spec.Seed)
 	fmt.Fprintf(b, "  features    %d encoded columns\n", p.Features)
-	if iv := spec.Intervals; iv.Replicates > 0 {
+	if iv := spec.IntervalsByDefault(); iv.Replicates > 0 {
 		mode := "refitting the classifiers"
 		if iv.KeepRatios {
 			mode = "keeping the fitted ratios"
 		}
-		fmt.Fprintf(b, "  intervals   %d bootstrap replicates at level %v, %s\n", iv.Replicates, iv.Level, mode)
+		from := "spec key intervals"
+		if !spec.IntervalReplicatesGiven {
+			from = "decompose's default; --intervals 0 for none"
+		}
+		fmt.Fprintf(b, "  intervals   %d bootstrap replicates %s, %s, level %v (%s)\n", iv.Replicates, mode, formPhrase(iv.Form), iv.Level, from)
+	} else if !spec.IntervalReplicatesGiven {
+		fmt.Fprintf(b, "  intervals   influence-function Wald intervals of the robust estimator, no refits (decompose's default with estimator robust; --intervals N for the bootstrap)\n")
 	} else {
-		fmt.Fprintf(b, "  intervals   none (spec key intervals or decompose --intervals N)\n")
+		fmt.Fprintf(b, "  intervals   none (intervals.replicates: 0; decompose --intervals N adds them)\n")
 	}
 	writePlanNodes(b, p.Nodes, names)
 	if len(p.Warnings) > 0 {

@@ -11,7 +11,7 @@ import (
 // words, one aligned row per mechanism and the warnings.
 func TestPlan(t *testing.T) {
 	spec := &fairness.Spec{File: "audit.yaml", DataPath: "cohort.csv", Seed: 3,
-		Intervals: fairness.Intervals{Replicates: 50, Level: 0.9, KeepRatios: true}}
+		Intervals: fairness.Intervals{Replicates: 50, Level: 0.9, KeepRatios: true, Form: fairness.FormPercentile}, IntervalReplicatesGiven: true}
 	p := &fairness.PlanInfo{
 		Label: "dx", Score: "score", Threshold: 0.5, Metrics: []string{"fnr", "fpr"},
 		Groups:     fairness.GroupInfo{Column: "sex", Reference: "m", Comparison: "f", NReference: 10, NComparison: 12, EventsReference: 4, EventsComparison: 5, DroppedComparison: 1},
@@ -32,7 +32,7 @@ func TestPlan(t *testing.T) {
 		"  groups      column sex: reference m (10 records, 4 events, 0 dropped), comparison f (12 records, 5 events, 1 dropped)\n",
 		"  classifier  auto (candidates: linear, boosted), 5 folds, 10 fold splits averaged, seed 3\n",
 		"  inputs      age, mcv, bmi (outside the graph: bmi)\n",
-		"  intervals   50 bootstrap replicates at level 0.9, keeping the fitted ratios\n",
+		"  intervals   50 bootstrap replicates keeping the fitted ratios, percentile form (the replicates' quantiles), level 0.9 (spec key intervals)\n",
 		"  mechanism    columns   features\n",
 		"  panel | age  mcv, rdw         2\n",
 		"Warnings:\n  - 1 row was dropped\n",
@@ -43,6 +43,27 @@ func TestPlan(t *testing.T) {
 	}
 	if strings.Contains(b.String(), "SYNTHETIC") {
 		t.Error("a plan of real data is not marked synthetic")
+	}
+	// Without intervals.replicates the plan shows decompose's default;
+	// with replicates 0, none.
+	for _, c := range []struct {
+		spec fairness.Spec
+		want string
+	}{
+		{fairness.Spec{Intervals: fairness.Intervals{Level: 0.95}},
+			"  intervals   50 bootstrap replicates refitting the classifiers, normal form (estimate ± t × bootstrap standard error; a rate's group values and gap by score intervals), level 0.95 (decompose's default; --intervals 0 for none)\n"},
+		{fairness.Spec{Intervals: fairness.Intervals{Level: 0.95}, IntervalReplicatesGiven: true},
+			"  intervals   none (intervals.replicates: 0; decompose --intervals N adds them)\n"},
+		{fairness.Spec{Intervals: fairness.Intervals{Level: 0.95}, Estimator: "robust"},
+			"  intervals   influence-function Wald intervals of the robust estimator, no refits (decompose's default with estimator robust; --intervals N for the bootstrap)\n"},
+	} {
+		var b strings.Builder
+		if err := Plan(&b, &c.spec, p); err != nil {
+			t.Fatal(err)
+		}
+		if !strings.Contains(b.String(), c.want) {
+			t.Errorf("plan lacks %q:\n%s", c.want, b.String())
+		}
 	}
 }
 

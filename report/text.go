@@ -253,9 +253,7 @@ func (t *textWriter) inputs(res *fairness.Result) {
 	if s.ExactLimit > 0 {
 		tab.add("exact Shapley up to", fmt.Sprintf("%d mechanisms", s.ExactLimit))
 	}
-	if iv := intervalSetting(res); iv != "" {
-		tab.add("intervals", iv)
-	}
+	tab.add("intervals", intervalSettingOrNone(res))
 	if s := suppressionSetting(res); s != "" {
 		tab.add("small cells", s)
 	}

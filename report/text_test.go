@@ -111,10 +111,13 @@ func TestWriteTextNoIntervalsNoWarnings(t *testing.T) {
 	var b bytes.Buffer
 	_ = WriteText(&b, res)
 	out := b.String()
-	for _, bad := range []string{"SYNTHETIC", "interval", "[", "]"} {
+	for _, bad := range []string{"SYNTHETIC", "% interval", "[", "]"} {
 		if strings.Contains(out, bad) {
 			t.Errorf("unexpected %q in\n%s", bad, out)
 		}
+	}
+	if !strings.Contains(out, "intervals       "+noIntervals) {
+		t.Errorf("the settings do not say there are no intervals:\n%s", out)
 	}
 	if !strings.Contains(out, "Warnings (most serious first)\n  none") {
 		t.Errorf("no 'none' under Warnings:\n%s", out)
@@ -234,6 +237,7 @@ func ExampleWriteText() {
 	//
 	// Inputs and settings
 	//   seed            0
+	//   intervals       none (decompose adds them unless --intervals 0 or intervals.replicates: 0 turns them off); no value here shows its sampling error
 	//   missing values  an error
 	//
 	// Reporting items (TRIPOD+AI, model cards, EU AI Act Article 10): the appendix of the Markdown and HTML reports (--format markdown, or report.html with --out) lists which this report supplies, partly supplies or does not supply; it is not a compliance statement.

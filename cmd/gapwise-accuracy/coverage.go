@@ -35,6 +35,9 @@ const (
 	// methodRobustRefit: bootstrap of the robust estimator refitting the
 	// classifiers and regressions in every replicate.
 	methodRobustRefit = "robust-refit"
+	// methodGaps names the bootstrap of the observed gaps alone (-gaps),
+	// the same for refit and fast.
+	methodGaps = "bootstrap"
 )
 
 // groupSizes are the records of the two groups of one row of the study.
@@ -55,6 +58,10 @@ type coverageForm struct {
 	method     string
 	normal     bool
 	replicates int // the first replicates used (0 for delta)
+	// score: a rate's observed gap by its score interval
+	// (attribution.RateScoreIntervals), the rest as the normal form: what
+	// the engine's normal form gives.
+	score bool
 }
 
 func (f coverageForm) String() string {
@@ -65,7 +72,10 @@ func (f coverageForm) String() string {
 		return "robust, influence function"
 	}
 	shape := "percentile"
-	if f.normal {
+	switch {
+	case f.score:
+		shape = "normal+score"
+	case f.normal:
 		shape = "normal"
 	}
 	return fmt.Sprintf("%s %s, %d", f.method, shape, f.replicates)
@@ -77,7 +87,13 @@ func (f coverageForm) String() string {
 // delta intervals.
 func coverageForms(opt options) []coverageForm {
 	var out []coverageForm
-	for _, m := range opt.methods {
+	methods := opt.methods
+	if opt.gapsOnly {
+		// The observed gaps' intervals are the same in every bootstrap
+		// method.
+		methods = []string{methodGaps}
+	}
+	for _, m := range methods {
 		if m == methodDelta || m == methodInfluence {
 			continue
 		}
@@ -88,11 +104,12 @@ func coverageForms(opt options) []coverageForm {
 			}
 		}
 		for _, b := range counts {
-			out = append(out, coverageForm{method: m, replicates: b}, coverageForm{method: m, normal: true, replicates: b})
+			out = append(out, coverageForm{method: m, replicates: b}, coverageForm{method: m, normal: true, replicates: b},
+				coverageForm{method: m, normal: true, score: true, replicates: b})
 		}
 	}
 	for _, m := range opt.methods {
-		if m == methodDelta || m == methodInfluence {
+		if (m == methodDelta || m == methodInfluence) && !opt.gapsOnly {
 			out = append(out, coverageForm{method: m})
 		}
 	}
@@ -272,6 +289,9 @@ func runCoverage(opt options, stdout, stderr io.Writer) error {
 		for i, n := range c.Model.Nodes {
 			nodes[i] = n.Name
 		}
+		if opt.gapsOnly {
+			nodes = nil
+		}
 		for zi, size := range opt.groupSizes() {
 			start := time.Now()
 			draws := make([]drawIntervals, opt.draws)
@@ -284,6 +304,10 @@ func runCoverage(opt options, stdout, stderr io.Writer) error {
 				}
 				opt.onScale(s)
 				aopt := attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Workers: 1, Reads: c.Model.Reads()}
+				if opt.gapsOnly {
+					draws[d] = gapIntervals(s, opt, aopt, forms)
+					return
+				}
 				draws[d] = coverageIntervals(s, mechs, opt, aopt, forms)
 			})
 			cl := tallyCoverage(c.Name, c.Hard, size, nodes, forms, truth, draws)
@@ -349,11 +373,65 @@ func coverageIntervals(s *attribution.Sample, mechs []attribution.Mechanism, opt
 		pointDec = dec
 	}
 	for _, f := range forms {
-		ivs, err := formIntervals(f, pointDec, point[f.method], reps[f.method])
+		if f.method == methodInfluence {
+			ivs, err := influenceIntervals(point[f.method])
+			if err != nil {
+				return drawIntervals{err: err}
+			}
+			out.ivs = append(out.ivs, ivs)
+			continue
+		}
+		var est [][]float64
+		if d := point[f.method]; d != nil {
+			est = quantities(d.Metrics)
+		}
+		ivs, err := formIntervals(f, pointDec, est, reps[f.method], s, opt)
 		if err != nil {
 			return drawIntervals{err: err}
 		}
 		out.ivs = append(out.ivs, ivs)
+	}
+	return out
+}
+
+// gapIntervals returns one draw's intervals of the observed gaps alone
+// (-gaps), read off attribution.ObservedIntervals' replicates, the same
+// resamples the full bootstrap draws for the gap, which needs no
+// fitting; the score forms take a rate's gap from
+// attribution.RateScoreIntervals.
+func gapIntervals(s *attribution.Sample, opt options, aopt attribution.Options, forms []coverageForm) drawIntervals {
+	var out drawIntervals
+	reps := map[int][][][]float64{} // replicates used → replicate → metric → [gap]
+	var point [][]float64
+	for _, f := range forms {
+		if _, done := reps[f.replicates]; done {
+			continue
+		}
+		r := make([][][]float64, f.replicates)
+		md, err := attribution.ObservedIntervals(s, opt.metrics, aopt, attribution.BootstrapOptions{
+			Intervals: attribution.Intervals{Replicates: f.replicates, Level: coverageLevel, Form: attribution.FormPercentile},
+			Replicate: func(b int, md []attribution.MetricDecomposition) { r[b] = gapsOf(md) },
+		})
+		if err != nil {
+			return drawIntervals{err: err}
+		}
+		reps[f.replicates], point = r, gapsOf(md)
+	}
+	for _, f := range forms {
+		ivs, err := formIntervals(f, nil, point, reps[f.replicates], s, opt)
+		if err != nil {
+			return drawIntervals{err: err}
+		}
+		out.ivs = append(out.ivs, ivs)
+	}
+	return out
+}
+
+// gapsOf returns, per metric, the one-element list of its observed gap.
+func gapsOf(md []attribution.MetricDecomposition) [][]float64 {
+	out := make([][]float64, len(md))
+	for m, d := range md {
+		out[m] = []float64{d.Gap}
 	}
 	return out
 }
@@ -371,11 +449,9 @@ func quantities(md []attribution.MetricDecomposition) [][]float64 {
 // delta the Wald intervals of the point estimate dec with its
 // FixedRatioSE; for the bootstrap methods those read off the first
 // f.replicates replicates reps (failed ones left out) around the point
-// estimate boot of that method.
-func formIntervals(f coverageForm, dec, boot *attribution.Decomposition, reps [][][]float64) ([][]attribution.Interval, error) {
-	if f.method == methodInfluence {
-		return influenceIntervals(boot)
-	}
+// estimates est (per metric, in the order of reps' quantities), a rate's
+// gap (quantity 0) by its score interval on s for the score forms.
+func formIntervals(f coverageForm, dec *attribution.Decomposition, est [][]float64, reps [][][]float64, s *attribution.Sample, opt options) ([][]attribution.Interval, error) {
 	if f.method == methodDelta {
 		out := make([][]attribution.Interval, len(dec.Metrics))
 		for m, md := range dec.Metrics {
@@ -400,10 +476,15 @@ func formIntervals(f coverageForm, dec, boot *attribution.Decomposition, reps []
 	if len(ok) < 2 {
 		return nil, fmt.Errorf("%s: %d replicates computed", f, len(ok))
 	}
-	est := quantities(boot.Metrics)
 	out := make([][]attribution.Interval, len(est))
 	for m := range est {
 		for q := range est[m] {
+			if q == 0 && f.score {
+				if _, _, gap, isRate := attribution.RateScoreIntervals(s, opt.metrics[m], scm.ScreeningThreshold, coverageLevel); isRate {
+					out[m] = append(out[m], gap)
+					continue
+				}
+			}
 			x := make([]float64, len(ok))
 			for b, r := range ok {
 				x[b] = r[m][q]
@@ -464,7 +545,7 @@ func independentSample(m *scm.Model, nRef, nCmp int, seed uint64) (*attribution.
 func writeCoverage(w io.Writer, opt options, choice string, cells []coverageCell) {
 	fmt.Fprintf(w, "Coverage of %.0f%% intervals (learner %s; metrics %s; %d bootstrap replicates) against simulated ground truth (synthetic screening SCM; %d independent draws per row; ground truth from %d records per hybrid distribution).\n",
 		100*coverageLevel, choice, strings.Join(opt.metrics, ", "), opt.boot, opt.draws, opt.truthN)
-	fmt.Fprint(w, "Forms: refit = bootstrap refitting the classifiers in every replicate, fast = bootstrap keeping the fitted log-ratios, percentile = the 2.5% and 97.5% quantiles of the replicates, normal = estimate ± t(B−1) × bootstrap SE, the number the replicates used; delta = Wald intervals from delta-method SEs with the ratios held fixed. ")
+	fmt.Fprint(w, "Forms: refit = bootstrap refitting the classifiers in every replicate, fast = bootstrap keeping the fitted log-ratios (bootstrap = the observed gaps alone, the same in both), percentile = the 2.5% and 97.5% quantiles of the replicates, normal = estimate ± t(B−1) × bootstrap SE, normal+score = normal but a rate's gap by Newcombe's score interval (the engine's normal form), the number the replicates used; delta = Wald intervals from delta-method SEs with the ratios held fixed. ")
 	fmt.Fprintf(w, "n is records per group (reference:comparison when they differ), the groups drawn independently. ± is the Monte Carlo SE of the pooled share, clustered by draw; a single quantity's coverage over %d draws has a binomial SE of about %.3f at the nominal level.\n\n",
 		opt.draws, math.Sqrt(coverageLevel*(1-coverageLevel)/float64(opt.draws)))
 	fmt.Fprint(w, "| case | n | form | draws | gap | contributions | all | lowest quantity | mean width gap | mean width contributions | failed replicates |\n")

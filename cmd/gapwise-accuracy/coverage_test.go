@@ -10,6 +10,7 @@ import (
 
 	"github.com/gapwise/gapwise/attribution"
 	"github.com/gapwise/gapwise/internal/scm"
+	"gonum.org/v1/gonum/mat"
 )
 
 // TestTallyCoverage checks the counting by hand: the truth is gap 0.1 and
@@ -70,15 +71,17 @@ func TestTallyCoverage(t *testing.T) {
 	}
 }
 
-// TestCoverageForms: the percentile and normal forms of all replicates
-// and of every -subs count below -boot, per bootstrap method, then delta.
+// TestCoverageForms: the percentile, normal and normal+score forms of all
+// replicates and of every -subs count below -boot, per bootstrap method,
+// then delta.
 func TestCoverageForms(t *testing.T) {
 	opt := options{methods: []string{methodDelta, methodRefit, methodFast}, boot: 200, subs: []int{50, 400}}
 	var got []string
 	for _, f := range coverageForms(opt) {
 		got = append(got, f.String())
 	}
-	want := "refit percentile, 200|refit normal, 200|refit percentile, 50|refit normal, 50|fast percentile, 200|fast normal, 200|fast percentile, 50|fast normal, 50|delta, ratios fixed"
+	want := "refit percentile, 200|refit normal, 200|refit normal+score, 200|refit percentile, 50|refit normal, 50|refit normal+score, 50|" +
+		"fast percentile, 200|fast normal, 200|fast normal+score, 200|fast percentile, 50|fast normal, 50|fast normal+score, 50|delta, ratios fixed"
 	if strings.Join(got, "|") != want {
 		t.Errorf("forms %q, want %q", strings.Join(got, "|"), want)
 	}
@@ -108,8 +111,10 @@ func TestFormIntervals(t *testing.T) {
 		{coverageForm{method: methodRefit, replicates: 5}, 1 + 0.025*3, 1 + 0.975*3},
 		{coverageForm{method: methodRefit, normal: true, replicates: 5}, 10 - 3.1824*1.2910, 10 + 3.1824*1.2910},
 		{coverageForm{method: methodDelta}, 10 - 1.96*se, 10 + 1.96*se},
+		// A metric that is no rate keeps the normal interval in the score form.
+		{coverageForm{method: methodRefit, normal: true, score: true, replicates: 5}, 10 - 3.1824*1.2910, 10 + 3.1824*1.2910},
 	} {
-		got, err := formIntervals(c.form, dec, dec, reps)
+		got, err := formIntervals(c.form, dec, [][]float64{{10}}, reps, nil, options{metrics: []string{"brier"}})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -129,6 +134,31 @@ func equalInts(a, b []int) bool {
 		}
 	}
 	return true
+}
+
+// TestScoreForm: in the score form a rate's gap is Newcombe's interval of
+// the sample's counts: FNR 2 misses of 5 positives (comparison) against
+// 1 of 4 (reference), by hand from the formula of
+// attribution.NewcombeInterval: (0.4 − 0.25) − √((0.4 − 0.1176)² +
+// (0.6993 − 0.25)²) = −0.3806 and 0.15 + √((0.7693 − 0.4)² + (0.25 −
+// 0.0456)²) = 0.5722 (Wilson 1/4: (0.0456, 0.6993), 2/5: (0.1176,
+// 0.7693)).
+func TestScoreForm(t *testing.T) {
+	s := &attribution.Sample{X: mat.NewDense(9, 1, nil), Comparison: make([]bool, 9), Labels: make([]float64, 9), Scores: make([]float64, 9)}
+	// Reference rows 0–3 (one miss), comparison rows 4–8 (two misses); all positives.
+	for r := range 9 {
+		s.Labels[r], s.Scores[r] = 1, 0.9
+		s.Comparison[r] = r >= 4
+	}
+	s.Scores[0], s.Scores[4], s.Scores[5] = 0.1, 0.1, 0.2
+	reps := [][][]float64{{{0.1}}, {{0.2}}, {{0.3}}}
+	got, err := formIntervals(coverageForm{method: methodRefit, normal: true, score: true, replicates: 3}, nil, [][]float64{{0.15}}, reps, s, options{metrics: []string{"fnr"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if iv := got[0][0]; math.Abs(iv.Low+0.3806) > 2e-3 || math.Abs(iv.High-0.5722) > 2e-3 {
+		t.Errorf("score interval [%.4f, %.4f], want [-0.3806, 0.5722]", iv.Low, iv.High)
+	}
 }
 
 // TestCoverageFlags checks the coverage mode's defaults and that explicit

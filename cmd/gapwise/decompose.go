@@ -58,10 +58,15 @@ complete; an existing non-empty DIR is refused unless --force is given, and
 then the two files are replaced together. An output that is the same file as
 the spec or the data is refused.
 
---intervals N adds percentile bootstrap intervals from N replicates (default
-0: none, which keeps decompose fast) at --level (default 0.95); each replicate
-refits the classifiers unless --fast-intervals keeps the fitted ratios. The
-flags override the spec's intervals key.
+Intervals are on by default: 95% bootstrap intervals from 50 replicates that
+refit the classifiers, in the normal form (estimate ± t × bootstrap standard
+error), the form and count that held their level in the coverage study.
+--intervals N sets the replicates (0: no intervals), --level the level,
+--interval-form percentile reads the replicates' quantiles instead (default
+200 replicates then), and --fast-intervals keeps the fitted ratios (faster,
+but the contributions' intervals are then too narrow). Every output names how
+its intervals were made. The flags override the spec's intervals key one by
+one.
 
 The report's what-if panel reads the values of all coalitions of the
 mechanisms, kept for up to --coalition-limit mechanisms (default 12, at most
@@ -96,7 +101,8 @@ outputs; see the README's "Policy gate" section.`,
 	f.StringVar(&o.format, "format", formatText, "output on stdout: `text|json|markdown`")
 	f.IntVar(&o.workers, "workers", 0, "`N` goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty --out folder, replacing result.json and report.html")
-	bindIntervalFlags(cmd, &o.intervals, 0, false)
+	o.intervals.byDefault = true
+	bindIntervalFlags(cmd, &o.intervals, fairness.DefaultIntervals.Replicates, false, fairness.DefaultIntervals.Form)
 	bindCoalitionFlags(cmd, &o.coalitions)
 	bindAuditDateFlag(cmd, &o.date)
 	bindPolicyFlag(cmd, &o.policy)
@@ -148,7 +154,7 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	}
 	o.suppress.apply(spec)
 	out.inputs = inputFiles(o.spec, o.policy.file, spec.DataPath)
-	pol, err := o.policy.load(spec, o.intervals.runIntervals(spec.Intervals))
+	pol, err := o.policy.load(spec, o.intervals.runIntervals(spec))
 	if err != nil {
 		return err
 	}
@@ -255,7 +261,7 @@ func outputFiles(res *fairness.Result, coalitions bool) ([]outFile, error) {
 // and the flags and the coalition limit (fairness.RunOptions.CoalitionLimit),
 // showing progress on line.
 func audit(spec *fairness.Spec, workers int, iv intervalOptions, coalitionLimit int, line *progressLine) (*fairness.Result, error) {
-	ro := fairness.RunOptions{Workers: workers, Version: version, Intervals: iv.override(spec.Intervals),
+	ro := fairness.RunOptions{Workers: workers, Version: version, Intervals: iv.override(spec),
 		Progress: line.bootstrap(), SamplingProgress: line.sampling(), CoalitionLimit: coalitionLimit}
 	line.show("gapwise: estimating %d mechanisms for %d metrics ...", len(spec.Graph), len(spec.Metrics))
 	return fairness.Run(spec, ro)

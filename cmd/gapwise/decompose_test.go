@@ -183,7 +183,7 @@ func TestCheckDemo(t *testing.T) {
 	}
 	// The demo spec names its nodes and columns (spec key names), with units.
 	for _, want := range []string{"spec and data are valid", "SYNTHETIC", "red-cell indices | anaemia", "mean cell volume, fL (mcv); red-cell distribution width, % (rdw)",
-		"model       Demo anaemia screening model (version 1.0)", "reference men (male)", "5 mechanisms", "fnr, fpr, ppv", "intervals   none"} {
+		"model       Demo anaemia screening model (version 1.0)", "reference men (male)", "5 mechanisms", "fnr, fpr, ppv", "intervals   50 bootstrap replicates refitting the classifiers, normal form", "(decompose's default; --intervals 0 for none)"} {
 		if !strings.Contains(stdout.String(), want) {
 			t.Errorf("check output lacks %q:\n%s", want, stdout.String())
 		}

@@ -84,7 +84,7 @@ cohort.csv; the data, and so the result, are the same.`,
 	f.IntVar(&o.workers, "workers", 0, "`N` goroutines for estimation (0: one per CPU); results do not depend on it")
 	f.BoolVar(&o.force, "force", false, "write into a non-empty folder, replacing the demo's files")
 	f.IntVar(&o.model, "model", 1, "`VERSION` of the invented screening model that writes the score: 1 or 2")
-	bindIntervalFlags(cmd, &o.intervals, demoIntervals, false)
+	bindIntervalFlags(cmd, &o.intervals, demoIntervals, false, fairness.FormPercentile)
 	bindAuditDateFlag(cmd, &o.date)
 	f.BoolVar(&o.parquet, "parquet", false, "write the cohort as "+demoParquetData+" (Parquet) instead of "+demoData)
 	bindSuppressFlag(cmd, &o.suppress)

@@ -76,7 +76,7 @@ func TestBinary(t *testing.T) {
 	}
 	// The demo's default bootstrap: demoIntervals replicates at 0.95 that
 	// refit the classifiers.
-	if iv := res.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: demoIntervals, Level: 0.95, KeepRatios: false}}) {
+	if iv := res.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: demoIntervals, Level: 0.95, KeepRatios: false, Form: fairness.FormPercentile}, Method: "bootstrap-refit"}) {
 		t.Errorf("demo settings.intervals %+v", iv)
 	}
 
@@ -94,7 +94,7 @@ func TestBinary(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &got); err != nil {
 		t.Fatal(err)
 	}
-	if iv := got.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 4, Level: 0.9, KeepRatios: true}}) {
+	if iv := got.Settings.Intervals; iv == nil || *iv != (fairness.IntervalSettings{Intervals: fairness.Intervals{Replicates: 4, Level: 0.9, KeepRatios: true, Form: fairness.FormNormal}, Method: "bootstrap-fast"}) {
 		t.Errorf("spec intervals with --level 0.9: settings.intervals %+v", iv)
 	}
 

@@ -46,6 +46,7 @@ func TestExitCodes(t *testing.T) {
 		{"negative replicates", []string{"decompose", "--spec", "x.yaml", "--intervals", "-5"}, exitInput, "--intervals must be 0"},
 		{"level above 1", []string{"decompose", "--spec", "x.yaml", "--intervals", "50", "--level", "95"}, exitInput, "--level must be strictly between 0 and 1"},
 		{"level not a number", []string{"decompose", "--spec", "x.yaml", "--level", "high"}, exitInput, `invalid argument "high"`},
+		{"unknown interval form", []string{"decompose", "--spec", "x.yaml", "--interval-form", "bca"}, exitInput, `--interval-form must be normal or percentile, got "bca"`},
 		{"demo level 0", []string{"demo", "--level", "0", "--out", filepath.Join(dir, "d")}, exitInput, "--level must be strictly between 0 and 1"},
 		{"demo too few rows", []string{"demo", "--rows", "5", "--out", filepath.Join(dir, "d")}, exitInput, "--rows must be at least 100"},
 		{"demo too many rows", []string{"demo", "--rows", "2000001", "--out", filepath.Join(dir, "d")}, exitInput, "--rows must be at most 2000000"},

@@ -157,7 +157,7 @@ func TestPolicyInputErrors(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			var stdout, stderr bytes.Buffer
-			code := execute([]string{"decompose", "--spec", spec, "--policy", tc.policy}, &stdout, &stderr)
+			code := execute([]string{"decompose", "--spec", spec, "--policy", tc.policy, "--intervals", "0"}, &stdout, &stderr)
 			if code != exitInput || !strings.Contains(stderr.String(), tc.want) || stdout.Len() != 0 {
 				t.Errorf("exit %d, stderr %q, want 2 and %q", code, stderr.String(), tc.want)
 			}
@@ -166,7 +166,7 @@ func TestPolicyInputErrors(t *testing.T) {
 	// With unjudged: breach the same rule runs and counts as a breach.
 	p := write("lenient.yaml", "unjudged: breach\nrules:\n  - {metric: selection_rate, min_ratio: 0.8, judge: worst_bound}\n")
 	var stdout, stderr bytes.Buffer
-	if code := execute([]string{"decompose", "--spec", filepath.Join(dir, "spec-Hispanic.yaml"), "--policy", p}, &stdout, &stderr); code != exitPolicy || !strings.Contains(stdout.String(), "not judged, counted as a breach") {
+	if code := execute([]string{"decompose", "--spec", filepath.Join(dir, "spec-Hispanic.yaml"), "--policy", p, "--intervals", "0"}, &stdout, &stderr); code != exitPolicy || !strings.Contains(stdout.String(), "not judged, counted as a breach") {
 		t.Errorf("unjudged: breach: exit %d, stdout %s", code, stdout.String())
 	}
 }
