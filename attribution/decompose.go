@@ -94,6 +94,7 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 		return nil, nil, err
 	}
 	effectiveRecords(out.Metrics, sides, opt)
+	out.sens = &sensitivityInput{side: sides[0], threshold: opt.Threshold, exact: len(ratios) <= exactLimit(opt)}
 	return out, ratios, nil
 }
 

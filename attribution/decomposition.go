@@ -82,6 +82,10 @@ type Decomposition struct {
 	// Weights describes, per side used (reference first), the weights
 	// that emulate the hybrid distributions on that side's records.
 	Weights []SideWeights
+
+	// sens keeps the point estimate's first side for Sensitivity (nil in
+	// bootstrap replicates and splits after the first).
+	sens *sensitivityInput
 }
 
 // SideWeights summarises the importance weights of one side.
