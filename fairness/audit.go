@@ -103,7 +103,11 @@ func Run(spec *Spec, opt RunOptions) (*Result, error) {
 	if spec.SuppressBelow > 0 {
 		r.Suppression = planSuppression(r, spec.SuppressBelow) // before the warnings, which word withheld counts so
 	}
+	if r.HiddenFactor, err = hiddenFactor(spec, dec, mechanismNodes(dec)); err != nil {
+		return nil, err
+	}
 	r.Warnings = Warnings(r) // after Settings.Intervals, whose failed replicates it reports
+	r.Warnings = append(r.Warnings, hiddenFactorWarnings(r)...)
 	setReliability(r)
 	setHeadlines(r)
 	r.Assumptions = Assumptions(spec.ScoreIsNode(), spec.Synthetic)

@@ -56,6 +56,10 @@ type Result struct {
 	// --suppress-below) is set, lists the counts withheld as small cells
 	// (null in JSON, 0 here) and what stays shown; see Suppression.
 	Suppression *Suppression `json:"suppression,omitempty"`
+	// HiddenFactor is the sensitivity of the contributions to an
+	// unrecorded factor (spec key hidden_factor; see HiddenFactor);
+	// absent when the spec turns it off.
+	HiddenFactor *HiddenFactor `json:"hidden_factor,omitempty"`
 }
 
 // ToolInfo names the program that produced the result.

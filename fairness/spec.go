@@ -64,6 +64,7 @@ import (
 //	  columns: {mcv: {name: mean cell volume, unit: fL}}
 //	model: {name: anaemia risk score, version: "2.1"}  # the audited model
 //	audit_date: 2026-12-03  # shown in the reports and the result; omit for none
+//	hidden_factor: {factors: [1.1, 1.25, 1.5, 2]}  # sensitivity to an unrecorded factor; off for none
 //	suppress_below: 10   # withhold counts from 1 to 9 in the outputs (Suppression); omit or 0 for none
 type Spec struct {
 	File     string // spec path as given ("" when parsed from bytes without a name)
@@ -122,8 +123,10 @@ type Spec struct {
 	// intervals.replicates. Without it Run computes no intervals, while
 	// `gapwise decompose` uses DefaultIntervals.
 	IntervalReplicatesGiven bool
-	Synthetic               bool
-	Title                   string
+	// HiddenFactor holds the hidden_factor key (sensitivity_spec.go).
+	HiddenFactor HiddenFactorSpec
+	Synthetic    bool
+	Title        string
 	// Names holds the names key; nil when absent.
 	Names *NamesSpec
 	// Model names the audited model (key model); nil when absent.
@@ -502,6 +505,8 @@ func (p *specParser) key(s *Spec, k, v *yaml.Node) error {
 		err = p.model(s, v)
 	case "audit_date":
 		err = p.auditDate(s, v)
+	case "hidden_factor":
+		err = p.hiddenFactor(s, v)
 	case "suppress_below":
 		err = p.decode(k.Value, v, &s.SuppressBelow, "an integer")
 		if err == nil {

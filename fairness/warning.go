@@ -131,6 +131,11 @@ const (
 	// KindBootstrapFailures (note): some bootstrap replicates could not be
 	// computed; the intervals rest on the others.
 	KindBootstrapFailures WarningKind = "bootstrap_failures"
+	// KindHiddenFactor (note): an unrecorded factor that shifts the odds
+	// of group membership by up to FragileFactor could reverse a clear
+	// conclusion (the sign of the leading contribution or of the
+	// estimated gap; hiddenFactorWarnings), one warning for all metrics.
+	KindHiddenFactor WarningKind = "hidden_factor_could_reverse"
 )
 
 // Severity grades a Warning, and the Reliability verdict on a mechanism.

@@ -89,6 +89,7 @@ var warningReasons = map[fairness.WarningKind]string{
 	fairness.KindSplitDependent:      "the contribution still moves with the seed (the fold split)",
 	fairness.KindOutlyingValues:      "some values are outside their typical range",
 	fairness.KindBootstrapFailures:   "some bootstrap replicates failed",
+	fairness.KindHiddenFactor:        "an unrecorded factor could reverse a clear conclusion",
 }
 
 // warningReason is the cause of w as a clause (warningReasons, or its
