@@ -5,6 +5,7 @@ import (
 	"math"
 	"sort"
 
+	"github.com/gapwise/gapwise/internal/rank"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -165,7 +166,8 @@ const RatioStrata = 5
 // WorstStratumMean checks E_ref[r_i | pa_i] = 1, which holds for the true
 // ratio r_i = P_cmp(x_i | pa_i)/P_ref(x_i | pa_i) at every value of the
 // parents. It sorts the records by key (a summary of the parents, such as
-// the parent classifier's out-of-fold log-odds; ties keep record order),
+// the parent classifier's out-of-fold log-odds; ties keep record order; in
+// O(n) by a radix sort, rank.Ascending),
 // cuts them into RatioStrata strata of (nearly) equal size, and returns the
 // stratum mean of r_i = exp(logr) farthest from 1 on the log scale. With a
 // nil key (a root node) there is one stratum, all records. It returns NaN
@@ -176,23 +178,26 @@ func WorstStratumMean(logr, key []float64) float64 {
 		return math.NaN()
 	}
 	strata := 1
-	order := make([]int, n)
-	for r := range order {
-		order[r] = r
-	}
+	var order []int32
 	if key != nil {
 		if len(key) != n {
 			panic("attribution: WorstStratumMean: key and logr differ in length")
 		}
 		strata = min(RatioStrata, n)
-		sort.SliceStable(order, func(a, b int) bool { return key[order[a]] < key[order[b]] })
+		order = stableOrder(key)
 	}
 	worst := 1.0
 	for q := 0; q < strata; q++ {
 		lo, hi := splitRange(n, strata, q)
 		var s float64
-		for _, r := range order[lo:hi] {
-			s += math.Exp(logr[r])
+		if order == nil {
+			for _, x := range logr {
+				s += math.Exp(x)
+			}
+		} else {
+			for _, r := range order[lo:hi] {
+				s += math.Exp(logr[r])
+			}
 		}
 		m := s / float64(hi-lo)
 		if math.Abs(math.Log(m)) > math.Abs(math.Log(worst)) {
@@ -200,6 +205,21 @@ func WorstStratumMean(logr, key []float64) float64 {
 		}
 	}
 	return worst
+}
+
+// stableOrder returns the record indices sorted by key, ties in record
+// order: in O(n) by rank.Ascending, or with a NaN key, which that order
+// does not place, by the stable comparison sort of key < key.
+func stableOrder(key []float64) []int32 {
+	if order, ok := rank.Ascending(key); ok {
+		return order
+	}
+	order := make([]int32, len(key))
+	for r := range order {
+		order[r] = int32(r)
+	}
+	sort.SliceStable(order, func(a, b int) bool { return key[order[a]] < key[order[b]] })
+	return order
 }
 
 // keyCoalitions returns ∅, N, then {i} and N∖{i} for each mechanism i: the

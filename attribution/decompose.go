@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 
+	"github.com/gapwise/gapwise/internal/workers"
 	"github.com/gapwise/gapwise/metrics"
 )
 
@@ -102,7 +103,10 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 // (reference first; see Side): each holds that side's labels, scores and
 // per-mechanism log-ratios, clipped by sideLogRatios. With diag it also
 // returns every mechanism's diagnostics (mechanismReport), in mechanism
-// order; without, nil.
+// order; without, nil. Mechanisms run in parallel on opt.Workers
+// goroutines (each reads every record once or a few times: O(n) per
+// mechanism, see mechanismReport); the results do not depend on their
+// number.
 func estimateSides(s *Sample, ratios []MechanismRatio, g groupSplit, opt Options, side Side, diag bool) ([]*sideEstimate, []MechanismReport, error) {
 	useRef := side != SideComparison
 	useCmp := side != SideReference
@@ -113,17 +117,30 @@ func estimateSides(s *Sample, ratios []MechanismRatio, g groupSplit, opt Options
 	}
 	member := s.comparisonLabels()
 	var reports []MechanismReport
-	for i, mr := range ratios {
+	if diag {
+		reports = make([]MechanismReport, len(ratios))
+	}
+	// Mechanisms in parallel, each writing its own slots; the first error
+	// in mechanism order is returned, as a serial loop would.
+	errs := make([]error, len(ratios))
+	workers.For(opt.Workers, len(ratios), func(_, i int) {
+		mr := ratios[i]
 		ref, cmp, clipped, err := sideLogRatios(mr, g, opt, useRef, useCmp)
 		if err != nil {
-			return nil, nil, err
+			errs[i] = err
+			return
 		}
 		logr[i] = ref
 		if useCmp {
 			logrCmp[i] = cmp
 		}
 		if diag {
-			reports = append(reports, mechanismReport(mr, g, ref, cmp, clipped, member))
+			reports[i] = mechanismReport(mr, g, ref, cmp, clipped, member)
+		}
+	})
+	for _, err := range errs {
+		if err != nil {
+			return nil, nil, err
 		}
 	}
 	var sides []*sideEstimate
@@ -176,7 +193,6 @@ func mechanismReport(mr MechanismRatio, g groupSplit, ref, cmp []float64, clippe
 		Losses:            mr.Losses,
 		ExtremeShare:      ExtremeShare(raw),
 		TailShape:         TailShape(raw),
-		MeanRatio:         SummariseLogWeights(raw).MeanRatio,
 		ClippedReference:  clipped[0],
 		ClippedComparison: clipped[1],
 	}
@@ -190,6 +206,13 @@ func mechanismReport(mr MechanismRatio, g groupSplit, ref, cmp []float64, clippe
 	}
 	rep.WorstStratumMean = WorstStratumMean(raw, key)
 	ws := SummariseLogWeights(ref)
+	if clipped[0] != 0 || len(ref) != len(raw) {
+		// Clipping changed ref; otherwise it holds raw's values and the
+		// one summary serves both.
+		rep.MeanRatio = SummariseLogWeights(raw).MeanRatio
+	} else {
+		rep.MeanRatio = ws.MeanRatio
+	}
 	rep.ESS, rep.MaxShare = ws.ESS, ws.MaxShare
 	if cmp != nil {
 		neg := make([]float64, len(cmp))

@@ -2,7 +2,10 @@ package attribution
 
 import (
 	"math"
+	"slices"
 	"sort"
+
+	"github.com/gapwise/gapwise/internal/rank"
 )
 
 // Tail-shape thresholds for importance weights (Vehtari, Simpson, Gelman,
@@ -28,7 +31,8 @@ const (
 //
 // If the weights are distributed like a Pareto variable with tail index α,
 // k = 1/α: the r-th moment of w exists iff r < 1/k, so k > 1/2 means
-// infinite variance. It returns NaN when fewer than 5 tail records exist
+// infinite variance. It reads the tail by selection (topSorted), in O(n).
+// It returns NaN when fewer than 5 tail records exist
 // or the tail is flat.
 func TailShape(logw []float64) float64 {
 	n := len(logw)
@@ -36,8 +40,7 @@ func TailShape(logw []float64) float64 {
 	if m < 5 || n <= m {
 		return math.NaN()
 	}
-	lw := append([]float64(nil), logw...)
-	sort.Float64s(lw)
+	lw := topSorted(logw, m+1)
 	// Work relative to the largest weight to avoid overflow.
 	top := lw[n-1]
 	u := math.Exp(lw[n-m-1] - top)
@@ -49,6 +52,25 @@ func TailShape(logw []float64) float64 {
 		return math.NaN()
 	}
 	return gpdShape(x)
+}
+
+// topSorted returns a copy of v whose last t values are the t largest of v
+// in ascending order, the same values a full sort puts there: by
+// quickselect of the (n−t)-th smallest value (rank.SelectKth) and a sort of
+// the t values above it. With a NaN in v, which selection does not handle,
+// the whole copy is sorted (NaN first, as sort.Float64s does).
+func topSorted(v []float64, t int) []float64 {
+	c := append([]float64(nil), v...)
+	for _, x := range c {
+		if x != x {
+			sort.Float64s(c)
+			return c
+		}
+	}
+	k := len(c) - t
+	rank.SelectKth(c, k)
+	slices.Sort(c[k:])
+	return c
 }
 
 // gpdShape is the Zhang–Stephens estimate of the generalised Pareto shape

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"slices"
+
+	"github.com/gapwise/gapwise/internal/rank"
 )
 
 // AUC returns the weighted area under the ROC curve, which equals the
@@ -14,7 +16,7 @@ import (
 //
 // where W₊ and W₋ are the total weights of events and non-events: the
 // probability that a random event scores above a random non-event, ties
-// counting one half. It runs in O(n log n) by sorting. A label equal to 1 is
+// counting one half. It runs in O(n) by a radix sort of the scores. A label equal to 1 is
 // an event, any other label a non-event; scores must not be NaN. If w is nil
 // every record weighs 1. Without positive weight in both classes it returns
 // NaN and an error wrapping ErrUndefined. It panics if the slices differ in
@@ -35,7 +37,8 @@ type AUCSorter struct {
 	ends  []int32   // ends[g] is one past the last position of tie group g
 }
 
-// NewAUCSorter sorts the records by score once. Labels and scores are not
+// NewAUCSorter sorts the records by score once, in O(n) by a radix sort
+// (rank.Ascending), ties in record order. Labels and scores are not
 // retained. It panics if the slices differ in length or hold more than
 // 2³¹−1 records.
 func NewAUCSorter(labels, scores []float64) *AUCSorter {
@@ -44,29 +47,17 @@ func NewAUCSorter(labels, scores []float64) *AUCSorter {
 	if n > math.MaxInt32 {
 		panic("metrics: NewAUCSorter: too many records")
 	}
-	// Sorting (score, index) pairs keeps the keys unique, so the order is
-	// fully determined without a stable sort, and compares stay in cache.
-	type keyed struct {
-		s float64
-		i int32
+	order, ok := rank.Ascending(scores)
+	if !ok {
+		order = compareOrder(scores)
 	}
-	recs := make([]keyed, n)
-	for i, sc := range scores {
-		recs[i] = keyed{sc, int32(i)}
-	}
-	slices.SortFunc(recs, func(a, b keyed) int {
-		switch {
-		case a.s < b.s:
-			return -1
-		case a.s > b.s:
-			return 1
-		}
-		return int(a.i - b.i)
-	})
-	order := make([]int32, n)
-	for k, r := range recs {
-		order[k] = r.i
-	}
+	return sorterFrom(labels, scores, order)
+}
+
+// sorterFrom builds the AUCSorter of records in the given ascending order
+// of scores.
+func sorterFrom(labels, scores []float64, order []int32) *AUCSorter {
+	n := len(order)
 	s := &AUCSorter{order: order, y: make([]float64, n)}
 	for k, i := range order {
 		s.y[k] = event(labels[i])
@@ -154,4 +145,32 @@ func (s *AUCSorter) sweep(w []float64, perm []int32) (float64, error) {
 		return math.NaN(), fmt.Errorf("%w: %s needs both events and non-events (weights %g and %g)", ErrUndefined, NameAUC, pos, negBelow)
 	}
 	return num / (pos * negBelow), nil
+}
+
+// compareOrder is the order NewAUCSorter used before rank.Ascending, kept
+// for scores with a NaN, which no order ranks: a comparison sort of
+// (score, index) pairs, a NaN comparing equal to every score.
+func compareOrder(scores []float64) []int32 {
+	type keyed struct {
+		s float64
+		i int32
+	}
+	recs := make([]keyed, len(scores))
+	for i, sc := range scores {
+		recs[i] = keyed{sc, int32(i)}
+	}
+	slices.SortFunc(recs, func(a, b keyed) int {
+		switch {
+		case a.s < b.s:
+			return -1
+		case a.s > b.s:
+			return 1
+		}
+		return int(a.i - b.i)
+	})
+	order := make([]int32, len(scores))
+	for k, r := range recs {
+		order[k] = r.i
+	}
+	return order
 }

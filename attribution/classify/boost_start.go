@@ -4,6 +4,8 @@ import (
 	"math"
 	"slices"
 
+	"github.com/gapwise/gapwise/internal/rank"
+
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -51,10 +53,10 @@ func (b Boosted) fitStart(x *mat.Dense, y, wn []float64, train, valid []int32, b
 	if k := b.MinLeafRows; len(zt) > 2*k {
 		v := slices.Clone(zt)
 		if finite(v) {
-			// Two selections instead of a sort (selectKth): the second
+			// Two selections instead of a sort (rank.SelectKth): the second
 			// works on the values at or above the first.
-			start.lo = selectKth(v, k)
-			start.hi = selectKth(v[k:], len(v)-1-2*k)
+			start.lo = rank.SelectKth(v, k)
+			start.hi = rank.SelectKth(v[k:], len(v)-1-2*k)
 		} else {
 			slices.Sort(v)
 			start.lo, start.hi = v[k], v[len(v)-1-k]

@@ -3,6 +3,8 @@ package classify
 import (
 	"math"
 	"slices"
+
+	"github.com/gapwise/gapwise/internal/rank"
 )
 
 // Bounds of a column's typical range (TypicalRange).
@@ -57,14 +59,14 @@ func TypicalRange(x, w []float64) (lo, hi float64) {
 	klo, khi := at(TypicalLowQuantile), at(TypicalHighQuantile)
 	var qlo, qhi float64
 	if hasNaN {
-		// NaN sorts first (slices.Sort), which selectKth does not handle.
+		// NaN sorts first (slices.Sort), which rank.SelectKth does not handle.
 		slices.Sort(v)
 		qlo, qhi = v[klo], v[khi]
 	} else {
 		// Two selections instead of a sort: the second works on the
-		// values at or above q₀₁, which selectKth left from klo on.
-		qlo = selectKth(v, klo)
-		qhi = selectKth(v[klo:], khi-klo)
+		// values at or above q₀₁, which rank.SelectKth left from klo on.
+		qlo = rank.SelectKth(v, klo)
+		qhi = rank.SelectKth(v[klo:], khi-klo)
 	}
 	span := qhi - qlo
 	if span == 0 || math.IsInf(span, 0) {

@@ -1,4 +1,4 @@
-package classify
+package rank
 
 import (
 	"math/rand/v2"
@@ -48,7 +48,7 @@ func TestSelectKth(t *testing.T) {
 			slices.Sort(want)
 			for _, k := range []int{0, n / 100, n / 2, n - 1 - n/100, n - 1} {
 				v := slices.Clone(base)
-				if got := selectKth(v, k); got != want[k] {
+				if got := SelectKth(v, k); got != want[k] {
 					t.Fatalf("%s n=%d k=%d: %v, want %v", name, n, k, got, want[k])
 				}
 				for i, x := range v {

@@ -1,11 +1,11 @@
-package classify
+package rank
 
 import (
 	"math/bits"
 	"slices"
 )
 
-// selectKth reorders v so that v[k] is the value the k-th position of
+// SelectKth reorders v so that v[k] is the value the k-th position of
 // sorted v holds, every v[i] with i < k is ≤ v[k] and every v[i] with
 // i > k is ≥ v[k], and returns v[k] (an order statistic without a full
 // sort). v must hold no NaN. It is Hoare's quickselect ("Algorithm 65:
@@ -16,9 +16,9 @@ import (
 // the worst case is O(n log n). The pivots depend only on the values, so
 // the result and the reordering are deterministic. It panics if k is out
 // of range.
-func selectKth(v []float64, k int) float64 {
+func SelectKth(v []float64, k int) float64 {
 	if k < 0 || k >= len(v) {
-		panic("classify: selectKth: k out of range")
+		panic("rank: SelectKth: k out of range")
 	}
 	lo, hi := 0, len(v)-1
 	budget := 2 * bits.Len(uint(len(v)))
