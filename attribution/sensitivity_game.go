@@ -5,9 +5,10 @@ import (
 	"math/bits"
 )
 
-// sensitivityCacheLimit caps the weights kept between evaluations of a
-// continuous metric's coalition bounds (2^k coalitions × records of the
-// metric, 8 bytes each: 32 MiB); above it they are recomputed.
+// sensitivityCacheLimit caps the running sums kept between evaluations of
+// a continuous metric's coalition bounds (2^k coalitions × records of the
+// metric, two sums and f of 8 bytes each: 96 MiB); above it the weights
+// are recomputed and scanned at every evaluation.
 const sensitivityCacheLimit = 1 << 22
 
 // gameBounder evaluates, for one metric on one side's records, the bounds
@@ -25,10 +26,10 @@ type gameBounder struct {
 	f      []float64 // per record of the side
 	binary bool
 	// ones[S], zeros[S]: Σ w over the records with f = 1 and f = 0 (binary
-	// metrics); weights[S]: the weights over order (continuous metrics,
+	// metrics); sums[S]: the running sums over order (continuous metrics,
 	// when they fit sensitivityCacheLimit).
 	ones, zeros []float64
-	weights     [][]float64
+	sums        []prefixSums
 }
 
 func newGameBounder(side *sideEstimate, f []float64, keep []bool, binary bool) *gameBounder {
@@ -52,10 +53,10 @@ func newGameBounder(side *sideEstimate, f []float64, keep []bool, binary bool) *
 	if binary {
 		g.ones, g.zeros = make([]float64, n), make([]float64, n)
 	} else if n*len(order) <= sensitivityCacheLimit {
-		g.weights = make([][]float64, n)
+		g.sums = make([]prefixSums, n)
 	}
 	for S := 0; S < n; S++ {
-		if g.ones == nil && g.weights == nil {
+		if g.ones == nil && g.sums == nil {
 			break
 		}
 		w := g.coalitionWeights(uint64(S))
@@ -69,7 +70,7 @@ func newGameBounder(side *sideEstimate, f []float64, keep []bool, binary bool) *
 			}
 			continue
 		}
-		g.weights[S] = w
+		g.sums[S] = newPrefixSums(order, f, w)
 	}
 	return g
 }
@@ -123,13 +124,10 @@ func (g *gameBounder) coalitionBounds(S uint64, lambda float64) (lo, hi float64)
 		}
 		return (a / lambda) / (a/lambda + b*lambda), (a * lambda) / (a*lambda + b/lambda)
 	}
-	var w []float64
-	if g.weights != nil {
-		w = g.weights[S]
-	} else {
-		w = g.coalitionWeights(S)
+	if g.sums != nil {
+		return g.sums[S].bounds(lambda)
 	}
-	return boundsSorted(g.order, g.f, w, lambda)
+	return boundsSorted(g.order, g.f, g.coalitionWeights(S), lambda)
 }
 
 // shapleyBounds returns conservative bounds of every Shapley value of the

@@ -107,3 +107,47 @@ func extremeMean(order []int, f, w []float64, down, up float64, upper bool) floa
 	}
 	return best
 }
+
+// prefixSums holds, over records in ascending order of f, the running
+// sums PW[j] = Σ_{a<j} w and PF[j] = Σ_{a<j} w·f (j = 0..n), from which
+// the mean at any split point and any Λ is O(1).
+type prefixSums struct {
+	f      []float64 // f in the same order
+	PW, PF []float64
+}
+
+func newPrefixSums(order []int, f, w []float64) prefixSums {
+	p := prefixSums{f: make([]float64, len(order)), PW: make([]float64, len(order)+1), PF: make([]float64, len(order)+1)}
+	for a, r := range order {
+		p.f[a] = f[r]
+		p.PW[a+1] = p.PW[a] + w[r]
+		p.PF[a+1] = p.PF[a] + w[r]*f[r]
+	}
+	return p
+}
+
+// bounds is boundsSorted from the running sums, in O(log n): with the
+// first j records at factor b and the rest at a, the mean is
+//
+//	g(j) = (b·PF_j + a·(PF_n − PF_j)) / (b·PW_j + a·(PW_n − PW_j)),
+//
+// and moving record j across improves the extreme exactly when f_j < g(j)
+// (for the maximum b = 1/Λ, a = Λ; for the minimum b = Λ, a = 1/Λ). As f
+// rises along the order and g stops improving once f_j ≥ g(j), that
+// condition is false and then true, so the best split is the first j
+// where it holds, found by bisection (sort.Search).
+func (p prefixSums) bounds(lambda float64) (lo, hi float64) {
+	n := len(p.f)
+	if lambda == 1 {
+		m := p.PF[n] / p.PW[n]
+		return m, m
+	}
+	best := func(b, a float64) float64 {
+		g := func(j int) float64 {
+			return (b*p.PF[j] + a*(p.PF[n]-p.PF[j])) / (b*p.PW[j] + a*(p.PW[n]-p.PW[j]))
+		}
+		j := sort.Search(n, func(j int) bool { return p.f[j] >= g(j) })
+		return g(j)
+	}
+	return best(lambda, 1/lambda), best(1/lambda, lambda)
+}

@@ -194,3 +194,33 @@ func TestSmallestFactorBisection(t *testing.T) {
 		t.Fatal("a condition holding at 1 must give 1")
 	}
 }
+
+// The running-sum bisection of prefixSums must give the scan's extremes
+// (boundsSorted, itself checked against the box's vertices above) on
+// larger random inputs with ties and zero weights.
+func TestPrefixSumsMatchScan(t *testing.T) {
+	rng := rand.New(rand.NewPCG(9, 2))
+	for trial := 0; trial < 300; trial++ {
+		n := 1 + rng.IntN(200)
+		f, w := make([]float64, n), make([]float64, n)
+		for r := range f {
+			f[r] = float64(rng.IntN(1 + trial%7))
+			if trial%2 == 0 {
+				f[r] = rng.NormFloat64()
+			}
+			w[r] = math.Exp(2 * rng.NormFloat64())
+			if r > 0 && rng.IntN(5) == 0 {
+				w[r] = 0
+			}
+		}
+		order := sortedByValue(f)
+		p := newPrefixSums(order, f, w)
+		for _, l := range []float64{1, 1.1, 1.25, 2, 7} {
+			lo, hi := p.bounds(l)
+			slo, shi := boundsSorted(order, f, w, l)
+			if math.Abs(lo-slo) > 1e-9*(1+math.Abs(slo)) || math.Abs(hi-shi) > 1e-9*(1+math.Abs(shi)) {
+				t.Fatalf("trial %d Λ %v: running sums [%v, %v], scan [%v, %v]", trial, l, lo, hi, slo, shi)
+			}
+		}
+	}
+}

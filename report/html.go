@@ -115,6 +115,7 @@ type page struct {
 	Gate            *gateView  // the policy section (html_policy.go), nil without a policy
 	ImpactNote      string     // what the ratio beside a rate's gap is (impactNote), or ""
 	Crosswalk       crosswalkView
+	HiddenFactor    *hiddenView // the sensitivity section (sensitivity_html.go), nil without one
 }
 
 type keyValue struct{ Key, Value string }
@@ -249,6 +250,9 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	}
 	if res.Inputs.DataFile == "" {
 		p.Cohort = "the audited records"
+	}
+	if len(res.Metrics) > 0 {
+		p.HiddenFactor = hiddenPage(res, res.Metrics[0].Metric)
 	}
 	if res.Title != "" {
 		p.Title = res.Title

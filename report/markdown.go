@@ -33,6 +33,7 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 	for _, m := range res.Metrics {
 		mdDecomposition(p, res, m, flags)
 	}
+	mdHiddenFactor(p, res)
 	if len(res.Assumptions) > 0 {
 		p("### Assumptions and cautions\n\n")
 		for _, a := range res.Assumptions {

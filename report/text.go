@@ -38,6 +38,7 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 	for i, m := range res.Metrics {
 		tw.metric(res, i, m)
 	}
+	tw.hiddenFactor(res)
 	tw.diagnostics(res)
 	tw.list("Assumptions and cautions", res.Assumptions, "")
 	tw.inputs(res)
