@@ -29,76 +29,15 @@ import (
 // when the Shapley values were sampled), and which metrics have one (not
 // AUC, nor a metric undefined under a coalition on a side).
 func prepareWeightingInfluence(mds []MetricDecomposition, sides []*sideEstimate, g groupSplit, names []string, p influencePlan, opt Options) (func(lo, hi int) recordInfluence, []bool) {
-	nm := len(names)
-	defined := make([]bool, nm)
-	for m := range defined {
-		defined[m] = names[m] != metrics.NameAUC
-	}
-	full := uint64(1)<<p.k - 1
-	ins := make([]deltaInput, len(sides))
-	logc := make([][]float64, len(sides))
-	grads := make([][][][]float64, len(sides))
-	for j, e := range sides {
-		ins[j] = deltaInput{y: e.y, s: e.s, logr: e.logr, names: names, threshold: opt.Threshold, bins: opt.ECEBins, wc: make([]uint64, len(p.cs))}
-		for c, S := range p.cs {
-			ins[j].wc[c] = e.weightCoalition(S, full)
-		}
-		logc[j] = ins[j].logScales()
-		grads[j] = ins[j].gradients(logc[j])
-		for c := range p.cs {
-			for m := range names {
-				if grads[j][c][m] == nil {
-					defined[m] = false
-				}
-			}
-		}
-	}
-	// lambda[m][c]: the weight of sides[0].
-	lambda := make([][]float64, nm)
-	var ess [][]float64
-	for m := range lambda {
-		lambda[m] = make([]float64, len(p.cs))
-		for c := range lambda[m] {
-			switch {
-			case len(sides) == 1:
-				lambda[m][c] = 1
-			case mds[m].ReferenceWeight != nil:
-				lambda[m][c] = *mds[m].ReferenceWeight
-			default:
-				if ess == nil {
-					ess = essSomeSides(sides, p.cs)
-				}
-				a, b := ess[0][c], ess[1][c]
-				switch {
-				case math.IsNaN(a):
-					lambda[m][c] = 0
-				case math.IsNaN(b):
-					lambda[m][c] = 1
-				default:
-					lambda[m][c] = a / (a + b)
-				}
-			}
-		}
-	}
-	side := make([]int, len(g.refIdx)+len(g.cmpIdx))
-	pos := make([]int, len(side))
-	for j, e := range sides {
-		idx := g.refIdx
-		if e.side == SideComparison {
-			idx = g.cmpIdx
-		}
-		for a, r := range idx {
-			side[r], pos[r] = j+1, a
-		}
-	}
+	ins, logc, grads, defined := weightingSideInputs(sides, names, p, opt)
+	lambda := sideShares(mds, sides, len(names), p.cs)
+	side, pos := recordSides(sides, g)
 	return func(lo, hi int) recordInfluence {
 		subset := make([]float64, 1<<p.k)
 		return func(a int, u [][]float64) {
 			i := lo + a
 			for m := range u {
-				for c := range u[m] {
-					u[m][c] = 0
-				}
+				clear(u[m])
 			}
 			j := side[i] - 1
 			if j < 0 {
@@ -137,6 +76,90 @@ func prepareWeightingInfluence(mds []MetricDecomposition, sides []*sideEstimate,
 			}
 		}
 	}, defined
+}
+
+// weightingSideInputs returns, per side, the delta-method inputs with the
+// coalitions' weight masks, their log scales and the gradients of every
+// metric, and which metrics are defined on every side and coalition.
+func weightingSideInputs(sides []*sideEstimate, names []string, p influencePlan, opt Options) ([]deltaInput, [][]float64, [][][][]float64, []bool) {
+	defined := make([]bool, len(names))
+	for m := range defined {
+		defined[m] = names[m] != metrics.NameAUC
+	}
+	full := uint64(1)<<p.k - 1
+	ins := make([]deltaInput, len(sides))
+	logc := make([][]float64, len(sides))
+	grads := make([][][][]float64, len(sides))
+	for j, e := range sides {
+		ins[j] = deltaInput{y: e.y, s: e.s, logr: e.logr, names: names, threshold: opt.Threshold, bins: opt.ECEBins, wc: make([]uint64, len(p.cs))}
+		for c, S := range p.cs {
+			ins[j].wc[c] = e.weightCoalition(S, full)
+		}
+		logc[j] = ins[j].logScales()
+		grads[j] = ins[j].gradients(logc[j])
+		for c := range p.cs {
+			for m := range names {
+				if grads[j][c][m] == nil {
+					defined[m] = false
+				}
+			}
+		}
+	}
+	return ins, logc, grads, defined
+}
+
+// sideShares returns λ[m][c], the weight of sides[0] in metric m's (of nm)
+// combined estimate at coalition cs[c]: 1 with one side, the metric's
+// ReferenceWeight when fixed, else the sides' effective sample sizes'
+// share (0 or 1 when one side's is undefined).
+func sideShares(mds []MetricDecomposition, sides []*sideEstimate, nm int, cs []uint64) [][]float64 {
+	lambda := make([][]float64, nm)
+	var ess [][]float64
+	for m := range lambda {
+		lambda[m] = make([]float64, len(cs))
+		for c := range lambda[m] {
+			switch {
+			case len(sides) == 1:
+				lambda[m][c] = 1
+			case mds[m].ReferenceWeight != nil:
+				lambda[m][c] = *mds[m].ReferenceWeight
+			default:
+				if ess == nil {
+					ess = essSomeSides(sides, cs)
+				}
+				lambda[m][c] = essShare(ess[0][c], ess[1][c])
+			}
+		}
+	}
+	return lambda
+}
+
+// essShare is a/(a+b), or 0 when a is undefined and 1 when b is.
+func essShare(a, b float64) float64 {
+	switch {
+	case math.IsNaN(a):
+		return 0
+	case math.IsNaN(b):
+		return 1
+	}
+	return a / (a + b)
+}
+
+// recordSides maps each record of the split to its side (1-based; 0 for
+// none) and its position within that side's arrays.
+func recordSides(sides []*sideEstimate, g groupSplit) (side, pos []int) {
+	side = make([]int, len(g.refIdx)+len(g.cmpIdx))
+	pos = make([]int, len(side))
+	for j, e := range sides {
+		idx := g.refIdx
+		if e.side == SideComparison {
+			idx = g.cmpIdx
+		}
+		for a, r := range idx {
+			side[r], pos[r] = j+1, a
+		}
+	}
+	return side, pos
 }
 
 // logWeights returns log w at record r of side in for every weight

@@ -134,12 +134,7 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
 	}
-	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot, splits: *splits, seeds: *seeds, scale: *scale}
-	if opt.scale != scaleLogit && opt.scale != scaleRaw {
-		err := fmt.Errorf("-scale: %q is neither %s nor %s", opt.scale, scaleLogit, scaleRaw)
-		fmt.Fprintln(stderr, err)
-		return options{}, err
-	}
+	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot, splits: *splits, seeds: *seeds, scale: *scale, gapsOnly: *gaps}
 	set := map[string]bool{}
 	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
 	if opt.checks && !set["sizes"] {
@@ -151,21 +146,75 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	if opt.splits {
 		defaultSizesCases(set, sizes, cases, splitsSize, splitsCases)
 	}
-	for _, f := range split(*foldSplits) {
-		r, err := strconv.Atoi(f)
-		if err != nil || r < 0 {
-			err = fmt.Errorf("-fold-splits: %q is not a number of splits (0 for the default)", f)
-			fmt.Fprintln(stderr, err)
-			return options{}, err
-		}
-		opt.foldSplits = append(opt.foldSplits, r)
+	opt.learners = split(*learners)
+	opt.cases = split(*cases)
+	opt.metrics = split(*metricList)
+	err := opt.parseLists(*foldSplits, *sizes, *methods, *subs, *mixName, *estimators)
+	if err == nil {
+		err = opt.check()
 	}
-	for _, f := range split(*sizes) {
+	if err != nil {
+		fmt.Fprintln(stderr, err)
+		return options{}, err
+	}
+	return opt, nil
+}
+
+// parseLists reads the comma-separated flags into opt, stopping at the
+// first bad value.
+func (opt *options) parseLists(foldSplits, sizes, methods, subs, mix, estimators string) error {
+	var err error
+	if opt.foldSplits, err = parseCounts(foldSplits, 0, "-fold-splits: %q is not a number of splits (0 for the default)"); err != nil {
+		return err
+	}
+	if err = opt.parseSizes(sizes); err != nil {
+		return err
+	}
+	for _, m := range split(methods) {
+		if m != methodRefit && m != methodFast && m != methodDelta && m != methodInfluence && m != methodRobustRefit {
+			return fmt.Errorf("-methods: %q is not refit, fast, delta, influence or robust-refit", m)
+		}
+		opt.methods = append(opt.methods, m)
+	}
+	if opt.subs, err = parseCounts(subs, 2, "-subs: %q is not a replicate count of at least 2"); err != nil {
+		return err
+	}
+	if mix != "" {
+		if opt.mix, err = attribution.ParseMix(mix); err != nil {
+			return fmt.Errorf("-mix: %w", err)
+		}
+	}
+	for _, name := range split(estimators) {
+		e, err := parseValueEstimator(name)
+		if err != nil {
+			return err
+		}
+		opt.estimators = append(opt.estimators, e)
+	}
+	return nil
+}
+
+// parseCounts reads a comma-separated list of integers of at least min;
+// msg formats the error for a bad entry.
+func parseCounts(list string, min int, msg string) ([]int, error) {
+	var out []int
+	for _, f := range split(list) {
+		r, err := strconv.Atoi(f)
+		if err != nil || r < min {
+			return nil, fmt.Errorf(msg, f)
+		}
+		out = append(out, r)
+	}
+	return out, nil
+}
+
+// parseSizes reads -sizes: records per group, or REF:CMP pairs with
+// -coverage (pairs are kept only then).
+func (opt *options) parseSizes(list string) error {
+	for _, f := range split(list) {
 		ref, cmp, found := strings.Cut(f, ":")
 		if found && !opt.coverage {
-			err := fmt.Errorf("-sizes: %q: two group sizes REF:CMP only with -coverage", f)
-			fmt.Fprintln(stderr, err)
-			return options{}, err
+			return fmt.Errorf("-sizes: %q: two group sizes REF:CMP only with -coverage", f)
 		}
 		if !found {
 			cmp = ref
@@ -173,9 +222,7 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 		n, err1 := strconv.Atoi(ref)
 		m, err2 := strconv.Atoi(cmp)
 		if err1 != nil || err2 != nil || n < 100 || m < 100 {
-			err := fmt.Errorf("-sizes: %q is not a record count of at least 100 (or, with -coverage, REF:CMP)", f)
-			fmt.Fprintln(stderr, err)
-			return options{}, err
+			return fmt.Errorf("-sizes: %q is not a record count of at least 100 (or, with -coverage, REF:CMP)", f)
 		}
 		opt.sizes = append(opt.sizes, n)
 		opt.pairs = append(opt.pairs, groupSizes{n, m})
@@ -183,61 +230,26 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	if !opt.coverage {
 		opt.pairs = nil
 	}
-	opt.gapsOnly = *gaps
-	for _, m := range split(*methods) {
-		if m != methodRefit && m != methodFast && m != methodDelta && m != methodInfluence && m != methodRobustRefit {
-			err := fmt.Errorf("-methods: %q is not refit, fast, delta, influence or robust-refit", m)
-			fmt.Fprintln(stderr, err)
-			return options{}, err
-		}
-		opt.methods = append(opt.methods, m)
-	}
-	for _, f := range split(*subs) {
-		b, err := strconv.Atoi(f)
-		if err != nil || b < 2 {
-			err = fmt.Errorf("-subs: %q is not a replicate count of at least 2", f)
-			fmt.Fprintln(stderr, err)
-			return options{}, err
-		}
-		opt.subs = append(opt.subs, b)
-	}
-	if *mixName != "" {
-		x, err := attribution.ParseMix(*mixName)
-		if err != nil {
-			fmt.Fprintln(stderr, "-mix:", err)
-			return options{}, err
-		}
-		opt.mix = x
-	}
-	for _, name := range split(*estimators) {
-		e, err := parseValueEstimator(name)
-		if err != nil {
-			fmt.Fprintln(stderr, err)
-			return options{}, err
-		}
-		opt.estimators = append(opt.estimators, e)
+	return nil
+}
+
+// check refuses option values no study can run with.
+func (opt *options) check() error {
+	if opt.scale != scaleLogit && opt.scale != scaleRaw {
+		return fmt.Errorf("-scale: %q is neither %s nor %s", opt.scale, scaleLogit, scaleRaw)
 	}
 	if len(opt.estimators) == 0 {
-		err := fmt.Errorf("-estimators: none given")
-		fmt.Fprintln(stderr, err)
-		return options{}, err
+		return fmt.Errorf("-estimators: none given")
 	}
-	opt.learners = split(*learners)
-	opt.cases = split(*cases)
-	opt.metrics = split(*metricList)
 	for _, m := range opt.metrics {
 		if !metrics.Known(m) || m == metrics.NameAUC {
-			err := fmt.Errorf("-metrics: %q is not a supported metric here", m)
-			fmt.Fprintln(stderr, err)
-			return options{}, err
+			return fmt.Errorf("-metrics: %q is not a supported metric here", m)
 		}
 	}
 	if opt.reps < 1 || opt.truthN < 1 || opt.draws < 1 || opt.boot < 2 || opt.seeds < 2 {
-		err := fmt.Errorf("-reps, -truth-n and -draws must be positive, -boot and -seeds at least 2")
-		fmt.Fprintln(stderr, err)
-		return options{}, err
+		return fmt.Errorf("-reps, -truth-n and -draws must be positive, -boot and -seeds at least 2")
 	}
-	return opt, nil
+	return nil
 }
 
 // defaultSizesCases sets -sizes and -cases to a study's own defaults where
