@@ -73,10 +73,11 @@ func sensitivityTerm(name string, y, s, d float64) (in bool, f float64, ok bool)
 
 // Reasons a metric's sensitivity is not bounded.
 const (
-	SkipECE     = "ECE sums absolute differences per score bin, so it is not a ratio of sums linear in the weights and the sorting bound does not apply"
-	SkipAUC     = "AUC sums over pairs of records (bilinear in the weights), so the sorting bound for a weighted mean does not apply"
-	SkipSampled = "the Shapley values were sampled (more mechanisms than exact_limit), so the coalition values are not all available"
-	SkipUnknown = "the metric is not a weighted mean of per-record values"
+	SkipTooLarge = "too many records × coalitions for the sensitivity bounds of a metric that is not a rate (above 2^22); rates are still bounded"
+	SkipECE      = "ECE sums absolute differences per score bin, so it is not a ratio of sums linear in the weights and the sorting bound does not apply"
+	SkipAUC      = "AUC sums over pairs of records (bilinear in the weights), so the sorting bound for a weighted mean does not apply"
+	SkipSampled  = "the Shapley values were sampled (more mechanisms than exact_limit), so the coalition values are not all available"
+	SkipUnknown  = "the metric is not a weighted mean of per-record values"
 )
 
 func skipReason(name string) string {
