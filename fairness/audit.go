@@ -43,7 +43,13 @@ type RunOptions struct {
 // The result depends only on spec and the data, not on opt.Workers.
 // Input problems are reported as errors for which IsInputError is true.
 func Run(spec *Spec, opt RunOptions) (*Result, error) {
-	d, sample, mechs, err := prepare(spec)
+	return run(spec, opt, LoadData)
+}
+
+// run is Run with the data loaded by load (RunGroups loads the file's
+// bytes once for every comparison).
+func run(spec *Spec, opt RunOptions, load func(*Spec) (*Dataset, error)) (*Result, error) {
+	d, sample, mechs, err := prepareWith(spec, load)
 	if err != nil {
 		return nil, err
 	}

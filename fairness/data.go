@@ -207,6 +207,7 @@ type csvLoader struct {
 	rowVals                []float64
 	rowRaw                 []string
 	excluded               excludedCounter // rows of other groups
+	scan                   *excludedCounter // non-nil: count every group value and keep no row (scanGroupValues)
 	labels                 labelCoder      // reads the label cells (spec key positive)
 	complete               Outcomes        // label and score of every audited row that has both
 }
@@ -413,6 +414,10 @@ func (l *csvLoader) readRow(rec []string) error {
 			return l.derr(r.at(l.groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %s (set missing: drop to skip such rows)", l.missingText(g)))
 		}
 		l.excluded.missingRows++
+		return nil
+	}
+	if l.scan != nil {
+		l.scan.add(g) // scanGroupValues: every value counted, nothing kept
 		return nil
 	}
 	if !isCmp && g != spec.Groups.Reference {

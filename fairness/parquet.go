@@ -62,29 +62,39 @@ func loadParquet(spec *Spec) (*Dataset, error) {
 // file; Dataset.Lines holds these rows); a file that cannot be read wraps
 // ErrParquet. A file above MaxDataBytes, or with more than MaxParquetCells
 // cells to read, is refused (ErrTooLarge).
-func ReadParquet(r io.ReaderAt, size int64, name string, spec *Spec) (d *Dataset, err error) {
+func ReadParquet(r io.ReaderAt, size int64, name string, spec *Spec) (*Dataset, error) {
 	l := &csvLoader{name: name, spec: spec, parquet: true}
+	sum, err := l.readParquet(r, size)
+	if err != nil {
+		return nil, err
+	}
+	return l.dataset(sum)
+}
+
+// readParquet passes every row of the Parquet file through the loader's
+// checks (readRows) and returns the file's digest.
+func (l *csvLoader) readParquet(r io.ReaderAt, size int64) (sum string, err error) {
 	defer func() {
 		// The Parquet reader panics on some damaged files (a schema it
 		// cannot interpret); that is bad input, not a bug of gapwise.
 		if v := recover(); v != nil {
-			d, err = nil, l.derr(0, "", wrapf(ErrParquet, "not a readable Parquet file: %v", v))
+			sum, err = "", l.derr(0, "", wrapf(ErrParquet, "not a readable Parquet file: %v", v))
 		}
 	}()
 	if size > MaxDataBytes {
-		return nil, l.derr(0, "", fmt.Errorf("the data file is larger than the limit of %d bytes: %w", int64(MaxDataBytes), ErrTooLarge))
+		return "", l.derr(0, "", fmt.Errorf("the data file is larger than the limit of %d bytes: %w", int64(MaxDataBytes), ErrTooLarge))
 	}
 	h := sha256.New()
 	if _, err := io.Copy(h, io.NewSectionReader(r, 0, size)); err != nil {
-		return nil, l.derr(0, "", wrapCause(ErrReadFailed, err, "cannot read data file: %v", err))
+		return "", l.derr(0, "", wrapCause(ErrReadFailed, err, "cannot read data file: %v", err))
 	}
 	pf, err := parquet.OpenFile(r, size, parquet.SkipPageIndex(true), parquet.SkipBloomFilters(true))
 	if err != nil {
-		return nil, l.derr(0, "", wrapCause(ErrParquet, err, "not a readable Parquet file: %v", err))
+		return "", l.derr(0, "", wrapCause(ErrParquet, err, "not a readable Parquet file: %v", err))
 	}
 	src, err := newParquetRecords(pf, l)
 	if err != nil {
-		return nil, err
+		return "", err
 	}
 	l.cr, l.rowStarts = src, src.starts
 	l.header, l.width, l.named = src.names, len(src.names), len(src.names)
@@ -93,13 +103,13 @@ func ReadParquet(r io.ReaderAt, size int64, name string, spec *Spec) (d *Dataset
 		pos[n] = i
 	}
 	if err := l.locateColumns(pos); err != nil {
-		return nil, err
+		return "", err
 	}
 	l.newDataset()
 	if err := l.readRows(); err != nil {
-		return nil, err
+		return "", err
 	}
-	return l.dataset(hex.EncodeToString(h.Sum(nil)))
+	return hex.EncodeToString(h.Sum(nil)), nil
 }
 
 // parquetRecords yields the rows of a Parquet file's used columns as text

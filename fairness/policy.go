@@ -43,7 +43,14 @@ func PolicySubjects(r *Result) []policy.Subject {
 // PolicyRun describes the run spec asks for, with the bootstrap settings
 // iv, for policy.Preflight.
 func PolicyRun(spec *Spec, iv Intervals) policy.Run {
-	return policy.Run{Metrics: spec.Metrics, Comparisons: []string{spec.Groups.Comparison}, Intervals: iv.Replicates > 0}
+	cmps := []string{spec.Groups.Comparison}
+	switch {
+	case spec.Groups.EveryOther:
+		cmps = nil // found in the data: judged after the run
+	case spec.Groups.Comparisons != nil:
+		cmps = spec.Groups.Comparisons
+	}
+	return policy.Run{Metrics: spec.Metrics, Comparisons: cmps, Intervals: iv.Replicates > 0}
 }
 
 // ApplyPolicy judges the policy p on the result r (policy.Evaluate on

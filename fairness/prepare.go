@@ -12,13 +12,18 @@ import (
 	"github.com/gapwise/gapwise/metrics"
 )
 
-// prepare loads the data named by spec, checks the level names of its
+// prepare loads the data named by spec (LoadData), checks the level names of its
 // names key against the data (levelNames) and encodes the graph columns
 // for attribution. Whether every metric has a value in both groups is checked
 // once, by the first step that needs the observed metrics: Decompose in
 // Run, observeMetrics in Plan; decomposeError maps the error for both.
 func prepare(spec *Spec) (*Dataset, *attribution.Sample, []attribution.Mechanism, error) {
-	d, err := LoadData(spec)
+	return prepareWith(spec, LoadData)
+}
+
+// prepareWith is prepare with the data loaded by load.
+func prepareWith(spec *Spec, load func(*Spec) (*Dataset, error)) (*Dataset, *attribution.Sample, []attribution.Mechanism, error) {
+	d, err := load(spec)
 	if err != nil {
 		return nil, nil, nil, err
 	}

@@ -32,6 +32,7 @@ import (
 //	score: score         # the model's probability in [0, 1]
 //	threshold: 0.4       # positive decision when score >= threshold, in (0, 1)
 //	groups: {column: clinic, reference: north, comparison: south}
+//	                     # or comparison: [south, east] or comparison: every-other for one audit per value (RunGroups)
 //	metrics: [fpr, fnr]  # names from metrics.Names()
 //	graph:               # every node once; columns default to [node]
 //	  - node: labs
@@ -145,11 +146,25 @@ type Spec struct {
 	probLines  []int          // line of each probabilities entry
 }
 
-// GroupSpec names the group column and the two values compared.
+// GroupSpec names the group column and the values compared. With a
+// single comparison value (comparison: south) Comparison holds it and the
+// audit is Run's; with a list (comparison: [south, east]) or the keyword
+// EveryOther (comparison: every-other) the spec asks for several audits,
+// one per comparison value against the reference (RunGroups), and
+// Comparison holds the first listed value ("" for every-other).
 type GroupSpec struct {
 	Column     string
 	Reference  string
 	Comparison string
+	// Comparisons lists the values of comparison: [a, b, ...]; nil for
+	// a single value or every-other.
+	Comparisons []string
+	// EveryOther is set by comparison: every-other: every value of the
+	// column other than the reference, found in the data.
+	EveryOther bool
+
+	comparisonLines []int // line of each Comparisons entry
+	comparisonLine  int   // line of the comparison value
 }
 
 // Intervals are the bootstrap interval settings, the one shape shared by
@@ -305,6 +320,9 @@ func ParseSpec(file string, src []byte) (*Spec, error) {
 		return nil, err
 	}
 	if err := validateNames(s); err != nil {
+		return nil, err
+	}
+	if err := checkSeveralNames(s); err != nil {
 		return nil, err
 	}
 	return s, nil
@@ -651,6 +669,9 @@ func (p *specParser) groups(s *Spec, v *yaml.Node) error {
 		case "reference":
 			dst = &s.Groups.Reference
 		case "comparison":
+			if val.Kind == yaml.SequenceNode || isEveryOther(val) {
+				return p.comparisons(s, val, key) // several comparisons (multigroup_spec.go)
+			}
 			dst = &s.Groups.Comparison
 		default:
 			return p.unknownKey(k.Line, key, k.Value, groupKeys)
@@ -666,6 +687,9 @@ func (p *specParser) groups(s *Spec, v *yaml.Node) error {
 		if !seen[k] {
 			return specErr(p.file, v.Line, "groups."+k, ErrMissingKey, "missing required key %q", "groups."+k)
 		}
+	}
+	if s.Groups.Several() {
+		return p.checkComparisons(s)
 	}
 	if s.Groups.Reference == s.Groups.Comparison {
 		return specErr(p.file, v.Line, "groups", ErrBadValue, "reference and comparison are both %q", s.Groups.Reference)

@@ -136,7 +136,7 @@ func runCompare(o compareOptions, files []string, stdout io.Writer) error {
 		return err
 	}
 	if outcome != nil && !outcome.Passed {
-		return &policyBreachError{outcome}
+		return &policyBreachError{outcome: outcome}
 	}
 	return nil
 }

@@ -158,6 +158,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
+	if spec.Groups.Several() {
+		return runDecomposeGroups(o, spec, out, pol, stdout, stderr)
+	}
 	if o.out != "" {
 		if err := out.checkInputs(resultFile, reportFile); err != nil {
 			return err

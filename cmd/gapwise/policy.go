@@ -37,9 +37,18 @@ func (o policyOptions) load(spec *fairness.Spec, iv fairness.Intervals) (*policy
 
 // policyBreachError is returned, after every output was written, by a
 // run whose result breaches its policy. It exits with status 3.
-type policyBreachError struct{ outcome *policy.Outcome }
+type policyBreachError struct {
+	outcome *policy.Outcome
+	more    []*policy.Outcome // further breached outcomes: other comparisons of one run
+}
 
-func (e *policyBreachError) Error() string { return report.PolicyBreachMessage(e.outcome) }
+func (e *policyBreachError) Error() string {
+	msg := report.PolicyBreachMessage(e.outcome)
+	for _, o := range e.more {
+		msg += "; " + report.PolicyBreachMessage(o)
+	}
+	return msg
+}
 
 // policyVerdict returns a *policyBreachError when res was judged against a
 // policy and breached it, else nil.
@@ -47,5 +56,5 @@ func policyVerdict(res *fairness.Result) error {
 	if res.Policy == nil || res.Policy.Passed {
 		return nil
 	}
-	return &policyBreachError{res.Policy}
+	return &policyBreachError{outcome: res.Policy}
 }
