@@ -206,10 +206,10 @@ type csvLoader struct {
 	rows, seenRef, seenCmp int        // all records, and those of each group
 	rowVals                []float64
 	rowRaw                 []string
-	excluded               excludedCounter // rows of other groups
+	excluded               excludedCounter  // rows of other groups
 	scan                   *excludedCounter // non-nil: count every group value and keep no row (scanGroupValues)
-	labels                 labelCoder      // reads the label cells (spec key positive)
-	complete               Outcomes        // label and score of every audited row that has both
+	labels                 labelCoder       // reads the label cells (spec key positive)
+	complete               Outcomes         // label and score of every audited row that has both
 }
 
 // derr builds the *DataError of a problem at line (0: none) and column;
