@@ -49,7 +49,7 @@ func groupsRows(g *fairness.GroupsResult) []groupsRow {
 			}
 		}
 		if c.LeadShare != nil {
-			row.LeadShare = fmt.Sprintf("%.0f%% of the gap", 100**c.LeadShare)
+			row.LeadShare = trimNegZero(fmt.Sprintf("%.0f", 100**c.LeadShare)) + "% of the gap"
 		}
 		rows = append(rows, row)
 	}

@@ -14,6 +14,23 @@ import (
 // contribution and the verdict), the groups skipped with the reason, and
 // then each comparison's own report (WriteText). It returns w's error.
 func WriteGroupsText(w io.Writer, g *fairness.GroupsResult) error {
+	if err := WriteGroupsSummaryText(w, g); err != nil {
+		return err
+	}
+	for _, r := range g.Results {
+		if _, err := io.WriteString(w, "\n"+Printable(strings.Repeat("=", 8)+" Comparison "+quoted(r.Groups.Comparison)+" vs "+quoted(r.Groups.Reference)+" "+strings.Repeat("=", 8))+"\n\n"); err != nil {
+			return err
+		}
+		if err := WriteText(w, r); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// WriteGroupsSummaryText writes the summary part of WriteGroupsText: the
+// matrix, the policy's verdict, the groups skipped and the assumptions.
+func WriteGroupsSummaryText(w io.Writer, g *fairness.GroupsResult) error {
 	bw := bufio.NewWriter(w)
 	tw := &textWriter{w: bw}
 	s := g.Summary
@@ -37,19 +54,10 @@ func WriteGroupsText(w io.Writer, g *fairness.GroupsResult) error {
 	if p := groupsPolicyLine(s); p != "" {
 		tw.line("%s", p)
 	}
+	tw.line("")
 	tw.list("Comparison groups not audited", groupsSkipped(s), "")
-	if err := bw.Flush(); err != nil {
-		return err
-	}
-	for _, r := range g.Results {
-		if _, err := io.WriteString(w, "\n"+Printable(strings.Repeat("=", 8)+" Comparison "+quoted(r.Groups.Comparison)+" vs "+quoted(r.Groups.Reference)+" "+strings.Repeat("=", 8))+"\n\n"); err != nil {
-			return err
-		}
-		if err := WriteText(w, r); err != nil {
-			return err
-		}
-	}
-	return nil
+	tw.list("Assumptions and cautions", s.Assumptions, "")
+	return bw.Flush()
 }
 
 // WriteGroupsMarkdown writes the audit of several comparison groups as

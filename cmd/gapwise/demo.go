@@ -43,6 +43,7 @@ type demoOptions struct {
 	date    string // --audit-date
 	parquet bool   // --parquet: the cohort as cohort.parquet
 	model   int    // --model: the screening model's version (synth.DemoModel)
+	clinics bool   // --clinics: the cohort by clinic, every clinic against central (demo_clinics.go)
 
 	intervals intervalOptions
 	suppress  suppressOption
@@ -70,7 +71,13 @@ keeps the fitted density ratios instead (faster, but the contributions'
 intervals are then approximate: too narrow, and labelled so).
 
 --parquet writes the cohort as cohort.parquet (Parquet) instead of
-cohort.csv; the data, and so the result, are the same.`,
+cohort.csv; the data, and so the result, are the same.
+
+--clinics writes another invented cohort instead: the same screening run by
+four clinics, with a spec that compares every clinic with central
+(groups.comparison: every-other); the outputs are one result and report per
+clinic, summary.json and summary.html. The outreach unit is too small to
+audit and is listed as skipped.`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
 			o.suppress.markSet(cmd)
@@ -88,6 +95,7 @@ cohort.csv; the data, and so the result, are the same.`,
 	bindAuditDateFlag(cmd, &o.date)
 	f.BoolVar(&o.parquet, "parquet", false, "write the cohort as "+demoParquetData+" (Parquet) instead of "+demoData)
 	bindSuppressFlag(cmd, &o.suppress)
+	f.BoolVar(&o.clinics, "clinics", false, "write the cohort of four invented clinics instead and audit every clinic against central (several comparison groups)")
 	return cmd
 }
 
@@ -125,6 +133,9 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	}
 	if err := o.suppress.check(); err != nil {
 		return err
+	}
+	if o.clinics {
+		return runDemoClinics(o, model, date, stdout, stderr)
 	}
 	data := demoData
 	if o.parquet {
