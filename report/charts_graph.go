@@ -97,6 +97,31 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			ItemStyle:  &opts.ItemStyle{Color: rampColour(t), BorderColor: border, BorderWidth: 1.5},
 			Tooltip:    itemTooltip(tip...)})
 	}
+	data = withFrameNodes(data, nodes)
+	links, bends := edgeLinks(edges)
+	data = append(data, bends...)
+	g := charts.NewGraph()
+	g.SetGlobalOptions(
+		charts.WithTooltipOpts(plainTooltip()),
+		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(false)}),
+	)
+	g.AddSeries("causal graph", data, links, charts.WithSeriesOpts(func(s *charts.SingleSeries) {
+		s.Id = "gw-graph"
+		s.Layout = "none"
+		s.EdgeSymbol = []string{"none", "arrow"}
+		s.EdgeSymbolSize = []int{0, 10}
+		s.LineStyle = &opts.LineStyle{Color: colourMuted, Width: 1.5, Opacity: opts.Float(0.9)}
+		s.Label = &opts.Label{Show: opts.Bool(true), Color: colourInk, FontSize: 12, LineHeight: 16}
+		s.Left, s.Right, s.Top, s.Bottom = "60", "60", "30", "30"
+	}))
+	o := optionOf(g)
+	styleGraphItems(o, res, m, nodes, edges, contrib, flags)
+	return o
+}
+
+// withFrameNodes appends two invisible frame nodes and shifts the nodes
+// (see the comment inside).
+func withFrameNodes(data []opts.GraphNode, nodes []dagNode) []opts.GraphNode {
 	// ECharts fits the nodes' bounding box into the series box; a graph
 	// whose nodes share one row or column has a flat box and would be
 	// stretched, so two invisible frame nodes give the box a minimum size.
@@ -117,6 +142,11 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			data[i].Y += 1000
 		}
 	}
+	return data
+}
+
+// edgeLinks returns the links of every arrow and its invisible bend nodes.
+func edgeLinks(edges []dagEdge) ([]opts.GraphLink, []opts.GraphNode) {
 	// Each arrow is a chain of links through its bend points, which are
 	// invisible nodes; only the last link carries the arrowhead.
 	// report.js moves both ends of every chain onto the borders of the
@@ -134,22 +164,13 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 		}
 		links = append(links, opts.GraphLink{Source: from, Target: e.To})
 	}
-	data = append(data, bends...)
-	g := charts.NewGraph()
-	g.SetGlobalOptions(
-		charts.WithTooltipOpts(plainTooltip()),
-		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(false)}),
-	)
-	g.AddSeries("causal graph", data, links, charts.WithSeriesOpts(func(s *charts.SingleSeries) {
-		s.Id = "gw-graph"
-		s.Layout = "none"
-		s.EdgeSymbol = []string{"none", "arrow"}
-		s.EdgeSymbolSize = []int{0, 10}
-		s.LineStyle = &opts.LineStyle{Color: colourMuted, Width: 1.5, Opacity: opts.Float(0.9)}
-		s.Label = &opts.Label{Show: opts.Bool(true), Color: colourInk, FontSize: 12, LineHeight: 16}
-		s.Left, s.Right, s.Top, s.Bottom = "60", "60", "30", "30"
-	}))
-	o := optionOf(g)
+	return links, bends
+}
+
+// styleGraphItems sets, in the chart option o, the arrows' tooltips and
+// bend links without heads, and every node's label (name, value and, when
+// unreliable, that word with a dashed border).
+func styleGraphItems(o map[string]any, res *fairness.Result, m fairness.MetricResult, nodes []dagNode, edges []dagEdge, contrib map[string]fairness.Contribution, flags map[string]string) {
 	// Per-node label colours: white text on strongly shaded nodes.
 	if series, ok := o["series"].([]any); ok && len(series) == 1 {
 		sm := series[0].(map[string]any)
@@ -185,7 +206,6 @@ func graphChart(res *fairness.Result, m fairness.MetricResult) chartOption {
 			it.(map[string]any)["label"] = mergeLabel(it.(map[string]any)["label"], text)
 		}
 	}
-	return o
 }
 
 // nodeBox returns the size in pixels of a node's box: wide enough for
