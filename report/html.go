@@ -275,31 +275,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 			Estimated: formatDelta(m.Metric, m.Estimated), Residual: residualDelta(m),
 			Basis: basisPair(m.Metric, m.RecordsReference, m.RecordsComparison), AllRecords: allRecordsText(m), Impact: impactText(m),
 			SidesNote: checksLines(m, reportUnits), ResidualNote: residualNote(res, m), SumLabel: sumLabel(m, "Sum of contributions")}
-		for _, c := range m.Contributions {
-			role := gapRole(m, c.Value)
-			ci := formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)
-			if ci != "" {
-				p.HasIntervals = true
-			}
-			row := contributionRow{Node: c.Node, Mechanism: contribMech(res, c), Value: formatDelta(m.Metric, c.Value),
-				CI: ci, Alone: formatDelta(m.Metric, c.Alone), IfEqualised: formatDelta(m.Metric, c.IfEqualised),
-				Role: role, RoleWords: roleWords[role], Unreliable: flags[c.Node]}
-			if c.NotEstimable {
-				row.Value, row.CI, row.Alone, row.IfEqualised, row.Role, row.RoleWords = notEstimable, "", "–", "–", "none", "not estimable"
-			}
-			if c.StdError != nil {
-				row.StdError = formatSpread(m.Metric, *c.StdError)
-				p.HasStdError = true
-			}
-			if row.Sides = contributionSides(m.Metric, c, reportUnits); row.Sides != "" {
-				p.HasSides = true
-			}
-			if c.SplitSD != nil && !c.NotEstimable {
-				row.SplitSD = formatSpread(m.Metric, *c.SplitSD)
-				p.HasSplitSD = true
-			}
-			mv.Rows = append(mv.Rows, row)
-		}
+		mv.Rows = p.contributionRows(res, m, flags)
 		if m.ReferenceCI != nil || m.ComparisonCI != nil || m.GapCI != nil {
 			p.HasIntervals = true
 		}
@@ -317,6 +293,53 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	for _, m := range res.Mechanisms {
 		p.Mechanisms = append(p.Mechanisms, mechanismDiagnostics(res, m, flags[m.Node]))
 	}
+	p.addOverview(res)
+	p.addDetails(res, &data, nodeOfColumn)
+	p.Settings = pageSettings(res, p.Threshold)
+	js, err := encodeOptions(data)
+	if err != nil {
+		return nil, err
+	}
+	p.inline([]string{echartsJS, "window.gapwiseData = " + js + ";", reportJS}, reportCSS+tintRules(p.Confusion))
+	return p, nil
+}
+
+// contributionRows returns metric m's contribution rows and notes on p
+// which optional columns (intervals, standard errors, sides, split spread)
+// any row fills.
+func (p *page) contributionRows(res *fairness.Result, m fairness.MetricResult, flags map[string]string) []contributionRow {
+	var rows []contributionRow
+	for _, c := range m.Contributions {
+		role := gapRole(m, c.Value)
+		ci := formatDeltaInterval(m.Metric, c.CILow, c.CIHigh)
+		if ci != "" {
+			p.HasIntervals = true
+		}
+		row := contributionRow{Node: c.Node, Mechanism: contribMech(res, c), Value: formatDelta(m.Metric, c.Value),
+			CI: ci, Alone: formatDelta(m.Metric, c.Alone), IfEqualised: formatDelta(m.Metric, c.IfEqualised),
+			Role: role, RoleWords: roleWords[role], Unreliable: flags[c.Node]}
+		if c.NotEstimable {
+			row.Value, row.CI, row.Alone, row.IfEqualised, row.Role, row.RoleWords = notEstimable, "", "–", "–", "none", "not estimable"
+		}
+		if c.StdError != nil {
+			row.StdError = formatSpread(m.Metric, *c.StdError)
+			p.HasStdError = true
+		}
+		if row.Sides = contributionSides(m.Metric, c, reportUnits); row.Sides != "" {
+			p.HasSides = true
+		}
+		if c.SplitSD != nil && !c.NotEstimable {
+			row.SplitSD = formatSpread(m.Metric, *c.SplitSD)
+			p.HasSplitSD = true
+		}
+		rows = append(rows, row)
+	}
+	return rows
+}
+
+// addOverview sets the page's overview rows and its warnings, most
+// serious first.
+func (p *page) addOverview(res *fairness.Result) {
 	for _, r := range overviewRows(res, htmlInline) {
 		p.Overview = append(p.Overview, overviewView{Metric: r.Metric, Title: template.HTML(r.Title), Lead: template.HTML(r.Lead),
 			Because: template.HTML(r.Because), Reference: r.Reference, Comparison: r.Comparison, Gap: r.Gap, Share: r.Share,
@@ -326,6 +349,11 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		w := res.Warnings[i]
 		p.Warnings = append(p.Warnings, warningView{Number: n + 1, Severity: severityWord(w.Severity), Message: codeSpans(w.Message)})
 	}
+}
+
+// addDetails sets the page's confusion tables, reliability bins and
+// columns from res.Details, with their charts in data.
+func (p *page) addDetails(res *fairness.Result, data *chartData, nodeOfColumn map[string]string) {
 	if d := res.Details; d != nil {
 		p.HasDetails = true
 		p.Confusion = []confusionView{
@@ -355,19 +383,24 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 			data.Columns[c.Name] = columnChart(res, i, c)
 		}
 	}
-	p.Settings = []keyValue{
+}
+
+// pageSettings lists the run's settings for the page's settings table;
+// threshold is the decision threshold as shown.
+func pageSettings(res *fairness.Result, threshold string) []keyValue {
+	settings := []keyValue{
 		{"Tool", strings.TrimSpace(res.Tool.Name + " " + res.Tool.Version)},
 	}
 	if m := modelLabel(res); m != "" {
-		p.Settings = append(p.Settings, keyValue{"Model audited", m})
+		settings = append(settings, keyValue{"Model audited", m})
 	}
 	if res.AuditDate != "" {
-		p.Settings = append(p.Settings, keyValue{"Audit date", res.AuditDate})
+		settings = append(settings, keyValue{"Audit date", res.AuditDate})
 	}
-	p.Settings = append(p.Settings, []keyValue{
+	settings = append(settings, []keyValue{
 		{"Spec file", res.Inputs.SpecFile}, {"Spec SHA-256", res.Inputs.SpecSHA256},
 		{"Data file", res.Inputs.DataFile}, {"Data SHA-256", res.Inputs.DataSHA256},
-		{"Seed", fmt.Sprint(res.Seed)}, {"Decision threshold", p.Threshold},
+		{"Seed", fmt.Sprint(res.Seed)}, {"Decision threshold", threshold},
 		{"Cross-fitting folds", fmt.Sprint(res.Settings.Folds)}, {"Fold splits", foldSplitsSetting(res.Settings.FoldSplits)},
 		{"Classifier setting", res.Settings.Classifier},
 		{"Candidate learners", strings.Join(res.Settings.Learners, ", ")},
@@ -377,14 +410,9 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 		{"Exact Shapley values up to", exactSetting(res.Settings.ExactLimit)}, {"Intervals", intervalSettingOrNone(res)},
 	}...)
 	if s := suppressionSetting(res); s != "" {
-		p.Settings = append(p.Settings, keyValue{"Small-cell suppression", s})
+		settings = append(settings, keyValue{"Small-cell suppression", s})
 	}
-	js, err := encodeOptions(data)
-	if err != nil {
-		return nil, err
-	}
-	p.inline([]string{echartsJS, "window.gapwiseData = " + js + ";", reportJS}, reportCSS+tintRules(p.Confusion))
-	return p, nil
+	return settings
 }
 
 // clipSetting describes clip_ratios: "central 99% of each mechanism's
