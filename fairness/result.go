@@ -60,6 +60,10 @@ type Result struct {
 	// unrecorded factor (spec key hidden_factor; see HiddenFactor);
 	// absent when the spec turns it off.
 	HiddenFactor *HiddenFactor `json:"hidden_factor,omitempty"`
+	// GraphRobustness, present when the audit was rerun under alternative
+	// graphs (CheckGraphs, decompose --alt-graph), holds every run and
+	// what holds across them.
+	GraphRobustness *GraphRobustness `json:"graph_robustness,omitempty"`
 }
 
 // ToolInfo names the program that produced the result.

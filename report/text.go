@@ -39,6 +39,7 @@ func WriteText(w io.Writer, res *fairness.Result) error {
 		tw.metric(res, i, m)
 	}
 	tw.hiddenFactor(res)
+	tw.altGraphs(res)
 	tw.diagnostics(res)
 	tw.list("Assumptions and cautions", res.Assumptions, "")
 	tw.inputs(res)

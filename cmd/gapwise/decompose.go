@@ -41,6 +41,7 @@ type decomposeOptions struct {
 	intervals  intervalOptions
 	coalitions coalitionOptions
 	policy     policyOptions
+	alt        altGraphOptions
 }
 
 func newDecomposeCmd(stdout, stderr io.Writer) *cobra.Command {
@@ -84,7 +85,17 @@ the same inputs give the same bytes on any day.
 --policy FILE judges the result against a policy file of limits on the gaps
 (and on the ratio between the groups for rates), lists every check in each
 output and exits with status 3 when one breaches, after writing the
-outputs; see the README's "Policy gate" section.`,
+outputs; see the README's "Policy gate" section.
+
+--alt-graph FILE (repeatable) reruns the decomposition under the graph in
+FILE (a YAML file with one key, graph, written as in a spec, over the same
+columns) and under the independent-roots reading (every node a root);
+--alt-graph-independent asks for that reading alone, --alt-graph-label-parent
+adds one with the label as the only parent of every node below it. Each
+output then shows every graph's contributions side by side with what holds
+under all of them and what changes, and warns (graph_dependent) when the
+leading mechanism or a clear sign changes. The data cannot tell which graph
+is right: agreement is reassurance, not proof.`,
 		Args: cobra.MaximumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			if err := specFromArgs(cmd, args, &o.spec); err != nil {
@@ -108,6 +119,7 @@ outputs; see the README's "Policy gate" section.`,
 	bindPolicyFlag(cmd, &o.policy)
 	bindEstimatorFlag(cmd, &o.estimator)
 	bindSuppressFlag(cmd, &o.suppress)
+	bindAltGraphFlags(cmd, &o.alt)
 	return cmd
 }
 
@@ -136,7 +148,7 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	if err := o.suppress.check(); err != nil {
 		return err
 	}
-	out := outDir{path: o.out, force: o.force, inputs: inputFiles(o.spec, o.policy.file)}
+	out := outDir{path: o.out, force: o.force, inputs: append(inputFiles(o.spec, o.policy.file), o.alt.files...)}
 	if o.out != "" {
 		if err := out.check(resultFile, reportFile); err != nil {
 			return err
@@ -153,7 +165,11 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 		spec.Estimator = o.estimator
 	}
 	o.suppress.apply(spec)
-	out.inputs = inputFiles(o.spec, o.policy.file, spec.DataPath)
+	out.inputs = append(inputFiles(o.spec, o.policy.file, spec.DataPath), o.alt.files...)
+	alts, err := o.alt.load(spec)
+	if err != nil {
+		return err
+	}
 	pol, err := o.policy.load(spec, o.intervals.runIntervals(spec))
 	if err != nil {
 		return err
@@ -170,6 +186,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	defer line.clear()
 	res, err := audit(spec, o.workers, o.intervals, o.coalitions.runLimit(), line)
 	if err != nil {
+		return err
+	}
+	if err := checkGraphs(spec, res, alts, o.workers, o.intervals, line); err != nil {
 		return err
 	}
 	if err := fairness.ApplyPolicy(res, pol); err != nil {
