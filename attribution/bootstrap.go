@@ -326,6 +326,7 @@ func replicateRefit(s *Sample, mechs []Mechanism, ri, ci []int, metricNames []st
 		Scores:     pick(s.Scores, rows),
 		// The same columns hold probabilities in the replicate.
 		ProbabilityCols: s.ProbabilityCols,
+		Features:        s.Features,
 	}
 	for a := len(ri); a < len(rows); a++ {
 		rs.Comparison[a] = true

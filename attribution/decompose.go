@@ -65,7 +65,7 @@ func decompose(s *Sample, mechs []Mechanism, metricNames []string, opt Options, 
 	if out.Metrics, err = observe(metricNames, g, opt); err != nil {
 		return nil, nil, err
 	}
-	ratios, err := estimateRatios(s, mechs, RatioOptions{Folds: opt.Folds, Seed: opt.Seed, Learners: opt.Learners, Workers: opt.Workers, MaxFitRows: opt.MaxFitRows}, chosen)
+	ratios, err := estimateRatios(s, mechs, RatioOptions{Folds: opt.Folds, Seed: opt.Seed, Learners: opt.Learners, Workers: opt.Workers, MaxFitRows: opt.MaxFitRows, Fits: opt.Fits}, chosen)
 	if err != nil {
 		return nil, nil, err
 	}

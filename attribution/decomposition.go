@@ -50,6 +50,9 @@ type Options struct {
 	// group whose mechanism its node follows, as in Quintas-Martínez et
 	// al. (2024).
 	RobustPool bool
+	// Fits, if non-nil, shares group classifiers with other
+	// decompositions of the same records under other graphs (FitCache).
+	Fits *FitCache
 	// Reads says which mechanisms the label and the score depend on, for
 	// the robust estimator (see NodeReads); the zero value means every
 	// mechanism for both.

@@ -22,6 +22,9 @@ type RatioOptions struct {
 	// MaxFitRows caps the training records of each fit (a stratified
 	// subsample); 0 means DefaultMaxFitRows, negative means no cap.
 	MaxFitRows int
+	// Fits, if non-nil, shares the fits of column sets between
+	// decompositions under different graphs (FitCache).
+	Fits *FitCache
 }
 
 // MechanismRatio is the estimated density ratio of one mechanism.
@@ -121,9 +124,12 @@ func estimateRatios(s *Sample, mechs []Mechanism, opt RatioOptions, chosen fixed
 		joints[i] = fs.need(unionCols(m.NodeCols, m.ParentCols))
 		parents[i] = fs.need(m.ParentCols)
 	}
-	if err := fitAll(x, s.comparisonLabels(), folds, k, fs.sets, opt); err != nil {
+	scope := fitScope(s, opt, k, chosen != nil)
+	todo, keys := opt.Fits.take(s, fs, scope, chosen != nil)
+	if err := fitAll(x, s.comparisonLabels(), folds, k, todo, opt); err != nil {
 		return nil, err
 	}
+	opt.Fits.put(todo, keys)
 	nRef, nCmp := s.Counts()
 	prior := math.Log(float64(nCmp) / float64(nRef))
 	out := make([]MechanismRatio, len(mechs))

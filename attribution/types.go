@@ -54,6 +54,10 @@ type Sample struct {
 	// (classify.Logit): when a model scores σ(η), the log density ratio of
 	// the score given its parents is close to linear in η, not in σ(η).
 	ProbabilityCols []int
+	// Features, if non-nil, names every column of X (one name per
+	// column, unique); a FitCache needs them to recognise a column set
+	// under another graph, whose Sample may order its columns differently.
+	Features []string
 }
 
 // Counts returns the number of reference and comparison records.

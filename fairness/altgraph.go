@@ -13,7 +13,7 @@ import (
 	"gopkg.in/yaml.v3"
 )
 
-// Readings of the graph that CheckGraphs can rerun an audit under
+// Readings of the graph that Run can rerun an audit under
 // (GraphRun.Reading).
 const (
 	// ReadingSpec is the spec's own graph: the audit's main numbers.

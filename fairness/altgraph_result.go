@@ -1,7 +1,7 @@
 package fairness
 
 // GraphRobustness holds an audit rerun under alternative graphs
-// (CheckGraphs): every run's contributions and, per metric, what holds
+// (RunOptions.AltGraphs): every run's contributions and, per metric, what holds
 // under every graph and what changes. Agreement across graphs is
 // reassurance, not proof: the data cannot tell which graph is right.
 type GraphRobustness struct {

@@ -3,6 +3,9 @@ package fairness
 import (
 	"math"
 	"slices"
+	"strings"
+
+	"github.com/gapwise/gapwise/attribution"
 )
 
 // GraphClearShare is the share of a metric's |gap| above which a
@@ -10,20 +13,30 @@ import (
 // intervals the interval decides: a sign is clear when it excludes 0.
 const GraphClearShare = 0.10
 
-// CheckGraphs reruns the audit of spec under each alternative graph in
-// alts, with the same data, seed and settings (opt, except that no
-// coalitions are kept), and records in r, the Result of Run(spec, …), every
-// run's contributions and what holds across them (GraphRobustness). When
-// a metric's conclusion depends on the graph (GraphMetric.Dependent) it
-// adds a KindGraphDependent warning and renews the headlines.
+// runGraphs is Run with opt.AltGraphs: the data are read once, the audit
+// runs under the spec's graph and then under each alternative with the
+// same seed and settings (no coalitions kept for the alternatives), and
+// the result, the spec's graph's, records every run's contributions and
+// what holds across them (GraphRobustness). When a metric's conclusion
+// depends on the graph (GraphMetric.Dependent) it carries a
+// KindGraphDependent warning and renewed headlines.
 //
-// Each run fits its own classifiers: a mechanism's density ratio
-// p_cmp(x_j | pa_j) / p_ref(x_j | pa_j) depends on the node's parents, so
-// fits are shared only where the parents agree, which the engine does not
-// exploit (README, Alternative graphs, for the cost).
-func CheckGraphs(spec *Spec, r *Result, alts []AltGraph, opt RunOptions) error {
-	if len(alts) == 0 {
-		return nil
+// A mechanism's density ratio p_cmp(x_j | pa_j) / p_ref(x_j | pa_j) comes
+// from classifiers of group membership on (x_j, pa_j) and on pa_j; such a
+// classifier depends on the column set it reads, not on the graph, so a
+// set that several graphs need is fitted once (graphFits).
+func runGraphs(spec *Spec, opt RunOptions) (*Result, error) {
+	alts := opt.AltGraphs
+	opt.AltGraphs = nil
+	d, err := LoadData(spec)
+	if err != nil {
+		return nil, err
+	}
+	load := func(*Spec) (*Dataset, error) { return d, nil }
+	opt.fits = graphFits(spec, d, alts, opt.intervals(spec))
+	r, err := run(spec, opt, load)
+	if err != nil {
+		return nil, err
 	}
 	gr := &GraphRobustness{ClearShare: GraphClearShare}
 	gr.Runs = append(gr.Runs, graphRun(AltGraph{Reading: ReadingSpec, Graph: spec.Graph}, r))
@@ -31,9 +44,10 @@ func CheckGraphs(spec *Spec, r *Result, alts []AltGraph, opt RunOptions) error {
 	for _, a := range alts {
 		s := *spec
 		s.Graph = a.Graph
-		ar, err := Run(&s, opt)
+		s.HiddenFactor.Off = true // each run keeps only its contributions
+		ar, err := run(&s, opt, load)
 		if err != nil {
-			return err
+			return nil, err
 		}
 		gr.Runs = append(gr.Runs, graphRun(a, ar))
 	}
@@ -47,7 +61,53 @@ func CheckGraphs(spec *Spec, r *Result, alts []AltGraph, opt RunOptions) error {
 		}
 	}
 	setHeadlines(r)
-	return nil
+	return r, nil
+}
+
+// GraphFitBudget caps the memory, in bytes, that sharing the group
+// classifiers of bootstrap replicates between graphs may hold (one
+// float64 per record, kept set, fold split and replicate); above it only
+// the point estimate's fits are shared.
+const GraphFitBudget = 256 << 20
+
+// graphFits returns the cache that shares, between the runs of spec's
+// graph and of alts, the column sets two or more of them fit
+// (attribution.FitColumnSets over d's feature columns); nil when none is
+// shared. Bootstrap replicates share theirs too within GraphFitBudget.
+func graphFits(spec *Spec, d *Dataset, alts []AltGraph, iv Intervals) *attribution.FitCache {
+	cols, features := featureLayout(d)
+	sample := &attribution.Sample{Features: features}
+	uses := map[string]int{}
+	var order [][]string
+	graphs := [][]NodeSpec{spec.Graph}
+	for _, a := range alts {
+		graphs = append(graphs, a.Graph)
+	}
+	for _, g := range graphs {
+		for _, set := range attribution.FitColumnSets(sample, graphMechanisms(g, cols)) {
+			key := strings.Join(set, "\x00")
+			if uses[key] == 0 {
+				order = append(order, set)
+			}
+			uses[key]++
+		}
+	}
+	var shared [][]string
+	for _, set := range order {
+		if uses[strings.Join(set, "\x00")] > 1 {
+			shared = append(shared, set)
+		}
+	}
+	if len(shared) == 0 {
+		return nil
+	}
+	nRef, nCmp := d.Counts()
+	splits := spec.FoldSplits
+	if splits == 0 {
+		splits = attribution.DefaultFoldSplits(nRef, nCmp)
+	}
+	bytes := 8 * (nRef + nCmp) * len(shared) * splits * (1 + iv.Replicates)
+	return attribution.NewFitCache(shared, iv.Replicates > 0 && bytes <= GraphFitBudget)
 }
 
 // graphRun records the graph of a and the contributions of r, the audit

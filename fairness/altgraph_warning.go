@@ -6,7 +6,7 @@ import (
 	"strings"
 )
 
-// KindGraphDependent (caution): under an alternative graph (CheckGraphs)
+// KindGraphDependent (caution): under an alternative graph (RunOptions.AltGraphs)
 // a metric's lead mechanism changes, or a contribution's sign is clear
 // under some graphs and not the same clear sign under the others
 // (GraphMetric.Dependent); Nodes are the leads and the nodes whose sign

@@ -30,6 +30,13 @@ type RunOptions struct {
 	// 0 means DefaultCoalitionLimit, a negative value none, and values
 	// above MaxCoalitionLimit count as MaxCoalitionLimit.
 	CoalitionLimit int
+	// AltGraphs, if not empty, makes Run decompose again under each of
+	// these graphs (same data, seed and settings) and record what holds
+	// across them in Result.GraphRobustness (runGraphs).
+	AltGraphs []AltGraph
+
+	// fits shares group classifiers between the graphs' runs (runGraphs).
+	fits *attribution.FitCache
 }
 
 // Run performs the audit described by spec: it loads the data, checks that
@@ -43,6 +50,9 @@ type RunOptions struct {
 // The result depends only on spec and the data, not on opt.Workers.
 // Input problems are reported as errors for which IsInputError is true.
 func Run(spec *Spec, opt RunOptions) (*Result, error) {
+	if len(opt.AltGraphs) > 0 {
+		return runGraphs(spec, opt)
+	}
 	return run(spec, opt, LoadData)
 }
 
@@ -69,6 +79,7 @@ func run(spec *Spec, opt RunOptions, load func(*Spec) (*Dataset, error)) (*Resul
 		ExactLimit:   spec.ExactLimit,
 		ClipQuantile: spec.ClipRatios,
 		Sampling:     attribution.SamplingOptions{Progress: opt.SamplingProgress},
+		Fits:         opt.fits,
 	}
 	if aopt.Estimator, err = estimatorOf(spec); err != nil {
 		return nil, err

@@ -104,21 +104,8 @@ func metricBasis(spec *Spec, d *Dataset, metric string) (ref, cmp int) {
 // density ratio of a score σ(η) is close to linear in η.
 func encode(spec *Spec, d *Dataset) (*attribution.Sample, []attribution.Mechanism) {
 	n := len(d.Labels)
-	p := 0
-	cols := map[string][]int{}
-	for _, c := range d.Columns {
-		width := 1
-		if c.Categorical {
-			width = len(c.Levels)
-		}
-		if c.Missing != nil {
-			width++ // the missingness indicator, after the value
-		}
-		for k := 0; k < width; k++ {
-			cols[c.Name] = append(cols[c.Name], p+k)
-		}
-		p += width
-	}
+	cols, features := featureLayout(d)
+	p := len(features)
 	x := mat.NewDense(n, max(p, 1), nil)
 	for _, c := range d.Columns {
 		idx := cols[c.Name]
@@ -133,30 +120,66 @@ func encode(spec *Spec, d *Dataset) (*attribution.Sample, []attribution.Mechanis
 			}
 		}
 	}
+	mechs := graphMechanisms(spec.Graph, cols)
+	sample := &attribution.Sample{
+		X:          x,
+		Comparison: append([]bool(nil), d.Comparison...),
+		Labels:     append([]float64(nil), d.Labels...),
+		Scores:     append([]float64(nil), d.Scores...),
+		Features:   features,
+	}
+	for _, c := range spec.ProbabilityColumns() {
+		sample.ProbabilityCols = append(sample.ProbabilityCols, cols[c][0])
+	}
+	return sample, mechs
+}
+
+// featureLayout maps every data column of d to its columns in the
+// feature matrix (encode) and names each feature column: a numeric
+// column's name, name␟level for a categorical level, name␟missing for a
+// missingness indicator (␟ the unit separator, which no column name
+// holds). It depends on d alone, not on the graph.
+func featureLayout(d *Dataset) (cols map[string][]int, features []string) {
+	cols = map[string][]int{}
+	for _, c := range d.Columns {
+		names := []string{c.Name}
+		if c.Categorical {
+			names = names[:0]
+			for _, l := range c.Levels {
+				names = append(names, c.Name+"\x1f"+l)
+			}
+		}
+		if c.Missing != nil {
+			names = append(names, c.Name+"\x1fmissing") // the missingness indicator, after the value
+		}
+		for _, f := range names {
+			cols[c.Name] = append(cols[c.Name], len(features))
+			features = append(features, f)
+		}
+	}
+	return cols, features
+}
+
+// graphMechanisms returns one mechanism per node of graph over the
+// feature columns cols (featureLayout): its NodeCols are the features of
+// the node's data columns, its ParentCols those of its parents in the
+// order the parents are listed.
+func graphMechanisms(graph []NodeSpec, cols map[string][]int) []attribution.Mechanism {
 	nodeCols := map[string][]int{}
-	for _, node := range spec.Graph {
+	for _, node := range graph {
 		for _, c := range node.Columns {
 			nodeCols[node.Node] = append(nodeCols[node.Node], cols[c]...)
 		}
 	}
-	mechs := make([]attribution.Mechanism, len(spec.Graph))
-	for i, node := range spec.Graph {
+	mechs := make([]attribution.Mechanism, len(graph))
+	for i, node := range graph {
 		m := attribution.Mechanism{Node: node.Node, Parents: append([]string(nil), node.Parents...), NodeCols: nodeCols[node.Node]}
 		for _, par := range node.Parents {
 			m.ParentCols = append(m.ParentCols, nodeCols[par]...)
 		}
 		mechs[i] = m
 	}
-	sample := &attribution.Sample{
-		X:          x,
-		Comparison: append([]bool(nil), d.Comparison...),
-		Labels:     append([]float64(nil), d.Labels...),
-		Scores:     append([]float64(nil), d.Scores...),
-	}
-	for _, c := range spec.ProbabilityColumns() {
-		sample.ProbabilityCols = append(sample.ProbabilityCols, cols[c][0])
-	}
-	return sample, mechs
+	return mechs
 }
 
 // observeMetrics computes every metric on each group's records

@@ -61,7 +61,7 @@ type Result struct {
 	// absent when the spec turns it off.
 	HiddenFactor *HiddenFactor `json:"hidden_factor,omitempty"`
 	// GraphRobustness, present when the audit was rerun under alternative
-	// graphs (CheckGraphs, decompose --alt-graph), holds every run and
+	// graphs (RunOptions.AltGraphs, decompose --alt-graph), holds every run and
 	// what holds across them.
 	GraphRobustness *GraphRobustness `json:"graph_robustness,omitempty"`
 }

@@ -36,7 +36,7 @@ func (t *textWriter) altGraphs(res *fairness.Result) {
 			}
 			tab.add(row...)
 		}
-		tab.add(append([]string{"largest contribution"}, m.Leads...)...)
+		tab.add(append([]string{"Largest contribution"}, m.Leads...)...)
 		tab.write(t.w, "    ")
 		for _, s := range m.Holds {
 			t.line("    holds: %s", s)

@@ -18,7 +18,10 @@ import (
 // run next, in which every word is quoted for the shell as needed.
 type DemoOutputs struct {
 	Dir, Data, Spec, Result, Report string
-	Command                         []string
+	// AltGraph is the alternative graph file the demo wrote, "" for
+	// none.
+	AltGraph string
+	Command  []string
 }
 
 // DemoSummary writes what `gapwise demo` prints after its audit: per
@@ -81,8 +84,15 @@ func writeDemoSummary(w io.Writer, res *fairness.Result, out DemoOutputs) {
 	if len(command) == 0 {
 		command = []string{"gapwise"}
 	}
-	fmt.Fprintf(w, "\nWrote %s, %s, %s and %s in %s\n", pt(out.Data), pt(out.Spec), pt(out.Result), pt(out.Report), pt(out.Dir))
+	inputs := pt(out.Data) + ", " + pt(out.Spec)
+	if out.AltGraph != "" {
+		inputs += ", " + pt(out.AltGraph)
+	}
+	fmt.Fprintf(w, "\nWrote %s, %s and %s in %s\n", inputs, pt(out.Result), pt(out.Report), pt(out.Dir))
 	next := shellCommand(append(command, "decompose", "--spec", filepath.Join(out.Dir, out.Spec))...)
+	if out.AltGraph != "" {
+		next = shellCommand(append(command, "decompose", "--spec", filepath.Join(out.Dir, out.Spec), "--alt-graph", filepath.Join(out.Dir, out.AltGraph))...)
+	}
 	fmt.Fprintf(w, "Open %s in a browser, or run next:\n  %s\n", pt(filepath.Join(out.Dir, out.Report)), pt(next))
 }
 

@@ -115,7 +115,8 @@ type page struct {
 	Gate            *gateView  // the policy section (html_policy.go), nil without a policy
 	ImpactNote      string     // what the ratio beside a rate's gap is (impactNote), or ""
 	Crosswalk       crosswalkView
-	HiddenFactor    *hiddenView // the sensitivity section (sensitivity_html.go), nil without one
+	HiddenFactor    *hiddenView    // the sensitivity section (sensitivity_html.go), nil without one
+	AltGraphs       *altGraphsView // the alternative graphs (altgraph_html.go), nil without them
 }
 
 type keyValue struct{ Key, Value string }
@@ -253,6 +254,7 @@ func newPage(res *fairness.Result, games map[string][]float64) (*page, error) {
 	}
 	if len(res.Metrics) > 0 {
 		p.HiddenFactor = hiddenPage(res, res.Metrics[0].Metric)
+		p.AltGraphs = altGraphPage(res, res.Metrics[0].Metric)
 	}
 	if res.Title != "" {
 		p.Title = res.Title

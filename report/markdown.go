@@ -34,6 +34,7 @@ func WriteMarkdown(w io.Writer, res *fairness.Result) error {
 		mdDecomposition(p, res, m, flags)
 	}
 	mdHiddenFactor(p, res)
+	mdAltGraphs(p, res)
 	if len(res.Assumptions) > 0 {
 		p("### Assumptions and cautions\n\n")
 		for _, a := range res.Assumptions {

@@ -7,7 +7,7 @@ import (
 )
 
 // altGraphOptions are the flags that rerun decompose under alternative
-// graphs (fairness.CheckGraphs).
+// graphs (fairness.RunOptions.AltGraphs).
 type altGraphOptions struct {
 	files       []string // --alt-graph, in the order given
 	independent bool     // --alt-graph-independent (implied by files)
@@ -41,17 +41,4 @@ func (o altGraphOptions) load(spec *fairness.Spec) ([]fairness.AltGraph, error) 
 		out = append(out, fairness.LabelParentGraph(spec))
 	}
 	return out, nil
-}
-
-// checkGraphs reruns the audit of spec under alts (none: nothing to do)
-// with the same workers and bootstrap settings as the main run, showing
-// progress on line.
-func checkGraphs(spec *fairness.Spec, res *fairness.Result, alts []fairness.AltGraph, workers int, iv intervalOptions, line *progressLine) error {
-	if len(alts) == 0 {
-		return nil
-	}
-	ro := fairness.RunOptions{Workers: workers, Version: version, Intervals: iv.override(spec),
-		Progress: line.bootstrap(), SamplingProgress: line.sampling()}
-	line.show("gapwise: rerunning under %d alternative graphs ...", len(alts))
-	return fairness.CheckGraphs(spec, res, alts, ro)
 }

@@ -11,10 +11,10 @@ import (
 	"github.com/gapwise/gapwise/fairness"
 )
 
-// demoAltGraph reads haemoglobin as depending on age alone and the
+// testAltGraph reads haemoglobin as depending on age alone and the
 // red-cell indices on anaemia and haemoglobin: an alternative to the
 // demo spec's graph over the same columns.
-const demoAltGraph = `graph:
+const testAltGraph = `graph:
   - node: age
   - node: anaemia
     parents: [age]
@@ -62,7 +62,7 @@ func writeAltGraph(t *testing.T, src string) string {
 // workers, and every report names the runs.
 func TestDecomposeAltGraph(t *testing.T) {
 	spec := oneSplitDemo(t)
-	alt := writeAltGraph(t, demoAltGraph)
+	alt := writeAltGraph(t, testAltGraph)
 	o := decomposeOptions{spec: spec, format: formatJSON, workers: 1, intervals: noAltIntervals, alt: altGraphOptions{files: []string{alt}, labelParent: true}}
 	one := decompose(t, o)
 	o.workers = 2
@@ -94,12 +94,12 @@ func TestDecomposeAltGraph(t *testing.T) {
 			}
 		}
 	}
-	for _, format := range []string{formatText, formatMarkdown} {
+	for _, format := range []string{formatText, formatMarkdown, formatHTML} {
 		var out bytes.Buffer
 		if err := render(&out, &res, format, false); err != nil {
 			t.Fatal(err)
 		}
-		for _, w := range []string{"independent roots", filepath.Base(alt), "label only parent"} {
+		for _, w := range []string{"independent roots", filepath.Base(alt), "label only parent", "Largest contribution"} {
 			if !strings.Contains(out.String(), w) {
 				t.Errorf("%s output lacks %q", format, w)
 			}
@@ -112,9 +112,9 @@ func TestDecomposeAltGraph(t *testing.T) {
 func TestDecomposeAltGraphBadFile(t *testing.T) {
 	spec := filepath.Join(demoDir(t), demoSpec) // no estimation runs: the files fail first
 	tests := []struct{ name, src, want string }{
-		{"missing column", strings.Replace(demoAltGraph, "[mcv, rdw]", "[mcv]", 1), `alt.yaml:1: key graph: an alternative graph must hold the same columns as the spec's graph: the spec's graph columns "rdw" are in no node`},
-		{"unknown parent", strings.Replace(demoAltGraph, "[anaemia, hb]", "[anemia, hb]", 1), `alt.yaml:9: key graph[3].parents: unknown node "anemia"`},
-		{"other key", demoAltGraph + "seed: 2\n", `alt.yaml:12: key seed: unknown key "seed"`},
+		{"missing column", strings.Replace(testAltGraph, "[mcv, rdw]", "[mcv]", 1), `alt.yaml:1: key graph: an alternative graph must hold the same columns as the spec's graph: the spec's graph columns "rdw" are in no node`},
+		{"unknown parent", strings.Replace(testAltGraph, "[anaemia, hb]", "[anemia, hb]", 1), `alt.yaml:9: key graph[3].parents: unknown node "anemia"`},
+		{"other key", testAltGraph + "seed: 2\n", `alt.yaml:12: key seed: unknown key "seed"`},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -134,5 +134,27 @@ func TestDecomposeAltGraphBadFile(t *testing.T) {
 	missing := filepath.Join(t.TempDir(), "none.yaml")
 	if code := execute([]string{"decompose", spec, "--alt-graph", missing}, &stdout, &stderr); code != exitInput || !strings.Contains(stderr.String(), "graph file not found") {
 		t.Errorf("missing file: exit %d, stderr %q", code, stderr.String())
+	}
+}
+
+// TestDecomposeAltGraphSeveralGroups: alternative graphs with several
+// comparison groups are refused with exit status 2 before any estimation.
+func TestDecomposeAltGraphSeveralGroups(t *testing.T) {
+	dir := t.TempDir()
+	src, err := os.ReadFile(filepath.Join(demoDir(t), demoSpec))
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := strings.Replace(string(src), "data: cohort.csv", "data: "+filepath.Join(demoDir(t), "cohort.csv"), 1)
+	text = strings.Replace(text, "comparison: female}", "comparison: every-other}", 1)
+	text = strings.Replace(text, "groups: {reference: men, comparison: women}", "groups: {reference: men}", 1)
+	spec := filepath.Join(dir, demoSpec)
+	if err := os.WriteFile(spec, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var stdout, stderr bytes.Buffer
+	code := execute([]string{"decompose", spec, "--intervals", "0", "--alt-graph-independent"}, &stdout, &stderr)
+	if code != exitInput || !strings.Contains(stderr.String(), "not available with several comparison groups") {
+		t.Errorf("exit %d, stderr %q; want %d and the refusal", code, stderr.String(), exitInput)
 	}
 }

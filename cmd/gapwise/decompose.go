@@ -175,6 +175,9 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 		return err
 	}
 	if spec.Groups.Several() {
+		if len(alts) > 0 {
+			return &usageError{"--alt-graph and --alt-graph-* are not available with several comparison groups (groups.comparison is a list or every-other): audit one comparison at a time"}
+		}
 		return runDecomposeGroups(o, spec, out, pol, stdout, stderr)
 	}
 	if o.out != "" {
@@ -184,11 +187,8 @@ func runDecompose(o decomposeOptions, stdout, stderr io.Writer) error {
 	}
 	line := newProgressLine(stderr)
 	defer line.clear()
-	res, err := audit(spec, o.workers, o.intervals, o.coalitions.runLimit(), line)
+	res, err := audit(spec, o.workers, o.intervals, o.coalitions.runLimit(), alts, line)
 	if err != nil {
-		return err
-	}
-	if err := checkGraphs(spec, res, alts, o.workers, o.intervals, line); err != nil {
 		return err
 	}
 	if err := fairness.ApplyPolicy(res, pol); err != nil {
@@ -282,9 +282,13 @@ func outputFiles(res *fairness.Result, coalitions bool) ([]outFile, error) {
 // audit runs fairness.Run on spec with the bootstrap settings of the spec
 // and the flags and the coalition limit (fairness.RunOptions.CoalitionLimit),
 // showing progress on line.
-func audit(spec *fairness.Spec, workers int, iv intervalOptions, coalitionLimit int, line *progressLine) (*fairness.Result, error) {
+func audit(spec *fairness.Spec, workers int, iv intervalOptions, coalitionLimit int, alts []fairness.AltGraph, line *progressLine) (*fairness.Result, error) {
 	ro := fairness.RunOptions{Workers: workers, Version: version, Intervals: iv.override(spec),
-		Progress: line.bootstrap(), SamplingProgress: line.sampling(), CoalitionLimit: coalitionLimit}
-	line.show("gapwise: estimating %d mechanisms for %d metrics ...", len(spec.Graph), len(spec.Metrics))
+		Progress: line.bootstrap(), SamplingProgress: line.sampling(), CoalitionLimit: coalitionLimit, AltGraphs: alts}
+	if len(alts) > 0 {
+		line.show("gapwise: estimating %d mechanisms for %d metrics under %d graphs ...", len(spec.Graph), len(spec.Metrics), 1+len(alts))
+	} else {
+		line.show("gapwise: estimating %d mechanisms for %d metrics ...", len(spec.Graph), len(spec.Metrics))
+	}
 	return fairness.Run(spec, ro)
 }

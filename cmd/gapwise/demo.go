@@ -6,6 +6,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"strconv"
 
 	"github.com/spf13/cobra"
 
@@ -16,8 +17,9 @@ import (
 
 // Files of the demo folder besides the outputs of decompose.
 const (
-	demoData = "cohort.csv"
-	demoSpec = "spec.yaml"
+	demoData     = "cohort.csv"
+	demoSpec     = "spec.yaml"
+	demoAltGraph = "alt-graph.yaml" // synth.AnaemiaAltGraph
 )
 
 // The demo's defaults: demoRows records, with intervals from
@@ -44,6 +46,10 @@ type demoOptions struct {
 	parquet bool   // --parquet: the cohort as cohort.parquet
 	model   int    // --model: the screening model's version (synth.DemoModel)
 	clinics bool   // --clinics: the cohort by clinic, every clinic against central (demo_clinics.go)
+	// noAltGraphs (--alt-graphs=false) skips the reruns under other
+	// graphs: the demo's alt-graph.yaml, independent roots and the label
+	// as only parent.
+	noAltGraphs bool
 
 	intervals intervalOptions
 	suppress  suppressOption
@@ -70,6 +76,12 @@ refitting the classifiers; --intervals 0 turns them off, and --fast-intervals
 keeps the fitted density ratios instead (faster, but the contributions'
 intervals are then approximate: too narrow, and labelled so).
 
+The audit is also rerun under three other causal graphs: alt-graph.yaml,
+which the demo writes beside the spec (haemoglobin depending on anaemia
+alone, the red-cell indices on age too), every node a root, and the label
+as the only parent of every finding; the report shows what holds under
+every graph and what changes. --alt-graphs=false skips them.
+
 --parquet writes the cohort as cohort.parquet (Parquet) instead of
 cohort.csv; the data, and so the result, are the same.
 
@@ -95,6 +107,11 @@ audit and is listed as skipped.`,
 	bindAuditDateFlag(cmd, &o.date)
 	f.BoolVar(&o.parquet, "parquet", false, "write the cohort as "+demoParquetData+" (Parquet) instead of "+demoData)
 	bindSuppressFlag(cmd, &o.suppress)
+	f.BoolFunc("alt-graphs", "also decompose under the demo's alt-graph.yaml, independent roots and the label as only parent (default true; --alt-graphs=false skips them)", func(v string) error {
+		on, err := strconv.ParseBool(v)
+		o.noAltGraphs = !on
+		return err
+	})
 	f.BoolVar(&o.clinics, "clinics", false, "write the cohort of four invented clinics instead and audit every clinic against central (several comparison groups)")
 	return cmd
 }
@@ -141,7 +158,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if o.parquet {
 		data = demoParquetData
 	}
-	if err := (outDir{path: o.out, force: o.force}).check(data, demoSpec, resultFile, reportFile); err != nil {
+	if err := (outDir{path: o.out, force: o.force}).check(data, demoSpec, demoAltGraph, resultFile, reportFile); err != nil {
 		return err
 	}
 	line := newProgressLine(stderr)
@@ -161,7 +178,7 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 			return err
 		}
 	}
-	inputs := []outFile{{data, cohort}, {demoSpec, synth.AnaemiaSpecVersion(data, version)}}
+	inputs := []outFile{{data, cohort}, {demoSpec, synth.AnaemiaSpecVersion(data, version)}, {demoAltGraph, synth.AnaemiaAltGraph()}}
 	// Outputs of an earlier demo in a forced folder would not match the new
 	// cohort: they leave with the old inputs, so a failed audit leaves only
 	// the new inputs.
@@ -177,7 +194,14 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 		spec.AuditDate = date
 	}
 	o.suppress.apply(spec)
-	res, err := audit(spec, o.workers, o.intervals, 0, line)
+	altPath := filepath.Join(o.out, demoAltGraph)
+	var alts []fairness.AltGraph
+	if !o.noAltGraphs {
+		if alts, err = (altGraphOptions{files: []string{altPath}, labelParent: true}).load(spec); err != nil {
+			return err
+		}
+	}
+	res, err := audit(spec, o.workers, o.intervals, 0, alts, line)
 	if err != nil {
 		return err
 	}
@@ -185,11 +209,11 @@ func runDemo(o demoOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return err
 	}
-	if err := (outDir{path: o.out, force: true, inputs: []string{specPath, spec.DataPath}}).write(files); err != nil {
+	if err := (outDir{path: o.out, force: true, inputs: []string{specPath, spec.DataPath, altPath}}).write(files); err != nil {
 		return err
 	}
 	return report.DemoSummary(stdout, res, report.DemoOutputs{
-		Dir: o.out, Data: data, Spec: demoSpec, Result: resultFile, Report: reportFile,
+		Dir: o.out, Data: data, Spec: demoSpec, Result: resultFile, Report: reportFile, AltGraph: demoAltGraph,
 		Command: invokedAs(os.Args[0]),
 	})
 }

@@ -141,7 +141,7 @@ func TestDemoHintRunsAfterGoRun(t *testing.T) {
 		t.Fatalf("no hint in:\n%s", out)
 	}
 	hint := strings.TrimSpace(strings.SplitN(string(out[i+len(lead):]), "\n", 2)[0])
-	if want := "go run . decompose --spec '" + filepath.Join(dir, demoSpec) + "'"; hint != want {
+	if want := "go run . decompose --spec '" + filepath.Join(dir, demoSpec) + "' --alt-graph '" + filepath.Join(dir, demoAltGraph) + "'"; hint != want {
 		t.Errorf("hint %q, want %q", hint, want)
 	}
 	next := exec.Command("sh", "-c", hint+" --format markdown")
