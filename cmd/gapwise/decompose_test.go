@@ -62,8 +62,11 @@ func TestDecomposeDeterministic(t *testing.T) {
 		t.Error("JSON differs between 1 and 2 workers")
 	}
 	// The demo's result.json came from an earlier run (GOMAXPROCS workers)
-	// on the same spec and data, with the same bootstrap.
-	if file := readFile(t, filepath.Join(demoDir(t), resultFile)); file != one {
+	// on the same spec and data, with the same bootstrap, under the same
+	// alternative graphs.
+	alts := altGraphOptions{files: []string{filepath.Join(demoDir(t), demoAltGraph)}, labelParent: true}
+	withAlts := decompose(t, decomposeOptions{spec: spec, format: formatJSON, intervals: testIntervals, alt: alts})
+	if file := readFile(t, filepath.Join(demoDir(t), resultFile)); file != withAlts {
 		t.Error("demo's result.json differs from decompose --format json")
 	}
 	var res fairness.Result

@@ -62,10 +62,10 @@ func TestBinary(t *testing.T) {
 	if !strings.Contains(out, "SYNTHETIC") || !strings.Contains(out, demo) {
 		t.Errorf("demo summary: %q", out)
 	}
-	if want := "or run next:\n  " + bin + " decompose --spec " + filepath.Join(demo, demoSpec) + "\n"; !strings.Contains(out, want) {
+	if want := "or run next:\n  " + bin + " decompose --spec " + filepath.Join(demo, demoSpec) + " --alt-graph " + filepath.Join(demo, demoAltGraph) + "\n"; !strings.Contains(out, want) {
 		t.Errorf("demo summary lacks the hint %q:\n%s", want, out)
 	}
-	for _, f := range []string{demoData, demoSpec, resultFile, reportFile} {
+	for _, f := range []string{demoData, demoSpec, demoAltGraph, resultFile, reportFile} {
 		if _, err := os.Stat(filepath.Join(demo, f)); err != nil {
 			t.Error(err)
 		}
