@@ -10,6 +10,7 @@ import (
 	"io/fs"
 	"math"
 	"os"
+	"slices"
 	"sort"
 	"strings"
 )
@@ -191,15 +192,18 @@ type csvLoader struct {
 	parquet   bool
 	rowStarts []int
 
-	width                        int      // fields of the header
-	named                        int      // fields up to the last named one
-	header                       []string // trimmed names; "" for unnamed fields
-	groupIdx, labelIdx, scoreIdx int      // their fields
-	names                        []string // graph columns (Spec.Columns), then Spec.OutsideInputs
-	nGraph                       int      // how many of names are graph columns
-	colIdx                       []int    // field of each graph column
-	categorical                  map[string]bool
-	probability                  map[string]bool // declared under probabilities
+	width              int      // fields of the header
+	named              int      // fields up to the last named one
+	header             []string // trimmed names; "" for unnamed fields
+	labelIdx, scoreIdx int      // their fields
+	groupIdx           []int    // fields of the group columns (GroupSpec.DataColumns)
+	groupBands         []*GroupBands
+	groupParts         []string // buffer of groupOf
+	names              []string // graph columns (Spec.Columns), then Spec.OutsideInputs
+	nGraph             int      // how many of names are graph columns
+	colIdx             []int    // field of each graph column
+	categorical        map[string]bool
+	probability        map[string]bool // declared under probabilities
 
 	d                      *Dataset
 	raw                    [][]string // categorical cells of kept rows
@@ -302,16 +306,22 @@ func (l *csvLoader) locateColumns(pos map[string]int) error {
 	l.names = spec.Columns()
 	l.nGraph = len(l.names)
 	l.names = append(l.names, spec.OutsideInputs()...)
-	wanted := append([]string{spec.Groups.Column, spec.Label, spec.Score}, l.names...)
+	gcols := spec.Groups.DataColumns()
+	wanted := append(append(slices.Clip(gcols), spec.Label, spec.Score), l.names...)
 	idx := make([]int, len(wanted))
 	for k, col := range wanted {
 		i, ok := pos[col]
 		if !ok {
-			return l.derr(1, col, wrapf(ErrMissingColumn, "not found in the header (needed by the spec)%s", separatorHint(l.header)))
+			return l.derr(1, col, wrapf(ErrMissingColumn, "not found in the header (needed by the spec%s)%s", l.groupKeyHint(k), separatorHint(l.header)))
 		}
 		idx[k] = i
 	}
-	l.groupIdx, l.labelIdx, l.scoreIdx, l.colIdx = idx[0], idx[1], idx[2], idx[3:]
+	ng := len(gcols)
+	l.groupIdx, l.labelIdx, l.scoreIdx, l.colIdx = idx[:ng], idx[ng], idx[ng+1], idx[ng+2:]
+	l.groupBands, l.groupParts = make([]*GroupBands, ng), make([]string, ng)
+	for j, c := range gcols {
+		l.groupBands[j] = spec.Groups.bandsOf(c)
+	}
 	l.categorical = map[string]bool{}
 	for _, c := range spec.Categorical {
 		l.categorical[c] = true
@@ -407,11 +417,14 @@ func (l *csvLoader) readRow(rec []string) error {
 	line, _ := l.cr.FieldPos(0)
 	r := &csvRow{l: l, rec: rec}
 	spec := l.spec
-	g := r.cell(l.groupIdx)
+	g, miss, err := l.groupOf(r)
+	if err != nil {
+		return err
+	}
 	isCmp := g == spec.Groups.Comparison
-	if isMissing(g) {
+	if miss >= 0 {
 		if !spec.ToleratesMissing() {
-			return l.derr(r.at(l.groupIdx), spec.Groups.Column, wrapf(ErrMissingValue, "missing group value %s (set missing: drop to skip such rows)", l.missingText(g)))
+			return l.derr(r.at(l.groupIdx[miss]), spec.Groups.DataColumns()[miss], wrapf(ErrMissingValue, "missing group value %s (set missing: drop to skip such rows)", l.missingText(g)))
 		}
 		l.excluded.missingRows++
 		return nil
@@ -559,7 +572,7 @@ func (l *csvLoader) checkGroups() error {
 		seen  int
 	}{{spec.Groups.Reference, l.seenRef}, {spec.Groups.Comparison, l.seenCmp}} {
 		if gc.seen == 0 {
-			return l.derr(0, spec.Groups.Column, wrapf(ErrGroupAbsent, "group value %q does not appear in the column%s", gc.value, l.presentValues(gc.value)))
+			return l.derr(0, spec.Groups.Column, wrapf(ErrGroupAbsent, "group value %q does not appear in %s%s", gc.value, l.spec.Groups.where("the column"), l.presentValues(gc.value)))
 		}
 	}
 	nRef, nCmp := l.d.Counts()

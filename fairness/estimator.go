@@ -104,7 +104,7 @@ func nodeReads(spec *Spec) attribution.NodeReads {
 	switch {
 	case spec.ScoreIsNode():
 		r.Score = []int{owner(spec.Score)}
-	case len(spec.ModelInputs) > 0 && len(spec.OutsideInputs()) == 0 && !slices.Contains(spec.ModelInputs, spec.Groups.Column):
+	case len(spec.ModelInputs) > 0 && len(spec.OutsideInputs()) == 0 && !readsGroup(spec):
 		r.Score = []int{}
 		for _, c := range spec.ModelInputs {
 			if i := owner(c); i >= 0 && !slices.Contains(r.Score, i) {

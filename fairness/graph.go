@@ -62,11 +62,8 @@ func validateGraph(s *Spec) error {
 	if s.Score == s.Label {
 		return specErr(f, s.lines["score"], "score", ErrBadValue, "score and label name the same column %q", s.Score)
 	}
-	if node, ok := owner[s.Groups.Column]; ok {
-		return specErr(f, s.lines["groups"], "groups.column", ErrGroupInGraph, "group column %q is in the graph (node %q); the group indexes the two distributions and must not be a node", s.Groups.Column, node)
-	}
-	if s.Groups.Column == s.Score {
-		return specErr(f, s.lines["groups"], "groups.column", ErrBadValue, "group column and score name the same column %q", s.Score)
+	if err := checkGroupColumns(s, owner); err != nil {
+		return err
 	}
 	if node, ok := owner[s.Score]; ok {
 		n := s.Graph[index[node]]

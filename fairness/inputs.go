@@ -3,7 +3,6 @@ package fairness
 import (
 	"fmt"
 	"math"
-	"slices"
 )
 
 // ModelInputs records the spec's model_inputs: the columns the model
@@ -24,7 +23,7 @@ func modelInputs(spec *Spec) *ModelInputs {
 	return &ModelInputs{
 		Declared:     append([]string{}, spec.ModelInputs...),
 		OutsideGraph: append([]string{}, spec.OutsideInputs()...),
-		ReadsGroup:   slices.Contains(spec.ModelInputs, spec.Groups.Column),
+		ReadsGroup:   readsGroup(spec),
 	}
 }
 

@@ -234,7 +234,7 @@ func chooseComparisons(spec *Spec, counts map[string]int) ([]string, error) {
 // absentValue is the error for a group value at key that the column does
 // not hold, suggesting the nearest value it does hold.
 func absentValue(spec *Spec, line int, key, v string, present []string) error {
-	msg := fmt.Sprintf("group value %q does not appear in column %q of %s", v, spec.Groups.Column, spec.DataPath)
+	msg := fmt.Sprintf("group value %q does not appear in %s of %s", v, spec.Groups.where(fmt.Sprintf("column %q", spec.Groups.Column)), spec.DataPath)
 	if s, ok := didyoumean.Nearest(v, present); ok {
 		return specErr(spec.File, line, key, ErrGroupAbsent, "%s; did you mean %q?", msg, s)
 	}

@@ -405,7 +405,9 @@ func specColumns(s *Spec) []string {
 		add(c)
 	}
 	add(s.Score)
-	add(s.Groups.Column)
+	for _, c := range s.Groups.DataColumns() {
+		add(c)
+	}
 	for _, c := range s.ModelInputs {
 		add(c)
 	}

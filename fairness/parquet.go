@@ -9,6 +9,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 
@@ -134,7 +135,7 @@ type parquetRecords struct {
 // gapwise does not read, and a file with more cells than MaxParquetCells.
 func newParquetRecords(pf *parquet.File, l *csvLoader) (*parquetRecords, error) {
 	spec := l.spec
-	wanted := append([]string{spec.Groups.Column, spec.Label, spec.Score}, spec.Columns()...)
+	wanted := append(append(slices.Clip(spec.Groups.DataColumns()), spec.Label, spec.Score), spec.Columns()...)
 	wanted = append(wanted, spec.OutsideInputs()...)
 	p := &parquetRecords{l: l, file: pf, group: -1}
 	seen := map[string]bool{}

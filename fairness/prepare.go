@@ -51,6 +51,8 @@ func groupInfo(spec *Spec, d *Dataset) GroupInfo {
 		Column:            spec.Groups.Column,
 		Reference:         spec.Groups.Reference,
 		Comparison:        spec.Groups.Comparison,
+		Columns:           combinedColumns(spec.Groups),
+		Bands:             append([]GroupBands(nil), spec.Groups.Bands...),
 		NReference:        nRef,
 		NComparison:       nCmp,
 		EventsReference:   events(d, false),

@@ -127,15 +127,24 @@ type IntervalSettings = attribution.BootstrapSummary
 
 // GroupInfo describes the two groups compared.
 type GroupInfo struct {
-	Column            string `json:"column"`
-	Reference         string `json:"reference"`
-	Comparison        string `json:"comparison"`
-	NReference        int    `json:"n_reference"`
-	NComparison       int    `json:"n_comparison"`
-	EventsReference   int    `json:"events_reference"`   // records with label 1
-	EventsComparison  int    `json:"events_comparison"`  // records with label 1
-	DroppedReference  int    `json:"dropped_reference"`  // rows dropped for missing values
-	DroppedComparison int    `json:"dropped_comparison"` // rows dropped for missing values
+	// Column is the group column, or for groups formed by several columns
+	// or bands (groups.columns, groups.bands) those columns joined by
+	// " × "; Reference and Comparison are then combinations such as
+	// "sex F, age 40–65", listed in Columns with Bands.
+	Column     string `json:"column"`
+	Reference  string `json:"reference"`
+	Comparison string `json:"comparison"`
+	// Columns lists the group columns and Bands the banded ones with
+	// their edges (each band holds its lower edge); both absent for a
+	// group column's plain values.
+	Columns           []string     `json:"columns,omitempty"`
+	Bands             []GroupBands `json:"bands,omitempty"`
+	NReference        int          `json:"n_reference"`
+	NComparison       int          `json:"n_comparison"`
+	EventsReference   int          `json:"events_reference"`   // records with label 1
+	EventsComparison  int          `json:"events_comparison"`  // records with label 1
+	DroppedReference  int          `json:"dropped_reference"`  // rows dropped for missing values
+	DroppedComparison int          `json:"dropped_comparison"` // rows dropped for missing values
 
 	// Rows not audited because their group value is another one, counted
 	// per value (most rows first; at most 1,000 values are listed, and

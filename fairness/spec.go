@@ -33,6 +33,8 @@ import (
 //	threshold: 0.4       # positive decision when score >= threshold, in (0, 1)
 //	groups: {column: clinic, reference: north, comparison: south}
 //	                     # or comparison: [south, east] or comparison: every-other for one audit per value (RunGroups)
+//	                     # or {columns: [sex, age], bands: {age: [40, 65]}, reference: {sex: M, age: "<40"}, comparison: every-other}
+//	                     # for combinations of columns and half-open bands (groups_combined_spec.go)
 //	metrics: [fpr, fnr]  # names from metrics.Names()
 //	graph:               # every node once; columns default to [node]
 //	  - node: labs
@@ -162,8 +164,18 @@ type GroupSpec struct {
 	// EveryOther is set by comparison: every-other: every value of the
 	// column other than the reference, found in the data.
 	EveryOther bool
+	// Columns lists the group columns of groups.columns, whose
+	// combination of values forms a record's group (groups_combined_spec.go);
+	// nil for the one-column form, where Column is the column. With
+	// Columns, Column is them joined by " × ", and Reference and the
+	// comparison values are combinations ("sex F, age 40–65").
+	Columns []string
+	// Bands cuts numeric group columns into bands (groups.bands), in the
+	// order of Columns.
+	Bands []GroupBands
 
 	comparisonLines []int // line of each Comparisons entry
+	bandsLine       int   // line of groups.bands
 	comparisonLine  int   // line of the comparison value
 }
 
@@ -353,7 +365,10 @@ func (s *Spec) Columns() []string {
 // OutsideInputs lists the declared model inputs that are in no graph node
 // and are not the group column, in the order declared.
 func (s *Spec) OutsideInputs() []string {
-	inGraph := map[string]bool{s.Groups.Column: true}
+	inGraph := map[string]bool{}
+	for _, c := range s.Groups.DataColumns() {
+		inGraph[c] = true
+	}
 	for _, c := range s.Columns() {
 		inGraph[c] = true
 	}
@@ -660,6 +675,9 @@ func (p *specParser) eachKey(v *yaml.Node, prefix string, fn func(k, val *yaml.N
 func (p *specParser) groups(s *Spec, v *yaml.Node) error {
 	if v.Kind != yaml.MappingNode {
 		return specErr(p.file, v.Line, "groups", ErrBadValue, "groups must be a mapping with column, reference and comparison")
+	}
+	if usesCombinedForm(v) {
+		return p.combinedGroups(s, v) // groups_combined_spec.go
 	}
 	seen, err := p.eachKey(v, "groups", func(k, val *yaml.Node, key string) error {
 		var dst *string

@@ -8,7 +8,7 @@ var (
 	topKeys = []string{"data", "label", "positive", "score", "threshold", "groups", "metrics", "graph", "seed",
 		"missing", "categorical", "model_inputs", "probabilities", "folds", "fold_splits", "classifier", "ece_bins", "estimator", "estimate_from", "combine_sides",
 		"clip_ratios", "exact_limit", "intervals", "synthetic", "title", "names", "model", "audit_date", "suppress_below", "hidden_factor"}
-	groupKeys     = []string{"column", "reference", "comparison"}
+	groupKeys     = []string{"column", "columns", "bands", "reference", "comparison"}
 	intervalKeys  = []string{"replicates", "level", "keep_ratios", "form"}
 	graphNodeKeys = []string{"node", "columns", "parents"}
 )

@@ -139,20 +139,14 @@ func groupsOutputFiles(g *fairness.GroupsResult, coalitions bool) ([]outFile, er
 	return append(files, outFile{summaryFile, append(js, '\n')}, outFile{summaryHTMLFile, html.Bytes()}), nil
 }
 
-// groupFileNames gives each comparison value the part of its file names:
-// the value with every character other than ASCII letters, digits, '.',
-// '_' and '-' replaced by '_' ("group" when nothing is left), made unique
-// ignoring case by a suffix -2, -3, … in the order of the comparisons.
+// groupFileNames gives each comparison value the part of its file names
+// (fileSlug; "group<i>" when nothing is left), made unique ignoring case
+// by a suffix -2, -3, … in the order of the comparisons.
 func groupFileNames(cs []fairness.ComparisonSummary) []string {
 	seen := map[string]bool{}
 	out := make([]string, len(cs))
 	for i, c := range cs {
-		base := strings.Map(func(r rune) rune {
-			if r < 128 && (r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || r == '.' || r == '_' || r == '-') {
-				return r
-			}
-			return '_'
-		}, c.Value)
+		base := fileSlug(c.Value)
 		if strings.Trim(base, "._") == "" || len(base) > 80 {
 			base = fmt.Sprintf("group%d", i+1)
 		}
@@ -193,4 +187,25 @@ func groupsPolicyVerdict(g *fairness.GroupsResult) error {
 		return nil
 	}
 	return e
+}
+
+// bandSigns are the marks of a band label (fairness.GroupBands.Label)
+// spelt out in file names.
+var bandSigns = strings.NewReplacer("<", "lt", "≥", "ge", "–", "-")
+
+// fileSlug is a group value as part of a file name: the band marks
+// spelt out ("age ≥65" gives age_ge65), every other character than ASCII
+// letters, digits, '.', '_' and '-' replaced by '_', and runs of '_'
+// made one ("sex F, age 40–65" gives sex_F_age_40-65).
+func fileSlug(v string) string {
+	s := strings.Map(func(r rune) rune {
+		if r < 128 && (r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || r == '.' || r == '_' || r == '-') {
+			return r
+		}
+		return '_'
+	}, bandSigns.Replace(v))
+	for strings.Contains(s, "__") {
+		s = strings.ReplaceAll(s, "__", "_")
+	}
+	return s
 }

@@ -123,9 +123,10 @@ func TestDecomposeGroupsPolicy(t *testing.T) {
 
 // TestGroupFileNames checks the file-name part of comparison values.
 func TestGroupFileNames(t *testing.T) {
-	cs := []fairness.ComparisonSummary{{Value: "south"}, {Value: "São Paulo"}, {Value: "South"}, {Value: "../x"}, {Value: "__"}}
+	cs := []fairness.ComparisonSummary{{Value: "south"}, {Value: "São Paulo"}, {Value: "South"}, {Value: "../x"}, {Value: "__"},
+		{Value: "sex F, age 40–65"}, {Value: "sex F, age <40"}, {Value: "sex F, age ≥65"}, {Value: "age ≥65"}}
 	got := strings.Join(groupFileNames(cs), " ")
-	if want := "south S_o_Paulo South-2 .._x group5"; got != want {
+	if want := "south S_o_Paulo South-2 .._x group5 sex_F_age_40-65 sex_F_age_lt40 sex_F_age_ge65 age_ge65"; got != want {
 		t.Errorf("names %q, want %q", got, want)
 	}
 }
