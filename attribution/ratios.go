@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -20,7 +21,8 @@ type RatioOptions struct {
 	Learners []classify.Learner // candidates, chosen per column set by out-of-fold log loss
 	Workers  int                // goroutines; 0 means GOMAXPROCS
 	// MaxFitRows caps the training records of each fit (a stratified
-	// subsample); 0 means DefaultMaxFitRows, negative means no cap.
+	// subsample); 0 means FitRowsFor the sample's size, negative means no
+	// cap.
 	MaxFitRows int
 	// Fits, if non-nil, shares the fits of column sets between
 	// decompositions under different graphs (FitCache).
@@ -56,7 +58,12 @@ const PriorLearner = "prior"
 // feature columns.
 type groupFit struct {
 	cols    []int
-	logOdds [][]float64 // per candidate learner, out-of-fold log-odds per record
+	logOdds [][]float64 // per candidate learner, out-of-fold log-odds per record; after fitAll only the chosen learner's
+	// held[l][fold] holds learner l's log-odds on the held-out records of
+	// that fold (fitPlan.test[fold], in order), while fitAll runs: a
+	// losing learner, scored on fold 0 alone for large samples, then
+	// never needs an array over every record.
+	held [][][]float64
 	losses  []float64   // per candidate learner, out-of-fold mean log loss
 	best    int
 	only    int // if ≥ 0, the only learner fitted
@@ -318,7 +325,7 @@ func newFitPlan(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit,
 	}
 	limit := opt.MaxFitRows
 	if limit == 0 {
-		limit = DefaultMaxFitRows
+		limit = FitRowsFor(len(y))
 	}
 	for fo := range p.train {
 		p.train[fo] = stratifiedSubsample(p.train[fo], y, limit, opt.Seed, fo)
@@ -330,6 +337,10 @@ func newFitPlan(x *mat.Dense, y []float64, folds []int, k int, sets []*groupFit,
 func (p *fitPlan) resetSets() {
 	for _, f := range p.sets {
 		f.logOdds = make([][]float64, p.nl)
+		f.held = make([][][]float64, p.nl)
+		for l := range f.held {
+			f.held[l] = make([][]float64, p.k)
+		}
 		f.losses = make([]float64, p.nl)
 		f.oddsMean = make([]float64, p.nl)
 		f.oddsShare = make([]float64, p.nl)
@@ -379,10 +390,7 @@ func (p *fitPlan) run(jobs []fitJob) error {
 		}
 		dst := make([]float64, len(p.test[jb.fold]))
 		model.LogOdds(subMatrix(p.x, p.test[jb.fold], f.cols), dst)
-		lo := f.logOdds[jb.learner]
-		for a, r := range p.test[jb.fold] {
-			lo[r] = dst[a]
-		}
+		f.held[jb.learner][jb.fold] = dst
 	})
 	for _, err := range errs {
 		if err != nil {
@@ -407,7 +415,6 @@ func (p *fitPlan) scoreCandidates() (int, error) {
 	for si, f := range p.sets {
 		if f.only < 0 && p.nl > 1 {
 			for l := 0; l < p.nl; l++ {
-				f.logOdds[l] = make([]float64, n)
 				for fo := 0; fo < selFolds; fo++ {
 					jobs = append(jobs, fitJob{si, l, fo})
 				}
@@ -430,7 +437,7 @@ func (p *fitPlan) scoreCandidates() (int, error) {
 			f.best = 0
 		default:
 			for l := 0; l < p.nl; l++ {
-				z := pick(f.logOdds[l], selRows)
+				z := slices.Concat(f.held[l][:selFolds]...) // = the log-odds at selRows
 				f.losses[l] = meanLogLoss(ySel, z)
 				f.oddsMean[l] = oddsCalibration(ySel, z)
 				f.oddsShare[l] = oddsMaxShare(ySel, z)
@@ -447,10 +454,8 @@ func (p *fitPlan) completeFolds(selFolds int) error {
 	var jobs []fitJob
 	for si, f := range p.sets {
 		from := 0
-		if f.logOdds[f.best] != nil {
+		if f.held[f.best][0] != nil {
 			from = selFolds // done in phase 1
-		} else {
-			f.logOdds[f.best] = make([]float64, len(p.y))
 		}
 		for fo := from; fo < p.k; fo++ {
 			jobs = append(jobs, fitJob{si, f.best, fo})
@@ -459,24 +464,27 @@ func (p *fitPlan) completeFolds(selFolds int) error {
 	return p.run(jobs)
 }
 
-// finish scores the chosen learner on all folds where it was not scored
-// (not in a bootstrap replicate, whose learner is fixed), drops the losing
-// learners' log-odds and sets the learner bootstrap
+// finish gathers the chosen learner's held-out log-odds into one array
+// over every record (dropping the losing learners'), scores it on all
+// folds where it was not scored (not in a bootstrap replicate, whose
+// learner is fixed) and sets the learner bootstrap
 // replicates refit (refitLearner, warm-started from the chosen learner's
 // fold-0 model).
 func (p *fitPlan) finish() {
 	for _, f := range p.sets {
+		lo := make([]float64, len(p.y))
+		for fo, rows := range p.test {
+			for a, r := range rows {
+				lo[r] = f.held[f.best][fo][a]
+			}
+		}
+		f.logOdds[f.best], f.held = lo, nil
 		// A bootstrap replicate's fixed learner needs no scores: they
 		// serve the choice and the diagnostics of the point estimate.
 		if math.IsNaN(f.losses[f.best]) && f.fixed == nil {
 			f.losses[f.best] = meanLogLoss(p.y, f.logOdds[f.best])
 			f.oddsMean[f.best] = oddsCalibration(p.y, f.logOdds[f.best])
 			f.oddsShare[f.best] = oddsMaxShare(p.y, f.logOdds[f.best])
-		}
-		for l := range f.logOdds {
-			if l != f.best {
-				f.logOdds[l] = nil
-			}
 		}
 		f.refit = p.opt.Learners[f.best]
 		if f.fixed != nil {
@@ -543,8 +551,28 @@ func refitLearner(l classify.Learner, rounds []int, started []bool) classify.Lea
 // fold 0 alone.
 const SelectAllFoldsBelow = 60_000
 
-// DefaultMaxFitRows is the default RatioOptions.MaxFitRows.
+// DefaultMaxFitRows is the smallest cap on a fit's training records that
+// FitRowsFor gives: below ten times this many records nothing changes.
 const DefaultMaxFitRows = 50_000
+
+// FitRowsDivisor is the share of the records, 1/FitRowsDivisor, that
+// FitRowsFor lets a fit train on above DefaultMaxFitRows.
+const FitRowsDivisor = 10
+
+// FitRowsFor returns the default cap (RatioOptions.MaxFitRows 0) on the
+// training records of each fit for a sample of n records:
+//
+//	cap(n) = max(DefaultMaxFitRows, ⌊n / FitRowsDivisor⌋).
+//
+// A fixed cap makes the classifiers' error stop falling with n while the
+// sampling error of the weighted means keeps falling as 1/√n, so on very
+// large samples the fit's error dominated (the accuracy study measured a
+// plateau from 1,000,000 records with a fixed 50,000); growing the cap in
+// proportion to n keeps the two in step, at a fit cost that grows as the
+// rest of the work does (README, Scale).
+func FitRowsFor(n int) int {
+	return max(DefaultMaxFitRows, n/FitRowsDivisor)
+}
 
 // stratifiedSubsample returns rows unchanged when there are at most limit of
 // them; otherwise a subset of limit rows that keeps each class's share

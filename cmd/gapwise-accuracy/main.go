@@ -51,6 +51,9 @@ type options struct {
 	// attribution.DefaultFoldSplits for the size).
 	foldSplits []int
 	scale      string // scaleLogit or scaleRaw: how probability-valued columns enter the learners
+	// maxFitRows is attribution.Options.MaxFitRows for the main study (0:
+	// the library's rule, attribution.FitRowsFor; negative: no cap).
+	maxFitRows int
 	// pairs are unequal group sizes (reference, comparison) given to
 	// -sizes as REF:CMP, coverage study only; nil when every size is one
 	// number for both groups.
@@ -130,11 +133,12 @@ func parseFlags(args []string, stderr io.Writer) (options, error) {
 	methods := fs.String("methods", strings.Join([]string{methodRefit, methodFast, methodDelta}, ","), "with -coverage: interval methods compared (refit: bootstrap refitting the classifiers, fast: bootstrap keeping the fitted ratios, delta: Wald intervals with the ratios held fixed; influence: the robust estimator's influence-function Wald intervals, robust-refit: bootstrap of the robust estimator refitting everything)")
 	gaps := fs.Bool("gaps", false, "with -coverage: only the observed gaps' bootstrap intervals (no fitting: the same numbers as the full bootstrap's), for many cheap draws")
 	subs := fs.String("subs", "50", "with -coverage: also form each bootstrap method's intervals from its first S replicates, for each comma-separated S below -boot")
+	maxFitRows := fs.Int("max-fit-rows", 0, "training records per fit in the main study (0: the library's rule, max(50000, records/10); -1: no cap)")
 	scale := fs.String("scale", scaleLogit, "how probability-valued columns (the score-node case's score) enter the learners: logit (clipped, the engine's way) or raw")
 	if err := fs.Parse(args); err != nil {
 		return options{}, err
 	}
-	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot, splits: *splits, seeds: *seeds, scale: *scale, gapsOnly: *gaps}
+	opt := options{reps: *reps, truthN: *truthN, seed: *seed, detail: *detail, sides: *sides, truth: *truth, coverage: *coverage, checks: *checks, draws: *draws, boot: *boot, splits: *splits, seeds: *seeds, scale: *scale, gapsOnly: *gaps, maxFitRows: *maxFitRows}
 	set := map[string]bool{}
 	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
 	if opt.checks && !set["sizes"] {

@@ -71,7 +71,7 @@ func run(opt options, stdout, stderr io.Writer) error {
 						}
 						opt.onScale(s)
 						start := time.Now()
-						d, err := attribution.Decompose(s, mechs, opt.metrics, est.apply(attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Reads: c.Model.Reads()}))
+						d, err := attribution.Decompose(s, mechs, opt.metrics, est.apply(attribution.Options{Threshold: scm.ScreeningThreshold, Seed: seed, Learners: learners, Reads: c.Model.Reads(), MaxFitRows: opt.maxFitRows}))
 						if err != nil {
 							return fmt.Errorf("case %s, learner %s, n %d: %w", c.Name, choice, n, err)
 						}
