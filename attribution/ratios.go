@@ -63,10 +63,10 @@ type groupFit struct {
 	// that fold (fitPlan.test[fold], in order), while fitAll runs: a
 	// losing learner, scored on fold 0 alone for large samples, then
 	// never needs an array over every record.
-	held [][][]float64
-	losses  []float64   // per candidate learner, out-of-fold mean log loss
-	best    int
-	only    int // if ≥ 0, the only learner fitted
+	held   [][][]float64
+	losses []float64 // per candidate learner, out-of-fold mean log loss
+	best   int
+	only   int // if ≥ 0, the only learner fitted
 	// oddsMean per learner: mean over reference records of the
 	// out-of-fold odds P(cmp|x)/P(ref|x), times n_ref/n_cmp (≈ 1 when
 	// calibrated; see oddsCalibration).
